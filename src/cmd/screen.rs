@@ -1,0 +1,124 @@
+//! `seistriage screen`: screen an inventory and write the outputs.
+
+use std::path::{Path, PathBuf};
+use std::process::ExitCode;
+
+use anyhow::{Context, bail};
+use seistriage::pipeline::{self, RunOptions};
+use seistriage::report;
+
+/// Options of `screen` (and of `demo`, which calls it).
+#[derive(Debug, Clone)]
+pub struct Options {
+    /// Inventory path.
+    pub inventory: PathBuf,
+    /// Input options.
+    pub run: RunOptions,
+    /// Workbook path (default output/<stem>-screening.xlsx).
+    pub out: Option<PathBuf>,
+    /// JSON path.
+    pub json: Option<PathBuf>,
+    /// CSV path.
+    pub csv: Option<PathBuf>,
+    /// GeoJSON path.
+    pub geojson: Option<PathBuf>,
+    /// Worker threads.
+    pub threads: Option<usize>,
+    /// Print only errors.
+    pub quiet: bool,
+}
+
+fn same_file(a: &Path, b: &Path) -> bool {
+    match (std::fs::canonicalize(a), std::fs::canonicalize(b)) {
+        (Ok(x), Ok(y)) => x == y,
+        _ => a == b,
+    }
+}
+
+/// Runs `screen`.
+pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
+    let stem = o
+        .inventory
+        .file_stem()
+        .map(|s| s.to_string_lossy().into_owned())
+        .unwrap_or_else(|| "inventory".into());
+    let out = o
+        .out
+        .clone()
+        .unwrap_or_else(|| PathBuf::from("output").join(format!("{stem}-screening.xlsx")));
+    for p in [
+        Some(&out),
+        o.json.as_ref(),
+        o.csv.as_ref(),
+        o.geojson.as_ref(),
+    ]
+    .into_iter()
+    .flatten()
+    {
+        if same_file(p, &o.inventory) {
+            bail!(
+                "refusing to write an output over the input file {}",
+                o.inventory.display()
+            );
+        }
+    }
+    if let Some(n) = o.threads {
+        // A global pool can only be built once per process; a second call is harmless.
+        let _ = rayon::ThreadPoolBuilder::new()
+            .num_threads(n)
+            .build_global();
+    }
+    let loaded = pipeline::load(&o.inventory, &o.run)?;
+    if loaded.inventory.buildings.is_empty() {
+        for p in &loaded.inventory.problems {
+            eprintln!("{p}");
+        }
+        eprintln!(
+            "seistriage: {}: no valid building row; nothing to screen",
+            o.inventory.display()
+        );
+        return Ok(ExitCode::from(1));
+    }
+    let report = pipeline::screen(&loaded);
+    if report.buildings.is_empty() {
+        for n in &report.not_screened {
+            eprintln!(
+                "buildings, row {}: {}: {}",
+                n.row,
+                n.id,
+                n.reasons.join("; ")
+            );
+        }
+        eprintln!(
+            "seistriage: {}: no building could be screened",
+            o.inventory.display()
+        );
+        return Ok(ExitCode::from(1));
+    }
+    let mut written: Vec<(String, PathBuf)> = Vec::new();
+    if let Some(parent) = out.parent().filter(|p| !p.as_os_str().is_empty()) {
+        std::fs::create_dir_all(parent)
+            .with_context(|| format!("creating {}", parent.display()))?;
+    }
+    let extra = report::workbook::write(&report, &out)
+        .with_context(|| format!("writing {}", out.display()))?;
+    written.push(("workbook".into(), out.clone()));
+    written.extend(extra);
+    if let Some(p) = &o.json {
+        report::json::write(&report, p).with_context(|| format!("writing {}", p.display()))?;
+        written.push(("JSON".into(), p.clone()));
+    }
+    if let Some(p) = &o.csv {
+        report::csv::write_priority(&report, p)
+            .with_context(|| format!("writing {}", p.display()))?;
+        written.push(("CSV".into(), p.clone()));
+    }
+    if let Some(p) = &o.geojson {
+        report::geojson::write(&report, p).with_context(|| format!("writing {}", p.display()))?;
+        written.push(("GeoJSON".into(), p.clone()));
+    }
+    if !o.quiet {
+        print!("{}", report::terminal::summary(&report, &written));
+    }
+    Ok(ExitCode::SUCCESS)
+}

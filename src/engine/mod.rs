@@ -1,0 +1,112 @@
+/*!
+The screening engine: `method.md` §0–§11 as pure functions on typed values.
+*/
+
+use std::collections::HashMap;
+
+use crate::model::{
+    BuildingRecord, FootprintVertex, Inventory, NotScreened, PerDir, SiteInfo, StoreyRecord,
+    WallRecord,
+};
+use crate::results::BuildingResult;
+use crate::settings::Settings;
+
+/// Everything the engine needs about one building.
+#[derive(Debug, Clone)]
+pub struct BuildingInput<'a> {
+    /// The buildings-sheet row.
+    pub record: &'a BuildingRecord,
+    /// Its rows of the walls sheet.
+    pub walls: Vec<&'a WallRecord>,
+    /// Its rows of the storeys sheet.
+    pub storeys: Vec<&'a StoreyRecord>,
+    /// Its footprint vertices, in vertex order.
+    pub footprint: Vec<&'a FootprintVertex>,
+    /// District and fault information, when geography was given.
+    pub site: Option<&'a SiteInfo>,
+}
+
+/// Retrofit walls added to a building (method §12): new RC wall area per direction (m²).
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct NewWalls {
+    /// Added ground-storey wall area per direction (m²).
+    pub area_m2: PerDir<f64>,
+}
+
+/// Screens one building; `Err` holds the reasons it cannot be screened.
+pub fn screen_building(
+    _input: &BuildingInput<'_>,
+    _settings: &Settings,
+) -> Result<BuildingResult, Vec<String>> {
+    Err(vec!["engine not implemented yet".into()])
+}
+
+/// Screens one building with retrofit walls added (method §12).
+pub fn screen_building_with(
+    _input: &BuildingInput<'_>,
+    _settings: &Settings,
+    _new: &NewWalls,
+) -> Result<BuildingResult, Vec<String>> {
+    Err(vec!["engine not implemented yet".into()])
+}
+
+/// Groups an inventory's rows per building, in file order.
+pub fn building_inputs<'a>(
+    inv: &'a Inventory,
+    sites: &'a HashMap<String, SiteInfo>,
+) -> Vec<BuildingInput<'a>> {
+    let mut walls: HashMap<&str, Vec<&WallRecord>> = HashMap::new();
+    for w in &inv.walls {
+        walls.entry(w.building_id.as_str()).or_default().push(w);
+    }
+    let mut storeys: HashMap<&str, Vec<&StoreyRecord>> = HashMap::new();
+    for s in &inv.storeys {
+        storeys.entry(s.building_id.as_str()).or_default().push(s);
+    }
+    let mut fp: HashMap<&str, Vec<&FootprintVertex>> = HashMap::new();
+    for v in &inv.footprints {
+        fp.entry(v.building_id.as_str()).or_default().push(v);
+    }
+    inv.buildings
+        .iter()
+        .map(|b| {
+            let mut footprint = fp.remove(b.id.as_str()).unwrap_or_default();
+            footprint.sort_by(|a, c| a.vertex.total_cmp(&c.vertex));
+            let mut st = storeys.remove(b.id.as_str()).unwrap_or_default();
+            st.sort_by_key(|s| s.storey);
+            BuildingInput {
+                record: b,
+                walls: walls.remove(b.id.as_str()).unwrap_or_default(),
+                storeys: st,
+                footprint,
+                site: sites.get(&b.id),
+            }
+        })
+        .collect()
+}
+
+/// Result of screening a whole inventory.
+#[derive(Debug, Clone, Default)]
+pub struct Screening {
+    /// Screened buildings, ranked (method §11).
+    pub buildings: Vec<BuildingResult>,
+    /// Buildings the engine could not screen (e.g. no hazard given), in file order.
+    pub not_screened: Vec<NotScreened>,
+}
+
+/// Screens every building in parallel and ranks them (method §11).
+pub fn screen_all(inputs: &[BuildingInput<'_>], settings: &Settings) -> Screening {
+    let mut out = Screening::default();
+    for i in inputs {
+        match screen_building(i, settings) {
+            Ok(r) => out.buildings.push(r),
+            Err(reasons) => out.not_screened.push(NotScreened {
+                sheet: "buildings".into(),
+                row: i.record.row,
+                id: i.record.id.clone(),
+                reasons,
+            }),
+        }
+    }
+    out
+}

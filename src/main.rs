@@ -1,0 +1,203 @@
+//! The `seistriage` command line: a thin layer over the library (one command per file in
+//! `cmd/`). Exit codes: 0 done, 1 the input could not be screened at all, 2 usage errors.
+
+mod cmd;
+
+use std::path::PathBuf;
+use std::process::ExitCode;
+
+use clap::{Args, Parser, Subcommand, ValueEnum};
+
+/// Seismic screening of existing reinforced-concrete building stocks: drift demand against
+/// wall and column drift capacity, configuration flags, retrofit priority and a budget plan.
+///
+/// Screening only: not a substitute for a detailed evaluation by a licensed engineer under
+/// the local code.
+#[derive(Parser, Debug)]
+#[command(name = "seistriage", version, about, long_about = None, after_help = seistriage::input::HEADER_RULE_HELP)]
+struct Cli {
+    #[command(subcommand)]
+    command: Command,
+}
+
+/// Performance level for ranking.
+#[derive(ValueEnum, Clone, Copy, Debug)]
+enum LevelArg {
+    /// Immediate Occupancy.
+    Io,
+    /// Life Safety.
+    Ls,
+    /// Collapse Prevention.
+    Cp,
+}
+
+impl From<LevelArg> for seistriage::settings::Level {
+    fn from(l: LevelArg) -> Self {
+        match l {
+            LevelArg::Io => Self::Io,
+            LevelArg::Ls => Self::Ls,
+            LevelArg::Cp => Self::Cp,
+        }
+    }
+}
+
+/// Input options shared by screen, check and explain.
+#[derive(Args, Debug, Clone)]
+struct InputArgs {
+    /// Settings file (TOML); see templates/settings.toml.
+    #[arg(long, value_name = "FILE.toml")]
+    settings: Option<PathBuf>,
+    /// 1-based row holding the column names (default: found by looking for the required names).
+    #[arg(long, value_name = "N", value_parser = clap::value_parser!(u32).range(1..))]
+    header_row: Option<u32>,
+    /// District polygons (GeoJSON, property `name`).
+    #[arg(long, value_name = "FILE.geojson")]
+    districts: Option<PathBuf>,
+    /// Fault traces (GeoJSON LineString/MultiLineString, properties `name`, optional `mw`).
+    #[arg(long, value_name = "FILE.geojson")]
+    faults: Option<PathBuf>,
+    /// Performance level whose DCR ranks the stock.
+    #[arg(long, value_enum)]
+    level: Option<LevelArg>,
+}
+
+impl InputArgs {
+    fn run_options(&self, budget: Option<f64>) -> seistriage::pipeline::RunOptions {
+        seistriage::pipeline::RunOptions {
+            read: seistriage::input::ReadOptions {
+                header_row: self.header_row.map(|n| n as usize),
+                ..Default::default()
+            },
+            settings_file: self.settings.clone(),
+            districts: self.districts.clone(),
+            faults: self.faults.clone(),
+            level: self.level.map(Into::into),
+            budget,
+        }
+    }
+}
+
+#[derive(Subcommand, Debug)]
+enum Command {
+    /// Screen an inventory and write the results workbook (and JSON/CSV/GeoJSON on request).
+    Screen(ScreenArgs),
+    /// Validate an inventory only; list every problem. Exit 0 when screening can proceed.
+    Check {
+        /// Inventory (.xlsx, .xlsm, .xls, .ods or .csv).
+        inventory: PathBuf,
+        #[command(flatten)]
+        input: InputArgs,
+    },
+    /// Show every step of the method for one building, with numbers, defaults and sources.
+    Explain {
+        /// Inventory.
+        inventory: PathBuf,
+        /// Building id.
+        id: String,
+        #[command(flatten)]
+        input: InputArgs,
+    },
+    /// Write the blank inventory workbook.
+    Template {
+        /// Output workbook.
+        #[arg(
+            long,
+            default_value = "output/inventory-template.xlsx",
+            value_name = "FILE.xlsx"
+        )]
+        out: PathBuf,
+    },
+    /// Write and screen the bundled invented demo inventory.
+    Demo {
+        /// Output folder.
+        #[arg(long, default_value = "output", value_name = "DIR")]
+        out: PathBuf,
+        /// Print only errors.
+        #[arg(long)]
+        quiet: bool,
+    },
+    /// Generate an invented inventory of any size (for benchmarks).
+    #[command(hide = true)]
+    Generate {
+        /// Number of buildings.
+        #[arg(long)]
+        buildings: usize,
+        /// Output file (.xlsx or .csv).
+        #[arg(long)]
+        out: PathBuf,
+        /// Random seed.
+        #[arg(long, default_value_t = 1)]
+        seed: u64,
+    },
+}
+
+/// Options of `screen`.
+#[derive(Args, Debug)]
+struct ScreenArgs {
+    /// Inventory (.xlsx, .xlsm, .xls, .ods or .csv).
+    inventory: PathBuf,
+    #[command(flatten)]
+    input: InputArgs,
+    /// Results workbook (default output/<inventory stem>-screening.xlsx).
+    #[arg(long, value_name = "FILE.xlsx")]
+    out: Option<PathBuf>,
+    /// JSON results.
+    #[arg(long, value_name = "FILE")]
+    json: Option<PathBuf>,
+    /// Priority table as CSV.
+    #[arg(long, value_name = "FILE")]
+    csv: Option<PathBuf>,
+    /// Buildings with coordinates as GeoJSON points.
+    #[arg(long, value_name = "FILE")]
+    geojson: Option<PathBuf>,
+    /// Retrofit budget (currency-neutral).
+    #[arg(long, value_name = "AMOUNT")]
+    budget: Option<f64>,
+    /// Worker threads (default: all cores).
+    #[arg(long, value_name = "N", value_parser = clap::value_parser!(u32).range(1..))]
+    threads: Option<u32>,
+    /// Print only errors.
+    #[arg(long)]
+    quiet: bool,
+}
+
+fn main() -> ExitCode {
+    let cli = Cli::parse();
+    let result = match cli.command {
+        Command::Screen(a) => cmd::screen::run(&cmd::screen::Options {
+            inventory: a.inventory.clone(),
+            run: a.input.run_options(a.budget),
+            out: a.out,
+            json: a.json,
+            csv: a.csv,
+            geojson: a.geojson,
+            threads: a.threads.map(|n| n as usize),
+            quiet: a.quiet,
+        }),
+        Command::Check { inventory, input } => {
+            cmd::check::run(&inventory, &input.run_options(None))
+        }
+        Command::Explain {
+            inventory,
+            id,
+            input,
+        } => cmd::explain::run(&inventory, &id, &input.run_options(None)),
+        Command::Template { out } => cmd::template::run(&out),
+        Command::Demo { out, quiet } => cmd::demo::run(&out, quiet),
+        Command::Generate {
+            buildings,
+            out,
+            seed,
+        } => cmd::generate::run(buildings, &out, seed),
+    };
+    match result {
+        Ok(code) => code,
+        Err(e) => {
+            if cmd::is_broken_pipe(&e) {
+                return ExitCode::SUCCESS;
+            }
+            eprintln!("seistriage: {e:#}");
+            ExitCode::from(1)
+        }
+    }
+}

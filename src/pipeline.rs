@@ -1,0 +1,182 @@
+/*!
+The whole job, from an inventory path to a [`Report`]: read, settle the settings, place the
+buildings, screen, size retrofits, plan the budget. Writing the report is left to
+[`crate::report`]; this module does no terminal or file output.
+*/
+
+use std::collections::HashMap;
+use std::path::{Path, PathBuf};
+
+use sha2::Digest;
+
+use crate::engine;
+use crate::geography::{GeoError, Geography};
+use crate::input::{self, InputError, ReadOptions};
+use crate::model::{Inventory, Problem, Severity, SiteInfo};
+use crate::results::{Counts, InputInfo, Report};
+use crate::retrofit;
+use crate::settings::{Level, Settings, SettingsError};
+
+/// Input options shared by `screen`, `check` and `explain`.
+#[derive(Debug, Clone, Default)]
+pub struct RunOptions {
+    /// Reader options (header row).
+    pub read: ReadOptions,
+    /// `--settings FILE.toml`.
+    pub settings_file: Option<PathBuf>,
+    /// `--districts FILE.geojson`.
+    pub districts: Option<PathBuf>,
+    /// `--faults FILE.geojson`.
+    pub faults: Option<PathBuf>,
+    /// `--level`.
+    pub level: Option<Level>,
+    /// `--budget`.
+    pub budget: Option<f64>,
+}
+
+/// Failures that stop a run (exit 1).
+#[derive(Debug, thiserror::Error)]
+pub enum PipelineError {
+    /// The inventory cannot be read.
+    #[error(transparent)]
+    Input(#[from] InputError),
+    /// The settings file is bad.
+    #[error("{path}: {source}")]
+    Settings {
+        /// Settings file path.
+        path: String,
+        /// What is wrong.
+        source: SettingsError,
+    },
+    /// The settings file cannot be read.
+    #[error("{path}: cannot read the settings file: {message}")]
+    SettingsFile {
+        /// Path.
+        path: String,
+        /// Why.
+        message: String,
+    },
+    /// A geography file cannot be used.
+    #[error(transparent)]
+    Geography(#[from] GeoError),
+}
+
+/// An inventory read and prepared for screening.
+#[derive(Debug, Clone)]
+pub struct Loaded {
+    /// Input file and its hash.
+    pub input: InputInfo,
+    /// The typed inventory (problems include settings-sheet and geography problems).
+    pub inventory: Inventory,
+    /// Effective settings.
+    pub settings: Settings,
+    /// District and fault data per building id.
+    pub sites: HashMap<String, SiteInfo>,
+}
+
+/// Settles the settings: built-in defaults < inventory `settings` sheet < TOML file < flags.
+/// Problems of the settings sheet are appended to `problems`.
+pub fn settle_settings(
+    inventory_rows: &[(String, String)],
+    problems: &mut Vec<Problem>,
+    opts: &RunOptions,
+) -> Result<Settings, PipelineError> {
+    let mut settings = Settings::default();
+    for (key, value) in inventory_rows {
+        if let Err(e) = settings.set_from_text(key.trim(), value) {
+            problems.push(Problem {
+                sheet: "settings".into(),
+                row: None,
+                column: key.clone(),
+                message: format!("{e}; the built-in default is kept"),
+                severity: Severity::Warning,
+            });
+        }
+    }
+    if let Some(path) = &opts.settings_file {
+        let text = std::fs::read_to_string(path).map_err(|e| PipelineError::SettingsFile {
+            path: path.display().to_string(),
+            message: e.to_string(),
+        })?;
+        settings
+            .apply_toml(&text)
+            .map_err(|source| PipelineError::Settings {
+                path: path.display().to_string(),
+                source,
+            })?;
+    }
+    if let Some(level) = opts.level {
+        settings.ranking_level = level;
+    }
+    if let Some(budget) = opts.budget {
+        settings.budget = Some(budget);
+    }
+    settings
+        .validate()
+        .map_err(|source| PipelineError::Settings {
+            path: "settings".into(),
+            source,
+        })?;
+    Ok(settings)
+}
+
+/// SHA-256 of a file, hex.
+fn sha256_hex(path: &Path) -> String {
+    match std::fs::read(path) {
+        Ok(bytes) => {
+            let digest = sha2::Sha256::digest(&bytes);
+            digest.iter().map(|b| format!("{b:02x}")).collect()
+        }
+        Err(_) => String::new(),
+    }
+}
+
+/// Reads the inventory, settles the settings and places the buildings.
+pub fn load(path: &Path, opts: &RunOptions) -> Result<Loaded, PipelineError> {
+    let mut inventory = input::read_inventory(path, &opts.read)?;
+    let mut problems = std::mem::take(&mut inventory.problems);
+    let settings = settle_settings(&inventory.settings_rows, &mut problems, opts)?;
+    let (geo, geo_problems) = Geography::load(opts.districts.as_deref(), opts.faults.as_deref())?;
+    problems.extend(geo_problems);
+    let (sites, site_problems) = crate::geography::locate(&inventory.buildings, &geo, &settings);
+    problems.extend(site_problems);
+    inventory.problems = problems;
+    Ok(Loaded {
+        input: InputInfo {
+            file: path.display().to_string(),
+            sha256: sha256_hex(path),
+        },
+        inventory,
+        settings,
+        sites,
+    })
+}
+
+/// Screens a loaded inventory: engine, retrofit sizing, budget plan, counts.
+pub fn screen(loaded: &Loaded) -> Report {
+    let inputs = engine::building_inputs(&loaded.inventory, &loaded.sites);
+    let screening = engine::screen_all(&inputs, &loaded.settings);
+    let mut buildings = screening.buildings;
+    retrofit::size_all(&mut buildings, &inputs, &loaded.settings);
+    let budget_plan = retrofit::budget_plan(&mut buildings, &loaded.settings);
+    let mut not_screened = loaded.inventory.not_screened.clone();
+    not_screened.extend(screening.not_screened);
+    not_screened.sort_by(|a, b| (a.sheet.as_str(), a.row).cmp(&(b.sheet.as_str(), b.row)));
+    let counts = Counts::tally(
+        loaded.inventory.rows,
+        loaded.inventory.blank_rows,
+        not_screened.len(),
+        &buildings,
+    );
+    Report {
+        tool: "seistriage",
+        version: env!("CARGO_PKG_VERSION"),
+        input: loaded.input.clone(),
+        settings: loaded.settings.clone(),
+        counts,
+        buildings,
+        budget_plan,
+        not_screened,
+        problems: loaded.inventory.problems.clone(),
+    }
+}

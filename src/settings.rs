@@ -1,0 +1,664 @@
+/*!
+Every coefficient, threshold and default of the screening method, in one struct.
+
+Each key carries a source tag, echoed on the workbook's Assumptions sheet:
+`[src]` a published source named in the doc, `[mem]` recalled from memory (verify before
+relying on it), `[practice]` common practice with no single source, `[screening]` an
+assumption of this method stated openly, `[project]` a choice of this tool (no engineering
+meaning). Precedence when loading: built-in defaults < inventory `settings` sheet <
+`--settings` TOML file < command-line flags.
+
+The key names of `interface.md` are fixed; keys the project adds are documented in
+`templates/settings.toml`, which a test keeps in step with [`KEYS`].
+*/
+
+use serde::{Deserialize, Serialize};
+use std::fmt;
+use std::str::FromStr;
+
+/// Errors raised while loading or applying settings.
+#[derive(Debug, thiserror::Error, PartialEq)]
+pub enum SettingsError {
+    /// A key that the settings table does not hold.
+    #[error("unknown settings key `{0}`")]
+    UnknownKey(String),
+    /// A value that cannot be read for its key.
+    #[error("settings key `{key}`: expected {expected}, found `{found}`")]
+    BadValue {
+        /// The key.
+        key: String,
+        /// What the key accepts.
+        expected: &'static str,
+        /// The text that was given.
+        found: String,
+    },
+    /// A TOML file that does not parse.
+    #[error("settings file: {0}")]
+    Toml(String),
+    /// A value that parses but is outside its allowed range.
+    #[error("settings key `{key}`: {message}")]
+    OutOfRange {
+        /// The key.
+        key: String,
+        /// Why it is refused.
+        message: String,
+    },
+}
+
+/// Ground type of EN 1998-1 Table 3.1.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord, Serialize, Deserialize)]
+pub enum GroundType {
+    /// Rock.
+    A,
+    /// Very dense sand/gravel or very stiff clay.
+    B,
+    /// Dense or medium-dense sand/gravel or stiff clay.
+    C,
+    /// Loose-to-medium cohesionless soil or soft-to-firm cohesive soil.
+    D,
+    /// Surface alluvium layer over stiffer material.
+    E,
+}
+
+/// Spectrum family (method §5).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+pub enum Spectrum {
+    /// EN 1998-1 Type 1 (Table 3.2).
+    #[serde(rename = "ec8-type1")]
+    Ec8Type1,
+    /// EN 1998-1 Type 2 (Table 3.3).
+    #[serde(rename = "ec8-type2")]
+    Ec8Type2,
+    /// ASCE 7-16 §11.4.6 two-parameter shape.
+    #[serde(rename = "two-parameter")]
+    TwoParameter,
+}
+
+/// Chord-rotation capacity model for walls (method §8).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+pub enum CapacityModel {
+    /// EN 1998-3 Annex A.
+    #[serde(rename = "eurocode")]
+    Eurocode,
+    /// ASCE 41-17 Table 10-19.
+    #[serde(rename = "asce41")]
+    Asce41,
+    /// The lower of the two at every level.
+    #[serde(rename = "lower-of-both")]
+    LowerOfBoth,
+}
+
+/// Performance level.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord, Serialize, Deserialize)]
+pub enum Level {
+    /// Immediate Occupancy (EN 1998-3 DL).
+    #[serde(rename = "io")]
+    Io,
+    /// Life Safety (EN 1998-3 SD).
+    #[serde(rename = "ls")]
+    Ls,
+    /// Collapse Prevention (EN 1998-3 NC).
+    #[serde(rename = "cp")]
+    Cp,
+}
+
+impl Level {
+    /// All three levels, from the least to the most severe damage state.
+    pub const ALL: [Level; 3] = [Level::Io, Level::Ls, Level::Cp];
+    /// The short lower-case code (`io`, `ls`, `cp`).
+    pub fn code(self) -> &'static str {
+        match self {
+            Level::Io => "io",
+            Level::Ls => "ls",
+            Level::Cp => "cp",
+        }
+    }
+}
+
+/// One row of the construction-era table: default material strengths by year built.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Era {
+    /// First year of the era (inclusive); empty = open.
+    #[serde(default)]
+    pub from_year: Option<i32>,
+    /// Last year of the era (inclusive); empty = open.
+    #[serde(default)]
+    pub to_year: Option<i32>,
+    /// Concrete strength (MPa).
+    #[serde(default)]
+    pub fc_mpa: Option<f64>,
+    /// Steel yield strength (MPa).
+    #[serde(default)]
+    pub fy_mpa: Option<f64>,
+}
+
+/// A value type that a settings key can hold, read from text (TOML scalar or sheet cell).
+pub trait SettingValue: Sized {
+    /// What the key accepts, for messages.
+    const EXPECTED: &'static str;
+    /// Reads the value from text; `None` when the text is not acceptable.
+    fn parse_text(text: &str) -> Option<Self>;
+    /// The value as text (empty for an empty optional value).
+    fn to_text(&self) -> String;
+}
+
+fn parse_number(text: &str) -> Option<f64> {
+    let t = text.trim().replace(',', ".");
+    let v = f64::from_str(&t).ok()?;
+    v.is_finite().then_some(v)
+}
+
+impl SettingValue for f64 {
+    const EXPECTED: &'static str = "a number";
+    fn parse_text(text: &str) -> Option<Self> {
+        parse_number(text)
+    }
+    fn to_text(&self) -> String {
+        format!("{self}")
+    }
+}
+
+impl SettingValue for Option<f64> {
+    const EXPECTED: &'static str = "a number or empty";
+    fn parse_text(text: &str) -> Option<Self> {
+        if text.trim().is_empty() {
+            Some(None)
+        } else {
+            parse_number(text).map(Some)
+        }
+    }
+    fn to_text(&self) -> String {
+        self.map(|v| format!("{v}")).unwrap_or_default()
+    }
+}
+
+impl SettingValue for Option<i32> {
+    const EXPECTED: &'static str = "a year or empty";
+    fn parse_text(text: &str) -> Option<Self> {
+        if text.trim().is_empty() {
+            return Some(None);
+        }
+        let v = parse_number(text)?;
+        (v.fract() == 0.0 && v.abs() < 1.0e6).then_some(Some(v as i32))
+    }
+    fn to_text(&self) -> String {
+        self.map(|v| v.to_string()).unwrap_or_default()
+    }
+}
+
+macro_rules! text_enum {
+    ($ty:ty, $expected:literal, $( $text:literal => $variant:expr ),* $(,)?) => {
+        impl SettingValue for $ty {
+            const EXPECTED: &'static str = $expected;
+            fn parse_text(text: &str) -> Option<Self> {
+                let t = text.trim().to_ascii_lowercase();
+                match t.as_str() {
+                    $( $text => Some($variant), )*
+                    _ => None,
+                }
+            }
+            fn to_text(&self) -> String {
+                $( if *self == $variant { return $text.to_ascii_uppercase_if_ground(); } )*
+                String::new()
+            }
+        }
+    };
+}
+
+trait GroundCase {
+    fn to_ascii_uppercase_if_ground(&self) -> String;
+}
+impl GroundCase for &str {
+    fn to_ascii_uppercase_if_ground(&self) -> String {
+        if self.len() == 1 {
+            self.to_ascii_uppercase()
+        } else {
+            (*self).to_string()
+        }
+    }
+}
+
+text_enum!(GroundType, "one of A, B, C, D, E",
+    "a" => GroundType::A, "b" => GroundType::B, "c" => GroundType::C,
+    "d" => GroundType::D, "e" => GroundType::E);
+text_enum!(Spectrum, "one of ec8-type1, ec8-type2, two-parameter",
+    "ec8-type1" => Spectrum::Ec8Type1, "ec8-type2" => Spectrum::Ec8Type2,
+    "two-parameter" => Spectrum::TwoParameter);
+text_enum!(CapacityModel, "one of eurocode, asce41, lower-of-both",
+    "eurocode" => CapacityModel::Eurocode, "asce41" => CapacityModel::Asce41,
+    "lower-of-both" => CapacityModel::LowerOfBoth);
+text_enum!(Level, "one of io, ls, cp", "io" => Level::Io, "ls" => Level::Ls, "cp" => Level::Cp);
+
+impl fmt::Display for GroundType {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(&self.to_text())
+    }
+}
+impl fmt::Display for Level {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(self.code())
+    }
+}
+
+/// Description of one settings key: its name, source tag and meaning.
+#[derive(Debug, Clone, Copy)]
+pub struct KeyInfo {
+    /// The key, as in the TOML file and the settings sheet.
+    pub key: &'static str,
+    /// The source tag (`[src] …`, `[mem] …`, `[practice]`, `[screening]`, `[project]`).
+    pub tag: &'static str,
+    /// What the key means, with its unit.
+    pub doc: &'static str,
+}
+
+macro_rules! settings_table {
+    ($( $key:ident : $ty:ty = $default:expr ; $tag:literal ; $doc:literal ; )*) => {
+        /// Every coefficient, threshold and default of `method.md`, with its source tag
+        /// in [`KEYS`]. Field names are the fixed settings keys of `interface.md`.
+        #[derive(Debug, Clone, PartialEq, Serialize)]
+        pub struct Settings {
+            $( #[doc = $doc] #[doc = ""] #[doc = $tag] pub $key: $ty, )*
+            /// Construction-era table (TOML only): default fc / fy by year built. Empty by
+            /// default [screening]: the local code history decides it.
+            pub era: Vec<Era>,
+        }
+
+        impl Default for Settings {
+            fn default() -> Self {
+                Self { $( $key: $default, )* era: Vec::new() }
+            }
+        }
+
+        /// Every scalar settings key with its source tag and meaning, in table order.
+        pub const KEYS: &[KeyInfo] = &[ $( KeyInfo { key: stringify!($key), tag: $tag, doc: $doc }, )* ];
+
+        impl Settings {
+            /// Sets one scalar key from text (a settings-sheet cell or a TOML scalar).
+            pub fn set_from_text(&mut self, key: &str, text: &str) -> Result<(), SettingsError> {
+                match key {
+                    $( stringify!($key) => {
+                        self.$key = <$ty as SettingValue>::parse_text(text).ok_or_else(|| SettingsError::BadValue {
+                            key: key.to_string(),
+                            expected: <$ty as SettingValue>::EXPECTED,
+                            found: text.to_string(),
+                        })?;
+                        Ok(())
+                    } )*
+                    _ => Err(SettingsError::UnknownKey(key.to_string())),
+                }
+            }
+
+            /// The effective value of one scalar key as text (empty when unset).
+            pub fn value_text(&self, key: &str) -> Option<String> {
+                match key {
+                    $( stringify!($key) => Some(SettingValue::to_text(&self.$key)), )*
+                    _ => None,
+                }
+            }
+        }
+    };
+}
+
+settings_table! {
+    // ---- hazard (method §5) ----
+    agr_g: Option<f64> = None; "[screening] no built-in default: hazard is site-specific";
+        "Reference peak ground acceleration on rock agR (g).";
+    default_ground_type: GroundType = GroundType::C; "[screening]";
+        "Ground type (EN 1998-1 Table 3.1, A-E) used when neither row nor district gives one.";
+    spectrum: Spectrum = Spectrum::Ec8Type1; "[src] EN 1998-1 §3.2.2.2; ASCE 7-16 §11.4.6";
+        "Spectrum family: ec8-type1, ec8-type2 or two-parameter.";
+    sds_g: Option<f64> = None; "[src] ASCE 7-16 §11.4.6";
+        "Two-parameter spectrum: short-period design acceleration SDS (g).";
+    sd1_g: Option<f64> = None; "[src] ASCE 7-16 §11.4.6";
+        "Two-parameter spectrum: 1-second design acceleration SD1 (g).";
+    tl_s: Option<f64> = None; "[src] ASCE 7-16 §11.4.6";
+        "Two-parameter spectrum: long-period corner TL (s); empty = no corner.";
+    damping_pct: f64 = 5.0; "[src] EN 1998-1 §3.2.2.2(3)";
+        "Viscous damping ratio xi (%) for eta = sqrt(10/(5+xi)) >= 0.55.";
+    eta_min: f64 = 0.55; "[src] EN 1998-1 eq. (3.6)";
+        "Lower bound of the damping correction factor eta.";
+    gamma_i_residential: f64 = 1.0; "[mem-H] EN 1998-1 Table 4.3 recommended, class II";
+        "Importance factor gamma_I for residential use.";
+    gamma_i_office: f64 = 1.0; "[mem-H] EN 1998-1 Table 4.3 recommended, class II";
+        "Importance factor gamma_I for office use.";
+    gamma_i_school: f64 = 1.2; "[mem-H] EN 1998-1 Table 4.3 recommended, class III";
+        "Importance factor gamma_I for schools.";
+    gamma_i_hospital: f64 = 1.4; "[mem-H] EN 1998-1 Table 4.3 recommended, class IV";
+        "Importance factor gamma_I for hospitals.";
+    gamma_i_other: f64 = 1.0; "[mem-H] EN 1998-1 Table 4.3 recommended, class II";
+        "Importance factor gamma_I for other uses.";
+    near_fault_km: f64 = 10.0; "[screening]";
+        "Distance (km) within which a fault trace without magnitude flags near-fault.";
+    near_fault_mw_large: f64 = 7.0; "[mem-H] ASCE 7-16 §11.4.1";
+        "Magnitude from which the large near-fault distance applies.";
+    near_fault_km_large: f64 = 15.0; "[mem-H] ASCE 7-16 §11.4.1";
+        "Near-fault distance (km) for traces with Mw >= near_fault_mw_large.";
+    near_fault_mw_small: f64 = 6.0; "[mem-H] ASCE 7-16 §11.4.1";
+        "Magnitude below which a trace never flags near-fault.";
+    near_fault_km_small: f64 = 10.0; "[mem-H] ASCE 7-16 §11.4.1";
+        "Near-fault distance (km) for traces with near_fault_mw_small <= Mw < near_fault_mw_large.";
+    near_fault_demand_factor: f64 = 1.0; "[screening] off (1.0) by default";
+        "Factor on the spectrum for buildings flagged near-fault (1.0 = no change).";
+    // ---- building defaults (method §0) ----
+    floor_weight_kpa: f64 = 12.0; "[practice, mem] 10-14 kPa for RC buildings with infill";
+        "Seismic weight per unit floor area w (kPa).";
+    default_storey_height_m: f64 = 3.0; "[practice]";
+        "Typical storey height when the row gives none (m).";
+    default_wall_length_m: f64 = 4.0; "[screening]";
+        "Representative RC wall length lw when the row gives none (m).";
+    default_wall_thickness_m: f64 = 0.25; "[screening]";
+        "RC wall thickness tw when the row gives none (m).";
+    default_column_depth_m: f64 = 0.40; "[screening]";
+        "Square column depth h_c when the row gives none (m).";
+    default_fc_mpa: f64 = 20.0; "[screening]";
+        "Concrete strength fc when neither row nor era table gives one (MPa).";
+    default_fy_mpa: f64 = 420.0; "[screening]";
+        "Steel yield strength fy when neither row nor era table gives one (MPa).";
+    default_bar_diameter_m: f64 = 0.016; "[screening]";
+        "Longitudinal bar diameter db (m).";
+    boundary_steel_pct: f64 = 1.0; "[screening]";
+        "Wall boundary (tension = compression) steel ratio (%).";
+    web_steel_pct: f64 = 0.25; "[src] ACI 318-19 §18.10.2.1 minimum";
+        "Wall web vertical steel ratio rho_v (%), used in the boundary-element check.";
+    column_steel_pct: f64 = 1.0; "[screening]";
+        "Column longitudinal steel ratio rho_l (%); omega = omega' = 0.5 rho_l fy / fc.";
+    es_mpa: f64 = 200000.0; "[src] EN 1992-1-1 §3.2.7(4)";
+        "Steel modulus Es (MPa).";
+    confidence_factor: f64 = 1.0; "[mem-H] EN 1998-3 Table 3.1 (KL1 1.35, KL2 1.20, KL3 1.00)";
+        "Confidence factor CF dividing mean strengths of existing members in §8.";
+    boundary_elements_from_year: Option<i32> = None; "[screening] empty: local code history decides";
+        "Year from which walls recorded 'unknown' are taken to have boundary elements.";
+    seismic_detailing_from_year: Option<i32> = None; "[screening] empty: local code history decides";
+        "Year from which columns are taken to be seismically detailed.";
+    // ---- indices and strength (method §1-§3) ----
+    infill_weight: f64 = 0.1; "[src] Hassan & Sozen 1997 (1/10 weight of infill, mem)";
+        "Weight of masonry infill area relative to RC wall area (§1, §3, §10).";
+    pi_threshold_pct: Option<f64> = None; "[screening] no published cut-off built in";
+        "Priority index (%) below which low-priority-index is flagged; empty = no flag.";
+    tau_wall_mpa: f64 = 2.0; "[src] JBDPA 2001 first-level screening (mem)";
+        "Average shear strength of RC walls tau_w (MPa).";
+    tau_column_mpa: f64 = 1.0; "[src] JBDPA 2001 first-level screening, 2 < h0/D <= 6 (mem)";
+        "Average shear strength of columns tau_c (MPa).";
+    fc_reference_mpa: f64 = 20.0; "[src] JBDPA 2001 (beta = fc/20, sqrt branch mem)";
+        "Reference concrete strength of the strength factor beta (MPa).";
+    alpha1_with_walls: f64 = 0.7; "[src] JBDPA 2001 (mem)";
+        "Column strength participation alpha1 when RC walls exist in the direction.";
+    // ---- period (method §4) ----
+    ct_period: f64 = 0.075; "[src] EN 1998-1 eqs. (4.6)/(4.7)";
+        "Period coefficient Ct (s/m^0.75).";
+    period_factor: f64 = 1.0; "[screening] cracked-stiffness practice 1.3-1.5 (mem)";
+        "Factor on the formula period.";
+    period_height_limit_m: f64 = 40.0; "[src] EN 1998-1 §4.3.3.2.2(3)";
+        "Height above which the period formula is outside its range (flag period-range).";
+    // ---- drift demand (method §7) ----
+    kappa_frame: f64 = 1.5; "[practice, mem]";
+        "Storey-drift concentration factor for a bare frame.";
+    kappa_wall: f64 = 1.2; "[practice, mem]";
+        "Storey-drift concentration factor for a wall-dominated building.";
+    kappa_soft: f64 = 2.5; "[screening]";
+        "Storey-drift concentration factor with a soft or weak storey.";
+    kappa_wall_index_pct: f64 = 0.5; "[screening]";
+        "RC wall index (%) at which kappa reaches kappa_wall.";
+    // ---- capacity (method §8) ----
+    gamma_el: f64 = 1.5; "[src] EN 1998-3 §A.3.2.2(1)";
+        "gamma_el for primary seismic elements in eq. (A.1).";
+    wall_capacity_factor: f64 = 0.58; "[src] EN 1998-3 §A.3.2.2(1), note on walls";
+        "Factor on theta_um for walls.";
+    no_detailing_divisor: f64 = 1.2; "[mem] EN 1998-3 §A.3.2.2(2)";
+        "Divisor on theta_um for members without seismic detailing.";
+    confined_alpha: f64 = 0.5; "[screening]";
+        "Confinement effectiveness alpha with boundary elements / seismic detailing.";
+    confined_rho_sx_pct: f64 = 0.6; "[screening]";
+        "Transverse steel ratio rho_sx (%) with boundary elements / seismic detailing.";
+    unconfined_alpha: f64 = 0.2; "[screening]";
+        "Confinement effectiveness alpha without detailing.";
+    unconfined_rho_sx_pct: f64 = 0.1; "[screening]";
+        "Transverse steel ratio rho_sx (%) without detailing.";
+    ls_fraction_of_cp: f64 = 0.75; "[src] EN 1998-3 §A.3.2.3 (SD = 3/4 NC)";
+        "Life Safety (SD) rotation as a fraction of the CP (NC) rotation.";
+    phi_y_wall: f64 = 2.0; "[src] Priestley, Calvi & Kowalsky 2007";
+        "Yield curvature coefficient of walls: phi_y = c eps_y / lw.";
+    phi_y_column: f64 = 2.1; "[src] Priestley, Calvi & Kowalsky 2007";
+        "Yield curvature coefficient of columns: phi_y = c eps_y / h.";
+    // ---- flags (method §10) ----
+    soft_ratio: f64 = 0.70; "[src] ASCE 7-16 Table 12.3-2 type 1a";
+        "Soft storey: k1 below this fraction of k2.";
+    soft_ratio_mean: f64 = 0.80; "[src] ASCE 7-16 Table 12.3-2 type 1a";
+        "Soft storey: k1 below this fraction of the mean of the three storeys above.";
+    extreme_soft_ratio: f64 = 0.60; "[src] ASCE 7-16 Table 12.3-2 type 1b";
+        "Extreme soft storey: k1 below this fraction of k2.";
+    extreme_soft_ratio_mean: f64 = 0.70; "[src] ASCE 7-16 Table 12.3-2 type 1b";
+        "Extreme soft storey: k1 below this fraction of the mean of the three storeys above.";
+    weak_ratio: f64 = 0.80; "[src] ASCE 7-16 Table 12.3-2 type 5a";
+        "Weak storey: ground-storey strength below this fraction of the storey above.";
+    high_axial_wall: f64 = 0.40; "[mem-H] EN 1998-1 §5.4.3.4.1 (DCM)";
+        "Axial load ratio above which walls are flagged high-axial-wall.";
+    high_axial_column: f64 = 0.65; "[mem-H] EN 1998-1 §5.4.3.2.1 (DCM)";
+        "Axial load ratio above which columns are flagged high-axial-column.";
+    slender_wall_ratio: f64 = 12.0; "[practice]";
+        "H/lw above which a wall is flagged slender-wall.";
+    squat_wall_ratio: f64 = 1.5; "[practice]";
+        "Lv/lw below which a wall is flagged squat-wall.";
+    torsion_eccentricity_ratio: f64 = 0.30; "[src] EN 1998-1 §4.2.3.2(6) eq. (4.1a)";
+        "Torsion: e0 must not exceed this fraction of the torsional radius.";
+    boundary_drift_floor: f64 = 0.005; "[src] ACI 318-19 §18.10.6.2(a)";
+        "Lower bound of delta_u/hw in the boundary-element displacement check.";
+    boundary_aspect_min: f64 = 2.0; "[src] ACI 318-19 §18.10.6.2";
+        "hw/lw from which the displacement-based boundary-element check applies.";
+    calibration_axial_max: f64 = 0.5; "[practice]";
+        "Axial load ratio above which capacity equations are extrapolated.";
+    calibration_steel_min_pct: f64 = 0.5; "[practice]";
+        "Lower bound of the calibrated boundary steel ratio (%).";
+    calibration_steel_max_pct: f64 = 4.0; "[practice]";
+        "Upper bound of the calibrated boundary steel ratio (%).";
+    calibration_shear_span_min: f64 = 1.0; "[practice]";
+        "Lower bound of the calibrated shear-span ratio Lv/h.";
+    calibration_shear_span_max: f64 = 8.0; "[practice]";
+        "Upper bound of the calibrated shear-span ratio Lv/h.";
+    wall_area_mismatch_pct: f64 = 5.0; "[project]";
+        "Difference (%) between listed walls and rc_wall_area_* above which a warning is given.";
+    // ---- capacity model choice and ranking (method §8, §11) ----
+    capacity_model: CapacityModel = CapacityModel::Eurocode; "[project]";
+        "Wall capacity model: eurocode, asce41 or lower-of-both.";
+    ranking_level: Level = Level::Ls; "[screening]";
+        "Performance level whose governing DCR is the score: io, ls or cp.";
+    // ---- retrofit and budget (method §12) ----
+    retrofit_target_dcr: f64 = 1.0; "[screening]";
+        "DCR_LS the wall retrofit must reach in each direction.";
+    max_added_wall_index_pct: f64 = 1.5; "[screening]";
+        "Cap on added RC wall area as a percentage of total floor area.";
+    min_new_wall_index_pct: f64 = 0.2; "[screening]";
+        "Added wall index (%) from which new walls govern the deformed shape (graded kappa).";
+    new_wall_fc_mpa: f64 = 30.0; "[screening]";
+        "Concrete strength of new walls (MPa).";
+    new_wall_fy_mpa: f64 = 420.0; "[screening]";
+        "Steel yield strength of new walls (MPa).";
+    new_wall_thickness_m: f64 = 0.25; "[screening]";
+        "Thickness of new walls (m).";
+    new_wall_length_m: f64 = 5.0; "[screening]";
+        "Length of each new wall (m).";
+    new_wall_axial_ratio: f64 = 0.05; "[screening]";
+        "Axial load ratio of new walls (they carry little gravity load).";
+    bisection_tolerance_pct_of_cap: f64 = 0.5; "[screening]";
+        "Bisection tolerance as a percentage of the cap (at least bisection_tolerance_m2).";
+    bisection_tolerance_m2: f64 = 0.01; "[screening]";
+        "Smallest bisection tolerance (m2).";
+    unit_cost_wall_m3: Option<f64> = None; "[project] no default: prices are local";
+        "Cost of new RC wall per m3 (currency-neutral).";
+    unit_cost_floor_m2: Option<f64> = None; "[project] no default: prices are local";
+        "Cost of finishes and foundations per m2 of floor area (currency-neutral).";
+    replacement_cost_m2: Option<f64> = None; "[project] no default: prices are local";
+        "Replacement cost per m2 of floor area (currency-neutral).";
+    replace_ratio: f64 = 0.40; "[practice, mem]";
+        "Recommend replacement when retrofit cost exceeds this fraction of replacement cost.";
+    budget: Option<f64> = None; "[project]";
+        "Budget for the funding plan (currency-neutral); empty = no plan.";
+    knapsack_resolution: f64 = 2000.0; "[project]";
+        "Number of cost steps of the knapsack (cost step = budget / this).";
+    // ---- input plausibility (inventory.md) ----
+    max_storeys: f64 = 60.0; "[project] inventory.md";
+        "Storey count above which a row is refused as implausible.";
+    storey_height_min_m: f64 = 2.2; "[project] inventory.md";
+        "Storey height below which a warning is given (m).";
+    storey_height_max_m: f64 = 6.0; "[project] inventory.md";
+        "Storey height above which a warning is given (m).";
+    floor_weight_min_kpa: f64 = 6.0; "[project] inventory.md";
+        "Floor weight below which a warning is given (kPa).";
+    floor_weight_max_kpa: f64 = 20.0; "[project] inventory.md";
+        "Floor weight above which a warning is given (kPa).";
+}
+
+impl Settings {
+    /// Applies the rows of an inventory's `settings` sheet (key, value) in order.
+    pub fn apply_pairs<'a>(
+        &mut self,
+        pairs: impl IntoIterator<Item = (&'a str, &'a str)>,
+    ) -> Vec<SettingsError> {
+        let mut errors = Vec::new();
+        for (k, v) in pairs {
+            if let Err(e) = self.set_from_text(k.trim(), v) {
+                errors.push(e);
+            }
+        }
+        errors
+    }
+
+    /// Applies a TOML settings file: every key present overrides the current value; the
+    /// `[[era]]` array replaces the era table.
+    pub fn apply_toml(&mut self, text: &str) -> Result<(), SettingsError> {
+        let table: toml::Table =
+            toml::from_str(text).map_err(|e| SettingsError::Toml(e.to_string()))?;
+        for (key, value) in table {
+            if key == "era" {
+                self.era = value
+                    .try_into()
+                    .map_err(|e: toml::de::Error| SettingsError::Toml(format!("[[era]]: {e}")))?;
+                continue;
+            }
+            let text = match &value {
+                toml::Value::String(s) => s.clone(),
+                toml::Value::Integer(i) => i.to_string(),
+                toml::Value::Float(f) => f.to_string(),
+                other => {
+                    return Err(SettingsError::BadValue {
+                        key,
+                        expected: "a number or a text",
+                        found: other.to_string(),
+                    });
+                }
+            };
+            self.set_from_text(&key, &text)?;
+        }
+        self.validate()
+    }
+
+    /// Checks ranges that would make the method meaningless.
+    pub fn validate(&self) -> Result<(), SettingsError> {
+        let positive = [
+            ("floor_weight_kpa", self.floor_weight_kpa),
+            ("default_storey_height_m", self.default_storey_height_m),
+            ("default_wall_length_m", self.default_wall_length_m),
+            ("default_wall_thickness_m", self.default_wall_thickness_m),
+            ("default_column_depth_m", self.default_column_depth_m),
+            ("default_fc_mpa", self.default_fc_mpa),
+            ("default_fy_mpa", self.default_fy_mpa),
+            ("gamma_el", self.gamma_el),
+            ("confidence_factor", self.confidence_factor),
+            ("period_factor", self.period_factor),
+            ("new_wall_length_m", self.new_wall_length_m),
+            ("new_wall_thickness_m", self.new_wall_thickness_m),
+            ("new_wall_fc_mpa", self.new_wall_fc_mpa),
+            ("new_wall_fy_mpa", self.new_wall_fy_mpa),
+            ("knapsack_resolution", self.knapsack_resolution),
+            ("es_mpa", self.es_mpa),
+        ];
+        for (key, v) in positive {
+            if v <= 0.0 {
+                return Err(SettingsError::OutOfRange {
+                    key: key.into(),
+                    message: format!("must be greater than 0, found {v}"),
+                });
+            }
+        }
+        for (key, v) in [("agr_g", self.agr_g), ("budget", self.budget)] {
+            if let Some(v) = v
+                && v < 0.0
+            {
+                return Err(SettingsError::OutOfRange {
+                    key: key.into(),
+                    message: format!("must not be negative, found {v}"),
+                });
+            }
+        }
+        Ok(())
+    }
+
+    /// Importance factor gamma_I for a use (EN 1998-1 Table 4.3, via the settings).
+    pub fn gamma_i(&self, use_: crate::model::Use) -> f64 {
+        use crate::model::Use;
+        match use_ {
+            Use::Residential => self.gamma_i_residential,
+            Use::Office => self.gamma_i_office,
+            Use::School => self.gamma_i_school,
+            Use::Hospital => self.gamma_i_hospital,
+            Use::Other => self.gamma_i_other,
+        }
+    }
+
+    /// The source tag of a key, if the key exists.
+    pub fn tag(key: &str) -> Option<&'static str> {
+        KEYS.iter().find(|k| k.key == key).map(|k| k.tag)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn every_key_reads_back_its_own_default_text() {
+        let s = Settings::default();
+        for k in KEYS {
+            let text = s.value_text(k.key).unwrap_or_default();
+            let mut t = Settings::default();
+            t.set_from_text(k.key, &text)
+                .unwrap_or_else(|e| panic!("{}: {e}", k.key));
+            assert_eq!(t, s, "key {}", k.key);
+        }
+    }
+
+    #[test]
+    fn toml_overrides_and_rejects_unknown_keys() {
+        let mut s = Settings::default();
+        s.apply_toml(
+            "agr_g = 0.25\nspectrum = \"ec8-type2\"\n[[era]]\nto_year = 1975\nfc_mpa = 14\n",
+        )
+        .unwrap_or_else(|e| panic!("{e}"));
+        assert_eq!(s.agr_g, Some(0.25));
+        assert_eq!(s.spectrum, Spectrum::Ec8Type2);
+        assert_eq!(s.era.len(), 1);
+        let mut s = Settings::default();
+        assert!(matches!(
+            s.apply_toml("agr = 0.2"),
+            Err(SettingsError::UnknownKey(_))
+        ));
+        assert!(matches!(
+            s.apply_toml("gamma_el = \"x\""),
+            Err(SettingsError::BadValue { .. })
+        ));
+    }
+
+    #[test]
+    fn decimal_comma_and_empty_values_in_sheet_cells() {
+        let mut s = Settings::default();
+        let errs = s.apply_pairs([
+            ("agr_g", "0,3"),
+            ("pi_threshold_pct", ""),
+            ("default_ground_type", "b"),
+        ]);
+        assert!(errs.is_empty());
+        assert_eq!(s.agr_g, Some(0.3));
+        assert_eq!(s.default_ground_type, GroundType::B);
+    }
+}

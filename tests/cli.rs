@@ -1,0 +1,1 @@
+//! Tests: cli (see DEVELOPERS.md).

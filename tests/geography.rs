@@ -1,0 +1,1 @@
+//! Tests: geography (see DEVELOPERS.md).

@@ -1,0 +1,1 @@
+//! Tests: input_cases (see DEVELOPERS.md).

@@ -1,0 +1,1 @@
+//! Tests: outputs (see DEVELOPERS.md).

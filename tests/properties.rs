@@ -1,0 +1,1 @@
+//! Tests: properties (see DEVELOPERS.md).

@@ -1,0 +1,1 @@
+//! Tests: regression (see DEVELOPERS.md).

@@ -1,0 +1,1 @@
+//! Tests: retrofit (see DEVELOPERS.md).
