@@ -108,7 +108,6 @@ pub fn read_csv(
         .from_reader(body);
     let mut record = csv::ByteRecord::new();
     let mut person_row = 0usize;
-    let mut prev_line: Option<(u64, u64)> = None; // (start line, newlines inside fields)
     loop {
         let more = rdr.read_byte_record(&mut record).map_err(|e| {
             unreadable(&p, format!("CSV cannot be read: {e}"))
@@ -116,17 +115,17 @@ pub fn read_csv(
         if !more {
             break;
         }
-        let line = record.position().map(|pos| pos.line()).unwrap_or(0);
-        let blanks = match prev_line {
-            None => line.saturating_sub(1),
-            Some((pl, nl)) => line.saturating_sub(pl).saturating_sub(1).saturating_sub(nl),
-        };
-        let inner_newlines = record
-            .iter()
-            .map(|f| f.iter().filter(|b| **b == b'\n').count() as u64)
-            .sum();
-        prev_line = Some((line, inner_newlines));
-        person_row += blanks as usize + 1;
+        // The csv crate skips blank lines silently; a record's position is where reading
+        // started, so the line ends just before its first byte are the blank lines above it.
+        let start = record.position().map(|pos| pos.byte() as usize).unwrap_or(0);
+        let lead = body.get(start..).unwrap_or(&[]);
+        let run = lead.iter().take_while(|b| matches!(b, b'\r' | b'\n'));
+        let mut blanks = run.filter(|b| **b == b'\n').count();
+        let glued = start > 0 && body.get(start - 1) == Some(&b'\r') && lead.first() == Some(&b'\n');
+        if glued {
+            blanks = blanks.saturating_sub(1);
+        }
+        person_row += blanks + 1;
         let mut row = RawRow {
             row: person_row,
             cells: Vec::new(),

@@ -1,0 +1,1 @@
+//! templates/settings.toml and the settings struct stay in step.

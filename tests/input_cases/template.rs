@@ -1,0 +1,1 @@
+//! The committed blank inventory template is current.
