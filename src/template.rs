@@ -99,9 +99,16 @@ fn write_readme(ws: &mut Worksheet, bold: &Format, wrap: &Format) -> Result<(), 
         r += 1;
     }
     r += 1;
-    for (i, h) in ["sheet", "column", "unit / values", "required", "default", "meaning"]
-        .iter()
-        .enumerate()
+    for (i, h) in [
+        "sheet",
+        "column",
+        "unit / values",
+        "required",
+        "default",
+        "meaning",
+    ]
+    .iter()
+    .enumerate()
     {
         ws.write_string_with_format(r, i as u16, *h, bold)?;
     }
@@ -182,7 +189,13 @@ pub fn settings_toml() -> String {
     );
     for k in KEYS {
         let value = defaults.value_text(k.key).unwrap_or_default();
-        out.push_str(&format!("\n## {}\n## {}\n# {} = {}\n", k.doc, k.tag, k.key, toml_value(&value)));
+        out.push_str(&format!(
+            "\n## {}\n## {}\n# {} = {}\n",
+            k.doc,
+            k.tag,
+            k.key,
+            toml_value(&value)
+        ));
     }
     out.push_str(
         "\n## Construction-era table (TOML only): default fc / fy by year built, used when a row\n\
@@ -206,7 +219,10 @@ mod tests {
     fn every_closed_set_column_has_a_drop_down() {
         for spec in SHEETS {
             for c in spec.columns {
-                let closed = matches!(c.kind, Kind::Use | Kind::YesNo | Kind::Ground | Kind::Direction);
+                let closed = matches!(
+                    c.kind,
+                    Kind::Use | Kind::YesNo | Kind::Ground | Kind::Direction
+                );
                 assert_eq!(allowed_values(c.kind).is_some(), closed, "{}", c.name);
             }
         }

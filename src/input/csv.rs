@@ -38,7 +38,10 @@ pub fn delimiter_of(text: &[u8]) -> u8 {
 fn sniff_delimiter(text: &[u8]) -> u8 {
     let line = text
         .split(|b| *b == b'\n')
-        .find(|l| l.iter().any(|b| !b.is_ascii_whitespace() && *b != b',' && *b != b';'))
+        .find(|l| {
+            l.iter()
+                .any(|b| !b.is_ascii_whitespace() && *b != b',' && *b != b';')
+        })
         .unwrap_or(&[]);
     let mut counts = [0usize; 3];
     let mut quoted = false;
@@ -65,7 +68,7 @@ pub fn read_csv(
     path: &Path,
     budget: &Budget,
     counter: &mut CellCounter,
-    sink: &mut dyn FnMut(RawRow, &[usize]) -> Result<(), InputError>,
+    sink: &mut super::xlsx::Sink<'_>,
 ) -> Result<CsvInfo, InputError> {
     let p = path.display().to_string();
     let meta = std::fs::metadata(path).map_err(|e| unreadable(&p, e))?;
@@ -109,19 +112,23 @@ pub fn read_csv(
     let mut record = csv::ByteRecord::new();
     let mut person_row = 0usize;
     loop {
-        let more = rdr.read_byte_record(&mut record).map_err(|e| {
-            unreadable(&p, format!("CSV cannot be read: {e}"))
-        })?;
+        let more = rdr
+            .read_byte_record(&mut record)
+            .map_err(|e| unreadable(&p, format!("CSV cannot be read: {e}")))?;
         if !more {
             break;
         }
         // The csv crate skips blank lines silently; a record's position is where reading
         // started, so the line ends just before its first byte are the blank lines above it.
-        let start = record.position().map(|pos| pos.byte() as usize).unwrap_or(0);
+        let start = record
+            .position()
+            .map(|pos| pos.byte() as usize)
+            .unwrap_or(0);
         let lead = body.get(start..).unwrap_or(&[]);
         let run = lead.iter().take_while(|b| matches!(b, b'\r' | b'\n'));
         let mut blanks = run.filter(|b| **b == b'\n').count();
-        let glued = start > 0 && body.get(start - 1) == Some(&b'\r') && lead.first() == Some(&b'\n');
+        let glued =
+            start > 0 && body.get(start - 1) == Some(&b'\r') && lead.first() == Some(&b'\n');
         if glued {
             blanks = blanks.saturating_sub(1);
         }

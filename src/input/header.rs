@@ -73,7 +73,10 @@ pub struct HeaderMap {
 impl HeaderMap {
     /// Column index of a canonical name.
     pub fn index(&self, name: &str) -> Option<usize> {
-        self.matched.iter().find(|(_, n)| *n == name).map(|(i, _)| *i)
+        self.matched
+            .iter()
+            .find(|(_, n)| *n == name)
+            .map(|(i, _)| *i)
     }
     /// Number of canonical columns matched.
     pub fn score(&self) -> usize {
@@ -89,9 +92,7 @@ pub fn match_column(spec: &SheetSpec, header: &str) -> Option<&'static str> {
     }
     spec.columns
         .iter()
-        .find(|c| {
-            normalise_key(c.name) == key || c.aliases.iter().any(|a| normalise_key(a) == key)
-        })
+        .find(|c| normalise_key(c.name) == key || c.aliases.iter().any(|a| normalise_key(a) == key))
         .map(|c| c.name)
 }
 
@@ -131,11 +132,20 @@ mod tests {
 
     #[test]
     fn the_examples_of_inventory_md_match() {
-        for h in ["Plan Area [m2]", "plan-area m²", "PLAN_AREA_M2", "plan area", "  Plan__Area (m²) "] {
+        for h in [
+            "Plan Area [m2]",
+            "plan-area m²",
+            "PLAN_AREA_M2",
+            "plan area",
+            "  Plan__Area (m²) ",
+        ] {
             assert_eq!(match_column(&BUILDINGS, h), Some("plan_area_m2"), "{h}");
         }
         assert_eq!(match_column(&BUILDINGS, "fc [MPa]"), Some("fc_mpa"));
-        assert_eq!(match_column(&BUILDINGS, "Storey Height (m)"), Some("storey_height_m"));
+        assert_eq!(
+            match_column(&BUILDINGS, "Storey Height (m)"),
+            Some("storey_height_m")
+        );
         assert_eq!(match_column(&BUILDINGS, "Year Built"), Some("year_built"));
         assert_eq!(match_column(&BUILDINGS, "ID"), Some("id"));
         assert_eq!(match_column(&BUILDINGS, "colour"), None);

@@ -51,7 +51,9 @@ pub enum InputError {
         message: String,
     },
     /// Password-protected (encrypted) workbook.
-    #[error("{path}: the workbook is password-protected; save a copy without a password and read that")]
+    #[error(
+        "{path}: the workbook is password-protected; save a copy without a password and read that"
+    )]
     Protected {
         /// Path.
         path: String,
@@ -108,7 +110,8 @@ impl SheetRun<'_> {
                 let key = row.cells.first().map(|c| c.as_text()).unwrap_or_default();
                 let value = row.cells.get(1).map(|c| c.as_text()).unwrap_or_default();
                 if !key.trim().is_empty() {
-                    c.settings_rows.push((key.trim().to_string(), value.trim().to_string()));
+                    c.settings_rows
+                        .push((key.trim().to_string(), value.trim().to_string()));
                 }
             }
         }
@@ -131,6 +134,7 @@ fn truncation_problems(spec: &SheetSpec, row: &RawRow, cols: &[usize]) -> Vec<Pr
 }
 
 /// Runs one sheet through the state machine, given a function that streams its rows.
+#[allow(clippy::too_many_arguments)]
 fn run_sheet(
     spec: &'static SheetSpec,
     sheet_name: &str,
@@ -139,7 +143,9 @@ fn run_sheet(
     opts: &ReadOptions,
     path: &str,
     collected: &RefCell<Collected>,
-    stream: impl FnOnce(&mut dyn FnMut(RawRow, &[usize]) -> Result<(), InputError>) -> Result<(), InputError>,
+    stream: impl FnOnce(
+        &mut dyn FnMut(RawRow, &[usize]) -> Result<(), InputError>,
+    ) -> Result<(), InputError>,
 ) -> Result<(), InputError> {
     let run = SheetRun {
         spec,
@@ -196,7 +202,11 @@ pub fn read_inventory(path: &Path, opts: &ReadOptions) -> Result<Inventory, Inpu
     let kind = match head {
         Some(h) if h.starts_with(&ZIP_MAGIC) => {
             let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
-            Some(xlsx::check_zip(std::io::BufReader::new(f), &p, &opts.budget)?)
+            Some(xlsx::check_zip(
+                std::io::BufReader::new(f),
+                &p,
+                &opts.budget,
+            )?)
         }
         Some(h) if h == CFB_MAGIC => Some(if matches!(ext.as_str(), "xlsx" | "xlsm") {
             WorkbookKind::Xlsx
@@ -278,9 +288,16 @@ fn read_workbook(
         } else {
             None
         };
-        run_sheet(spec, &name, header_row, false, opts, &p, collected, |sink| {
-            wb.read_sheet(&name, &p, &budget, counter, sink)
-        })?;
+        run_sheet(
+            spec,
+            &name,
+            header_row,
+            false,
+            opts,
+            &p,
+            collected,
+            |sink| wb.read_sheet(&name, &p, &budget, counter, sink),
+        )?;
     }
     Ok(())
 }
@@ -296,7 +313,8 @@ fn read_csv_files(
         .map(|s| s.to_string_lossy().into_owned())
         .unwrap_or_default();
     let dir = path.parent().unwrap_or(Path::new("."));
-    let mut files: Vec<(&'static SheetSpec, std::path::PathBuf)> = vec![(&BUILDINGS, path.to_path_buf())];
+    let mut files: Vec<(&'static SheetSpec, std::path::PathBuf)> =
+        vec![(&BUILDINGS, path.to_path_buf())];
     for spec in [&WALLS, &STOREYS, &FOOTPRINTS] {
         let sibling = dir.join(format!("{stem}.{}.csv", spec.name));
         if sibling.is_file() {
@@ -308,11 +326,24 @@ fn read_csv_files(
         let mut info = None;
         // The delimiter is known only once the file is sniffed; numbers are parsed after.
         let bytes_info = csv_info(&file, &opts.budget)?;
-        let header_row = if spec.name == "buildings" { opts.header_row } else { None };
-        run_sheet(spec, spec.name, header_row, bytes_info, opts, &fp, collected, |sink| {
-            info = Some(csv::read_csv(&file, &opts.budget, counter, sink)?);
-            Ok(())
-        })?;
+        let header_row = if spec.name == "buildings" {
+            opts.header_row
+        } else {
+            None
+        };
+        run_sheet(
+            spec,
+            spec.name,
+            header_row,
+            bytes_info,
+            opts,
+            &fp,
+            collected,
+            |sink| {
+                info = Some(csv::read_csv(&file, &opts.budget, counter, sink)?);
+                Ok(())
+            },
+        )?;
         if let Some(i) = info
             && i.windows_1252
         {

@@ -90,8 +90,7 @@ pub fn describe(cell: &RawCell) -> String {
 pub fn parse_number_text(text: &str, decimal_comma: bool) -> Option<f64> {
     let t = text.trim().trim_start_matches('+');
     let owned;
-    let t = if decimal_comma && t.contains(',') && !t.contains('.') && t.matches(',').count() == 1
-    {
+    let t = if decimal_comma && t.contains(',') && !t.contains('.') && t.matches(',').count() == 1 {
         owned = t.replace(',', ".");
         owned.as_str()
     } else {
@@ -184,7 +183,10 @@ impl<'a> RowParser<'a> {
     /// A required number; an error when blank.
     pub fn required_number(&mut self, name: &str) -> Option<f64> {
         if self.cell(name).is_blank() {
-            self.error(name, "expected a number (required), found a blank cell".into());
+            self.error(
+                name,
+                "expected a number (required), found a blank cell".into(),
+            );
             return None;
         }
         self.number(name)
@@ -193,12 +195,18 @@ impl<'a> RowParser<'a> {
     /// A whole number (12.0 is 12; 2.5 is an error).
     pub fn whole(&mut self, name: &str, required: bool) -> Option<i64> {
         if required && self.cell(name).is_blank() {
-            self.error(name, "expected a whole number (required), found a blank cell".into());
+            self.error(
+                name,
+                "expected a whole number (required), found a blank cell".into(),
+            );
             return None;
         }
         let v = self.number(name)?;
         if v.fract() != 0.0 || v.abs() > 1e12 {
-            self.error(name, format!("expected a whole number, found {}", format_number(v)));
+            self.error(
+                name,
+                format!("expected a whole number, found {}", format_number(v)),
+            );
             return None;
         }
         Some(v as i64)
@@ -208,7 +216,13 @@ impl<'a> RowParser<'a> {
     pub fn positive(&mut self, name: &str) -> Option<f64> {
         let v = self.number(name)?;
         if v <= 0.0 {
-            self.error(name, format!("expected a number greater than 0, found {}", format_number(v)));
+            self.error(
+                name,
+                format!(
+                    "expected a number greater than 0, found {}",
+                    format_number(v)
+                ),
+            );
             return None;
         }
         Some(v)
@@ -218,7 +232,13 @@ impl<'a> RowParser<'a> {
     pub fn non_negative(&mut self, name: &str) -> Option<f64> {
         let v = self.number(name)?;
         if v < 0.0 {
-            self.error(name, format!("expected a number of at least 0, found {}", format_number(v)));
+            self.error(
+                name,
+                format!(
+                    "expected a number of at least 0, found {}",
+                    format_number(v)
+                ),
+            );
             return None;
         }
         Some(v)
@@ -269,7 +289,10 @@ impl<'a> RowParser<'a> {
                     );
                     y
                 } else if let Some(y) = year_of_serial(*serial, *is_1904) {
-                    self.warn(name, format!("expected a year, found a date; its year {y} is used"));
+                    self.warn(
+                        name,
+                        format!("expected a year, found a date; its year {y} is used"),
+                    );
                     y
                 } else {
                     self.unreadable(name, "a year");
@@ -278,7 +301,10 @@ impl<'a> RowParser<'a> {
             }
             RawCell::DateIso(t) => match t.get(..4).and_then(|y| y.parse::<i32>().ok()) {
                 Some(y) => {
-                    self.warn(name, format!("expected a year, found the date {t}; its year {y} is used"));
+                    self.warn(
+                        name,
+                        format!("expected a year, found the date {t}; its year {y} is used"),
+                    );
                     y
                 }
                 None => {
@@ -291,7 +317,10 @@ impl<'a> RowParser<'a> {
                 if let Some(v) = parse_number_text(t, false).filter(|v| in_range(*v)) {
                     v as i32
                 } else if let Some(y) = date_text_year(t) {
-                    self.warn(name, format!("expected a year, found the date \"{t}\"; its year {y} is used"));
+                    self.warn(
+                        name,
+                        format!("expected a year, found the date \"{t}\"; its year {y} is used"),
+                    );
                     y
                 } else {
                     self.unreadable(name, &format!("a year ({lo}–{hi})"));
@@ -386,18 +415,32 @@ impl<'a> RowParser<'a> {
 /// The year of a date written as text (`1972-05-01`, `01/05/1972`, `1.5.1972`).
 fn date_text_year(t: &str) -> Option<i32> {
     let parts: Vec<&str> = t.split(['-', '/', '.']).collect();
-    if parts.len() != 3 || !parts.iter().all(|p| !p.is_empty() && p.bytes().all(|b| b.is_ascii_digit())) {
+    if parts.len() != 3
+        || !parts
+            .iter()
+            .all(|p| !p.is_empty() && p.bytes().all(|b| b.is_ascii_digit()))
+    {
         return None;
     }
     let first = parts.first()?;
     let last = parts.last()?;
-    let y = if first.len() == 4 { first } else if last.len() == 4 { last } else { return None };
+    let y = if first.len() == 4 {
+        first
+    } else if last.len() == 4 {
+        last
+    } else {
+        return None;
+    };
     y.parse().ok()
 }
 
 /// Reads one row of the `buildings` sheet. Problems are returned with the record; the
 /// caller rejects the row when any of them is an error.
-pub fn building(row: &DataRow, decimal_comma: bool, limits: &Limits) -> (BuildingRecord, Vec<Problem>) {
+pub fn building(
+    row: &DataRow,
+    decimal_comma: bool,
+    limits: &Limits,
+) -> (BuildingRecord, Vec<Problem>) {
     let mut p = RowParser::new(&BUILDINGS, row, decimal_comma);
     let mut b = BuildingRecord {
         row: row.row,
@@ -410,17 +453,34 @@ pub fn building(row: &DataRow, decimal_comma: bool, limits: &Limits) -> (Buildin
     b.latitude = p.number("latitude");
     b.longitude = p.number("longitude");
     if let Some(v) = b.latitude.filter(|v| !(-90.0..=90.0).contains(v)) {
-        p.error("latitude", format!("expected decimal degrees between -90 and 90, found {}", format_number(v)));
+        p.error(
+            "latitude",
+            format!(
+                "expected decimal degrees between -90 and 90, found {}",
+                format_number(v)
+            ),
+        );
         b.latitude = None;
     }
     if let Some(v) = b.longitude.filter(|v| !(-180.0..=180.0).contains(v)) {
-        p.error("longitude", format!("expected decimal degrees between -180 and 180, found {}", format_number(v)));
+        p.error(
+            "longitude",
+            format!(
+                "expected decimal degrees between -180 and 180, found {}",
+                format_number(v)
+            ),
+        );
         b.longitude = None;
     }
     if b.latitude.is_some() != b.longitude.is_some() && !p.has_errors() {
         p.warn(
-            if b.latitude.is_some() { "longitude" } else { "latitude" },
-            "expected both latitude and longitude, found only one; the coordinates are ignored".into(),
+            if b.latitude.is_some() {
+                "longitude"
+            } else {
+                "latitude"
+            },
+            "expected both latitude and longitude, found only one; the coordinates are ignored"
+                .into(),
         );
         b.latitude = None;
         b.longitude = None;
@@ -429,7 +489,13 @@ pub fn building(row: &DataRow, decimal_comma: bool, limits: &Limits) -> (Buildin
     let max_storeys = limits.max_storeys;
     if let Some(n) = p.whole("storeys", true) {
         if n < 1 || n as f64 > max_storeys {
-            p.error("storeys", format!("expected a whole number from 1 to {}, found {n}", format_number(max_storeys)));
+            p.error(
+                "storeys",
+                format!(
+                    "expected a whole number from 1 to {}, found {n}",
+                    format_number(max_storeys)
+                ),
+            );
         } else {
             b.storeys = n as u32;
         }
@@ -489,7 +555,14 @@ pub fn building(row: &DataRow, decimal_comma: bool, limits: &Limits) -> (Buildin
         ];
         for (name, v) in areas {
             if let Some(v) = v.filter(|v| *v > plan) {
-                p.error(name, format!("expected an area no larger than the plan area ({} m²), found {} m²", format_number(plan), format_number(v)));
+                p.error(
+                    name,
+                    format!(
+                        "expected an area no larger than the plan area ({} m²), found {} m²",
+                        format_number(plan),
+                        format_number(v)
+                    ),
+                );
             }
         }
     }
@@ -499,7 +572,15 @@ pub fn building(row: &DataRow, decimal_comma: bool, limits: &Limits) -> (Buildin
         let v = p.number(name);
         let v = match v {
             Some(v) if v < lo || v > hi => {
-                p.error(name, format!("expected {} to {} MPa, found {} (a unit mistake?)", format_number(lo), format_number(hi), format_number(v)));
+                p.error(
+                    name,
+                    format!(
+                        "expected {} to {} MPa, found {} (a unit mistake?)",
+                        format_number(lo),
+                        format_number(hi),
+                        format_number(v)
+                    ),
+                );
                 None
             }
             v => v,
@@ -518,7 +599,10 @@ pub fn building(row: &DataRow, decimal_comma: bool, limits: &Limits) -> (Buildin
     }
     b.occupants = match p.whole("occupants", false) {
         Some(n) if n < 0 => {
-            p.error("occupants", format!("expected a whole number of at least 0, found {n}"));
+            p.error(
+                "occupants",
+                format!("expected a whole number of at least 0, found {n}"),
+            );
             None
         }
         Some(n) => Some(n as u64),
@@ -535,8 +619,11 @@ pub fn building(row: &DataRow, decimal_comma: bool, limits: &Limits) -> (Buildin
 
 fn storey_number(p: &mut RowParser<'_>, name: &str, required: bool) -> Option<u32> {
     let n = p.whole(name, required)?;
-    if n < 1 || n > 1000 {
-        p.error(name, format!("expected a storey number of at least 1, found {n}"));
+    if !(1..=1000).contains(&n) {
+        p.error(
+            name,
+            format!("expected a storey number of at least 1, found {n}"),
+        );
         return None;
     }
     Some(n as u32)
@@ -569,7 +656,10 @@ pub fn wall(row: &DataRow, decimal_comma: bool) -> (WallRecord, Vec<Problem>) {
     if let (Some(s), Some(e)) = (w.start_storey, w.end_storey)
         && e < s
     {
-        p.error("end_storey", format!("expected an end storey at or above the start storey {s}, found {e}"));
+        p.error(
+            "end_storey",
+            format!("expected an end storey at or above the start storey {s}, found {e}"),
+        );
     }
     (w, p.problems)
 }

@@ -222,7 +222,10 @@ impl<'s> SheetReader<'s> {
                         self.take_header(row);
                     } else if row.row > h {
                         // The header row was blank.
-                        self.take_header(RawRow { row: h, cells: Vec::new() });
+                        self.take_header(RawRow {
+                            row: h,
+                            cells: Vec::new(),
+                        });
                         return self.push(row);
                     }
                     return Ok(());
@@ -389,7 +392,11 @@ impl<'s> SheetReader<'s> {
                         Severity::Error,
                     );
                 } else {
-                    self.sheet_problem(None, "expected a header row and data, found an empty sheet".into(), Severity::Error);
+                    self.sheet_problem(
+                        None,
+                        "expected a header row and data, found an empty sheet".into(),
+                        Severity::Error,
+                    );
                 }
             } else {
                 self.settle_best()?;

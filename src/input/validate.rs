@@ -9,8 +9,8 @@ wall areas are summed only where the thickness is given in the inventory.
 use std::collections::{HashMap, HashSet};
 
 use crate::model::{
-    BuildingRecord, Dir, FootprintVertex, Inventory, NotScreened, Problem, Severity,
-    StoreyRecord, WallRecord,
+    BuildingRecord, Dir, FootprintVertex, Inventory, NotScreened, Problem, Severity, StoreyRecord,
+    WallRecord,
 };
 
 use super::raw::format_number;
@@ -87,7 +87,9 @@ fn sort_out<T>(
                 sheet,
                 row_of(&rec),
                 "building_id",
-                format!("expected an id of the buildings sheet, found \"{id}\"; the row is ignored"),
+                format!(
+                    "expected an id of the buildings sheet, found \"{id}\"; the row is ignored"
+                ),
             ));
             continue;
         }
@@ -123,8 +125,24 @@ pub fn finish(c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
     }
     let mut extra: HashMap<String, Vec<Problem>> = HashMap::new();
     let mut later = Vec::new();
-    let walls = sort_out("walls", c.walls, |w| &w.building_id, |w| w.row, &ids, &mut extra, &mut later);
-    let storeys = sort_out("storeys", c.storeys, |s| &s.building_id, |s| s.row, &ids, &mut extra, &mut later);
+    let walls = sort_out(
+        "walls",
+        c.walls,
+        |w| &w.building_id,
+        |w| w.row,
+        &ids,
+        &mut extra,
+        &mut later,
+    );
+    let storeys = sort_out(
+        "storeys",
+        c.storeys,
+        |s| &s.building_id,
+        |s| s.row,
+        &ids,
+        &mut extra,
+        &mut later,
+    );
     let footprints = sort_out(
         "footprints",
         c.footprints,
@@ -166,7 +184,11 @@ pub fn finish(c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
         if let Some(rows) = ids.get(&b.id)
             && rows.len() > 1
         {
-            let list = rows.iter().map(|r| r.to_string()).collect::<Vec<_>>().join(", ");
+            let list = rows
+                .iter()
+                .map(|r| r.to_string())
+                .collect::<Vec<_>>()
+                .join(", ");
             probs.push(err(
                 "buildings",
                 b.row,
@@ -188,10 +210,22 @@ pub fn finish(c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
             }
             if let Some((true, sums, complete)) = walls_here {
                 for (i, d, col) in [(0, "X", "rc_wall_area_x_m2"), (1, "Y", "rc_wall_area_y_m2")] {
-                    let given = if i == 0 { b.rc_wall_area_x_m2 } else { b.rc_wall_area_y_m2 };
-                    let (Some(given), true) = (given, complete[i]) else { continue };
+                    let given = if i == 0 {
+                        b.rc_wall_area_x_m2
+                    } else {
+                        b.rc_wall_area_y_m2
+                    };
+                    let (Some(given), true) = (given, complete[i]) else {
+                        continue;
+                    };
                     let sum = sums[i];
-                    let off = if given > 0.0 { (sum - given).abs() / given * 100.0 } else if sum > 0.0 { f64::INFINITY } else { 0.0 };
+                    let off = if given > 0.0 {
+                        (sum - given).abs() / given * 100.0
+                    } else if sum > 0.0 {
+                        f64::INFINITY
+                    } else {
+                        0.0
+                    };
                     if off > wall_area_mismatch_pct {
                         probs.push(warning(
                             "buildings",

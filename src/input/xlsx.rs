@@ -45,7 +45,10 @@ pub fn check_zip<R: Read + Seek>(
     budget: &Budget,
 ) -> Result<WorkbookKind, InputError> {
     let mut zip = zip::ZipArchive::new(reader).map_err(|e| {
-        unreadable(path, format!("not a readable workbook (broken zip container: {e})"))
+        unreadable(
+            path,
+            format!("not a readable workbook (broken zip container: {e})"),
+        )
     })?;
     let mut total: u64 = 0;
     let mut kind = None;
@@ -197,15 +200,15 @@ impl<R: Read + Seek> Workbook<R> {
             }
         };
         Ok(match kind {
-            WorkbookKind::Xlsx => Workbook::Xlsx(Box::new(
-                Xlsx::new(reader).map_err(|e| map(e.to_string()))?,
-            )),
-            WorkbookKind::Xls => Workbook::Xls(Box::new(
-                Xls::new(reader).map_err(|e| map(e.to_string()))?,
-            )),
-            WorkbookKind::Ods => Workbook::Ods(Box::new(
-                Ods::new(reader).map_err(|e| map(e.to_string()))?,
-            )),
+            WorkbookKind::Xlsx => {
+                Workbook::Xlsx(Box::new(Xlsx::new(reader).map_err(|e| map(e.to_string()))?))
+            }
+            WorkbookKind::Xls => {
+                Workbook::Xls(Box::new(Xls::new(reader).map_err(|e| map(e.to_string()))?))
+            }
+            WorkbookKind::Ods => {
+                Workbook::Ods(Box::new(Ods::new(reader).map_err(|e| map(e.to_string()))?))
+            }
         })
     }
 

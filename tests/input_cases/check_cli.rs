@@ -18,12 +18,22 @@ fn check_lists_every_problem_and_exits_0_when_a_row_can_be_screened() {
     let dir = tempfile::tempdir().unwrap();
     let mut bad = good("Z2");
     bad[2] = N(2.5);
-    let path = workbook(dir.path(), "c.xlsx", &[("buildings", vec![head(), good("Z1"), bad])]);
+    let path = workbook(
+        dir.path(),
+        "c.xlsx",
+        &[("buildings", vec![head(), good("Z1"), bad])],
+    );
     let out = check(&path, &[]);
     let stdout = String::from_utf8_lossy(&out.stdout);
     assert_eq!(out.status.code(), Some(0), "{stdout}");
-    assert!(stdout.contains("error: buildings, row 3, storeys: expected a whole number, found 2.5"), "{stdout}");
-    assert!(stdout.contains("2 rows: 1 accepted, 1 rejected"), "{stdout}");
+    assert!(
+        stdout.contains("error: buildings, row 3, storeys: expected a whole number, found 2.5"),
+        "{stdout}"
+    );
+    assert!(
+        stdout.contains("2 rows: 1 accepted, 1 rejected"),
+        "{stdout}"
+    );
 }
 
 #[test]
@@ -38,7 +48,11 @@ fn check_exits_1_when_no_row_is_valid() {
 #[test]
 fn check_on_an_unreadable_file_prints_one_line_and_exits_1_without_panicking() {
     let dir = tempfile::tempdir().unwrap();
-    for (name, bytes) in [("junk.xlsx", &b"PK\x03\x04 broken"[..]), ("notes.docx", b"hello"), ("bin.csv", b"\0\0\0\x01")] {
+    for (name, bytes) in [
+        ("junk.xlsx", &b"PK\x03\x04 broken"[..]),
+        ("notes.docx", b"hello"),
+        ("bin.csv", b"\0\0\0\x01"),
+    ] {
         let path = text_file(dir.path(), name, bytes);
         let out = check(&path, &[]);
         let stderr = String::from_utf8_lossy(&out.stderr);

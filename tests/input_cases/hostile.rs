@@ -12,11 +12,19 @@ fn valid_xlsx() -> Vec<u8> {
         vec![S("building_id"), S("direction"), S("length_m")],
         vec![S("H1"), S("X"), N(4.0)],
     ];
-    let p = workbook(dir.path(), "v.xlsx", &[("buildings", vec![head(), good("H1"), good("H2")]), ("walls", walls)]);
+    let p = workbook(
+        dir.path(),
+        "v.xlsx",
+        &[
+            ("buildings", vec![head(), good("H1"), good("H2")]),
+            ("walls", walls),
+        ],
+    );
     std::fs::read(p).unwrap()
 }
 
-const VALID_CSV: &[u8] = b"id;storeys;plan_area_m2;column_area_m2;name\nA;3;200,5;2;\"x\"\"y\"\nB;4;300;3;z\n";
+const VALID_CSV: &[u8] =
+    b"id;storeys;plan_area_m2;column_area_m2;name\nA;3;200,5;2;\"x\"\"y\"\nB;4;300;3;z\n";
 
 fn read_bytes(name: &str, bytes: &[u8]) {
     let dir = tempfile::tempdir().unwrap();

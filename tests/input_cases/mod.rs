@@ -40,7 +40,16 @@ pub const HEAD: [&str; 8] = [
 
 /// A valid buildings row for HEAD.
 pub fn good(id: &'static str) -> Vec<C> {
-    vec![S(id), S("Block"), N(5.0), N(400.0), N(4.0), N(6.0), N(5.0), N(1978.0)]
+    vec![
+        S(id),
+        S("Block"),
+        N(5.0),
+        N(400.0),
+        N(4.0),
+        N(6.0),
+        N(5.0),
+        N(1978.0),
+    ]
 }
 
 /// Header cells as C.
@@ -116,7 +125,11 @@ pub fn rejected_rows(inv: &Inventory) -> Vec<usize> {
 
 /// The counts add up: rows = accepted + rejected.
 pub fn assert_counts(inv: &Inventory) {
-    assert_eq!(inv.rows, inv.buildings.len() + inv.not_screened.len(), "{inv:#?}");
+    assert_eq!(
+        inv.rows,
+        inv.buildings.len() + inv.not_screened.len(),
+        "{inv:#?}"
+    );
 }
 
 /// Writes a text file.

@@ -32,7 +32,11 @@ fn the_settings_file_lists_every_key_and_no_other() {
         path.display()
     );
     for k in KEYS {
-        assert!(text.contains(k.tag) && text.contains(k.doc), "{}: tag or doc out of step", k.key);
+        assert!(
+            text.contains(k.tag) && text.contains(k.doc),
+            "{}: tag or doc out of step",
+            k.key
+        );
     }
     assert!(text.contains("[[era]]"));
 }
@@ -49,14 +53,23 @@ fn uncommenting_every_key_gives_the_built_in_defaults() {
     s.apply_toml(&uncommented).unwrap();
     assert_eq!(s, Settings::default());
     // And the file is exactly what the table renders.
-    assert_eq!(text, seistriage::template::settings_toml(), "regenerate with SEISTRIAGE_BLESS=1");
+    assert_eq!(
+        text,
+        seistriage::template::settings_toml(),
+        "regenerate with SEISTRIAGE_BLESS=1"
+    );
 }
 
 #[test]
 fn a_changed_default_in_the_file_would_be_caught() {
     // The comparison above can fail: a file with one default edited parses to other settings.
-    let edited = seistriage::template::settings_toml().replace("# gamma_el = 1.5", "# gamma_el = 1.25");
-    let uncommented: String = edited.lines().filter_map(|l| l.strip_prefix("# ")).map(|l| format!("{l}\n")).collect();
+    let edited =
+        seistriage::template::settings_toml().replace("# gamma_el = 1.5", "# gamma_el = 1.25");
+    let uncommented: String = edited
+        .lines()
+        .filter_map(|l| l.strip_prefix("# "))
+        .map(|l| format!("{l}\n"))
+        .collect();
     let mut s = Settings::default();
     s.apply_toml(&uncommented).unwrap();
     assert_ne!(s, Settings::default());

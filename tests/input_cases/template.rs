@@ -26,14 +26,19 @@ fn contents(path: &std::path::Path) -> Vec<(String, Vec<Vec<String>>)> {
 
 #[test]
 fn the_committed_template_equals_a_fresh_generation() {
-    let committed = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("templates/inventory-template.xlsx");
+    let committed =
+        PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("templates/inventory-template.xlsx");
     if std::env::var_os("SEISTRIAGE_BLESS").is_some() {
         seistriage::template::write_template(&committed).unwrap();
     }
     let dir = tempfile::tempdir().unwrap();
     let fresh = dir.path().join("t.xlsx");
     seistriage::template::write_template(&fresh).unwrap();
-    assert_eq!(contents(&committed), contents(&fresh), "regenerate with SEISTRIAGE_BLESS=1");
+    assert_eq!(
+        contents(&committed),
+        contents(&fresh),
+        "regenerate with SEISTRIAGE_BLESS=1"
+    );
 }
 
 #[test]
@@ -53,14 +58,26 @@ fn the_template_has_every_sheet_with_canonical_headers_a_read_me_and_drop_downs(
         }
     }
     let readme = &c[0].1;
-    let text: String = readme.iter().flatten().cloned().collect::<Vec<_>>().join("\n");
+    let text: String = readme
+        .iter()
+        .flatten()
+        .cloned()
+        .collect::<Vec<_>>()
+        .join("\n");
     assert!(text.contains("trailing unit token"));
     assert!(text.contains("plan_area_m2") && text.contains("m²"));
     // Notes and data validation live in the sheet XML.
     let mut zip = zip::ZipArchive::new(std::fs::File::open(&path).unwrap()).unwrap();
     let mut xml = String::new();
-    std::io::Read::read_to_string(&mut zip.by_name("xl/worksheets/sheet2.xml").unwrap(), &mut xml).unwrap();
-    assert!(xml.contains("<dataValidation") && xml.contains("residential,school,hospital,office,other"), "{xml}");
+    std::io::Read::read_to_string(
+        &mut zip.by_name("xl/worksheets/sheet2.xml").unwrap(),
+        &mut xml,
+    )
+    .unwrap();
+    assert!(
+        xml.contains("<dataValidation") && xml.contains("residential,school,hospital,office,other"),
+        "{xml}"
+    );
     assert!(zip.by_name("xl/comments1.xml").is_ok());
 }
 
@@ -71,5 +88,11 @@ fn the_blank_template_reads_as_an_inventory_with_no_rows() {
     seistriage::template::write_template(&path).unwrap();
     let inv = seistriage::input::read_inventory(&path, &Default::default()).unwrap();
     assert_eq!(inv.rows, 0);
-    assert!(inv.problems.iter().all(|p| p.severity == seistriage::model::Severity::Warning), "{:#?}", inv.problems);
+    assert!(
+        inv.problems
+            .iter()
+            .all(|p| p.severity == seistriage::model::Severity::Warning),
+        "{:#?}",
+        inv.problems
+    );
 }
