@@ -202,11 +202,12 @@ pub fn read_inventory(path: &Path, opts: &ReadOptions) -> Result<Inventory, Inpu
     let kind = match head {
         Some(h) if h.starts_with(&ZIP_MAGIC) => {
             let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
-            Some(xlsx::check_zip(
-                std::io::BufReader::new(f),
-                &p,
-                &opts.budget,
-            )?)
+            let kind = xlsx::check_zip(std::io::BufReader::new(f), &p, &opts.budget)?;
+            if kind == WorkbookKind::Ods {
+                let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
+                xlsx::check_ods_extent(std::io::BufReader::new(f), &p, &opts.budget)?;
+            }
+            Some(kind)
         }
         Some(h) if h == CFB_MAGIC => Some(if matches!(ext.as_str(), "xlsx" | "xlsm") {
             WorkbookKind::Xlsx

@@ -402,3 +402,120 @@ mod tests {
         assert_eq!(year_of_serial(45658.0, false), Some(2025));
     }
 }
+
+fn repeat_attr(e: &quick_xml::events::BytesStart<'_>, name: &str) -> u64 {
+    e.try_get_attribute(name)
+        .ok()
+        .flatten()
+        .and_then(|a| a.value.trim().parse::<u64>().ok())
+        .unwrap_or(1)
+        .max(1)
+}
+
+/// Pre-scans an .ods `content.xml` (streamed from the zip, nothing expanded) for the grid
+/// extent each table would take once calamine expands repeated rows and columns, and
+/// refuses a table above the dense-cell budget before calamine allocates it.
+pub fn check_ods_extent<R: Read + Seek>(
+    reader: R,
+    path: &str,
+    budget: &Budget,
+) -> Result<(), InputError> {
+    use quick_xml::events::Event;
+    let mut zip = zip::ZipArchive::new(reader)
+        .map_err(|e| unreadable(path, format!("broken zip container: {e}")))?;
+    let content = zip
+        .by_name("content.xml")
+        .map_err(|e| unreadable(path, format!("no content.xml: {e}")))?;
+    let mut xml = quick_xml::Reader::from_reader(std::io::BufReader::new(content));
+    let mut buf = Vec::new();
+    let (mut name, mut cur_row, mut max_row, mut max_col) = (String::new(), 0u64, 0u64, 0u64);
+    let (mut row_rep, mut cur_col, mut row_has, mut row_max_col) = (1u64, 0u64, false, 0u64);
+    let (mut cell_rep, mut cell_has, mut in_cell) = (1u64, false, false);
+    loop {
+        buf.clear();
+        let ev = xml
+            .read_event_into(&mut buf)
+            .map_err(|e| unreadable(path, format!("content.xml: {e}")))?;
+        let (e, empty) = match &ev {
+            Event::Start(e) => (Some(e.clone()), false),
+            Event::Empty(e) => (Some(e.clone()), true),
+            Event::End(end) => {
+                match end.name().as_ref() {
+                    "table:table-cell" | "table:covered-table-cell" => {
+                        if cell_has {
+                            row_max_col = cur_col.saturating_add(cell_rep);
+                            row_has = true;
+                        }
+                        cur_col = cur_col.saturating_add(cell_rep);
+                        in_cell = false;
+                    }
+                    "table:table-row" => {
+                        if row_has {
+                            max_row = cur_row.saturating_add(row_rep);
+                            max_col = max_col.max(row_max_col);
+                        }
+                        cur_row = cur_row.saturating_add(row_rep);
+                    }
+                    "table:table" => {
+                        let cells = max_row.saturating_mul(max_col);
+                        if cells > budget.max_dense_cells {
+                            return Err(InputError::TooLarge {
+                                path: path.to_string(),
+                                message: format!(
+                                    "sheet {name} spans {max_row} rows × {max_col} columns = {cells} cells, more than the budget of {} for .ods (save it as .xlsx, which is streamed, or delete stray far-away cells)",
+                                    budget.max_dense_cells
+                                ),
+                            });
+                        }
+                    }
+                    _ => {}
+                }
+                continue;
+            }
+            Event::Text(t) if in_cell && !t.trim().is_empty() => {
+                cell_has = true;
+                continue;
+            }
+            Event::Eof => break,
+            _ => continue,
+        };
+        let Some(e) = e else { continue };
+        match e.name().as_ref() {
+            "table:table" => {
+                name = e
+                    .try_get_attribute("table:name")
+                    .ok()
+                    .flatten()
+                    .map(|a| a.value.into_owned())
+                    .unwrap_or_default();
+                (cur_row, max_row, max_col) = (0, 0, 0);
+            }
+            "table:table-row" => {
+                row_rep = repeat_attr(&e, "table:number-rows-repeated");
+                (cur_col, row_has, row_max_col) = (0, false, 0);
+                if empty {
+                    cur_row = cur_row.saturating_add(row_rep);
+                }
+            }
+            "table:table-cell" | "table:covered-table-cell" => {
+                cell_rep = repeat_attr(&e, "table:number-columns-repeated");
+                cell_has = e
+                    .try_get_attribute("office:value-type")
+                    .ok()
+                    .flatten()
+                    .is_some();
+                if empty {
+                    if cell_has {
+                        row_max_col = cur_col.saturating_add(cell_rep);
+                        row_has = true;
+                    }
+                    cur_col = cur_col.saturating_add(cell_rep);
+                } else {
+                    in_cell = true;
+                }
+            }
+            _ => {}
+        }
+    }
+    Ok(())
+}

@@ -698,3 +698,77 @@ fn a_workbook_without_a_buildings_sheet_reads_its_first_sheet_with_a_warning() {
             .any(|p| p.message.contains("expected a sheet named buildings"))
     );
 }
+
+/// Writes a minimal .ods file whose first table is `buildings` with the given table XML body.
+fn ods(dir: &std::path::Path, name: &str, rows_xml: &str) -> std::path::PathBuf {
+    use std::io::Write;
+    let path = dir.join(name);
+    let mut z = zip::ZipWriter::new(std::fs::File::create(&path).unwrap());
+    let stored =
+        zip::write::SimpleFileOptions::default().compression_method(zip::CompressionMethod::Stored);
+    z.start_file("mimetype", stored).unwrap();
+    z.write_all(b"application/vnd.oasis.opendocument.spreadsheet")
+        .unwrap();
+    z.start_file("META-INF/manifest.xml", stored).unwrap();
+    z.write_all(br#"<?xml version="1.0" encoding="UTF-8"?><manifest:manifest xmlns:manifest="urn:oasis:names:tc:opendocument:xmlns:manifest:1.0" manifest:version="1.2"><manifest:file-entry manifest:full-path="/" manifest:media-type="application/vnd.oasis.opendocument.spreadsheet"/><manifest:file-entry manifest:full-path="content.xml" manifest:media-type="text/xml"/></manifest:manifest>"#).unwrap();
+    z.start_file("content.xml", stored).unwrap();
+    write!(
+        z,
+        r#"<?xml version="1.0" encoding="UTF-8"?><office:document-content xmlns:office="urn:oasis:names:tc:opendocument:xmlns:office:1.0" xmlns:table="urn:oasis:names:tc:opendocument:xmlns:table:1.0" xmlns:text="urn:oasis:names:tc:opendocument:xmlns:text:1.0" office:version="1.2"><office:body><office:spreadsheet><table:table table:name="buildings">{rows_xml}</table:table></office:spreadsheet></office:body></office:document-content>"#
+    )
+    .unwrap();
+    z.finish().unwrap();
+    path
+}
+
+fn ods_row(cells: &[&str]) -> String {
+    let mut s = String::from("<table:table-row>");
+    for c in cells {
+        let text_like = c.starts_with('0') && c.len() > 1 && !c.starts_with("0.");
+        if let (Ok(v), false) = (c.parse::<f64>(), text_like) {
+            s.push_str(&format!(r#"<table:table-cell office:value-type="float" office:value="{v}"><text:p>{c}</text:p></table:table-cell>"#));
+        } else {
+            s.push_str(&format!(r#"<table:table-cell office:value-type="string"><text:p>{c}</text:p></table:table-cell>"#));
+        }
+    }
+    s.push_str("</table:table-row>");
+    s
+}
+
+#[test]
+fn ods_workbooks_are_read() {
+    let dir = tempfile::tempdir().unwrap();
+    let xml = [
+        ods_row(&["id", "storeys", "plan_area_m2", "column_area_m2"]),
+        ods_row(&["0100", "3", "200", "2"]),
+        r#"<table:table-row table:number-rows-repeated="2"><table:table-cell/></table:table-row>"#
+            .to_string(),
+        ods_row(&["AA", "2.5", "200", "2"]),
+    ]
+    .concat();
+    let inv = read(&ods(dir.path(), "a.ods", &xml));
+    assert_eq!(
+        inv.buildings
+            .iter()
+            .map(|b| (b.id.as_str(), b.row))
+            .collect::<Vec<_>>(),
+        vec![("0100", 2)]
+    );
+    assert_eq!(rejected_rows(&inv), vec![5]);
+    assert_eq!(inv.blank_rows, 2);
+}
+
+#[test]
+fn an_ods_stray_far_away_cell_is_refused_before_the_grid_is_allocated() {
+    let dir = tempfile::tempdir().unwrap();
+    let xml = [
+        ods_row(&["id", "storeys", "plan_area_m2", "column_area_m2"]),
+        ods_row(&["A", "3", "200", "2"]),
+        r#"<table:table-row table:number-rows-repeated="1000000"><table:table-cell table:number-columns-repeated="1024"/></table:table-row>"#.to_string(),
+        r#"<table:table-row><table:table-cell table:number-columns-repeated="200"/><table:table-cell office:value-type="string"><text:p>stray</text:p></table:table-cell></table:table-row>"#.to_string(),
+    ]
+    .concat();
+    let e = read_inventory(&ods(dir.path(), "far.ods", &xml), &ReadOptions::default()).unwrap_err();
+    let msg = e.to_string();
+    assert!(msg.contains("1000003 rows × 201 columns"), "{msg}");
+}
