@@ -388,21 +388,6 @@ pub fn sniff(path: &Path) -> std::io::Result<Option<[u8; 8]>> {
     Ok((n == 8).then_some(head))
 }
 
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn serials_give_their_calendar_year() {
-        // 1972-05-01 is serial 26420 in the 1900 system (spreadsheet convention).
-        assert_eq!(year_of_serial(26420.0, false), Some(1972));
-        assert_eq!(year_of_serial(25569.0, false), Some(1970));
-        assert_eq!(year_of_serial(25568.0, false), Some(1969));
-        assert_eq!(year_of_serial(24107.0, true), Some(1970));
-        assert_eq!(year_of_serial(45658.0, false), Some(2025));
-    }
-}
-
 fn repeat_attr(e: &quick_xml::events::BytesStart<'_>, name: &str) -> u64 {
     e.try_get_attribute(name)
         .ok()
@@ -518,4 +503,19 @@ pub fn check_ods_extent<R: Read + Seek>(
         }
     }
     Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn serials_give_their_calendar_year() {
+        // 1972-05-01 is serial 26420 in the 1900 system (spreadsheet convention).
+        assert_eq!(year_of_serial(26420.0, false), Some(1972));
+        assert_eq!(year_of_serial(25569.0, false), Some(1970));
+        assert_eq!(year_of_serial(25568.0, false), Some(1969));
+        assert_eq!(year_of_serial(24107.0, true), Some(1970));
+        assert_eq!(year_of_serial(45658.0, false), Some(2025));
+    }
 }
