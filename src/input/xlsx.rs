@@ -73,6 +73,15 @@ pub fn check_zip<R: Read + Seek>(
                 ),
             });
         }
+        if name == "xl/sharedStrings.xml" && size > budget.max_shared_strings_bytes {
+            return Err(InputError::TooLarge {
+                path: path.to_string(),
+                message: format!(
+                    "the shared text of the workbook expands to {size} bytes, more than the budget of {} bytes",
+                    budget.max_shared_strings_bytes
+                ),
+            });
+        }
         match name.as_str() {
             "xl/workbook.xml" => kind = Some(WorkbookKind::Xlsx),
             "xl/workbook.bin" => {
