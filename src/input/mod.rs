@@ -91,8 +91,9 @@ impl SheetRun<'_> {
         let mut c = self.collected.borrow_mut();
         match self.spec.name {
             "buildings" => {
-                let r = parse::building(&row, self.decimal_comma, &self.limits);
-                c.buildings.push(r);
+                let (b, problems) = parse::building(&row, self.decimal_comma, &self.limits);
+                c.buildings.push(b);
+                c.building_problems.extend(problems);
             }
             "walls" => {
                 let r = parse::wall(&row, self.decimal_comma);
