@@ -248,7 +248,18 @@ fn read_workbook(
 ) -> Result<(), InputError> {
     let p = path.display().to_string();
     let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
-    let mut wb = Workbook::open(std::io::BufReader::new(f), kind, &p)?;
+    let mut wb = match Workbook::open(std::io::BufReader::new(f), kind, &p) {
+        Ok(wb) => wb,
+        Err(e) if kind == WorkbookKind::Xls => {
+            // A password-protected .xlsx is a compound file too, whatever its extension.
+            let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
+            match Workbook::open(std::io::BufReader::new(f), WorkbookKind::Xlsx, &p) {
+                Err(protected @ InputError::Protected { .. }) => return Err(protected),
+                _ => return Err(e),
+            }
+        }
+        Err(e) => return Err(e),
+    };
     let names = wb.sheet_names();
     let find = |spec: &SheetSpec| {
         names

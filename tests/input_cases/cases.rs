@@ -772,3 +772,60 @@ fn an_ods_stray_far_away_cell_is_refused_before_the_grid_is_allocated() {
     let msg = e.to_string();
     assert!(msg.contains("1000003 rows × 201 columns"), "{msg}");
 }
+
+/// A minimal compound file (CFB v3) holding an `EncryptedPackage` stream: what a spreadsheet
+/// program writes for a password-protected .xlsx ([MS-OFFCRYPTO] §2.3.4.4, from memory).
+pub fn encrypted_ooxml() -> Vec<u8> {
+    let mut f = vec![0u8; 512 * 3];
+    f[..8].copy_from_slice(&[0xD0, 0xCF, 0x11, 0xE0, 0xA1, 0xB1, 0x1A, 0xE1]);
+    let put16 =
+        |f: &mut Vec<u8>, at: usize, v: u16| f[at..at + 2].copy_from_slice(&v.to_le_bytes());
+    let put32 =
+        |f: &mut Vec<u8>, at: usize, v: u32| f[at..at + 4].copy_from_slice(&v.to_le_bytes());
+    put16(&mut f, 24, 0x003E);
+    put16(&mut f, 26, 3);
+    put16(&mut f, 28, 0xFFFE);
+    put16(&mut f, 30, 9);
+    put16(&mut f, 32, 6);
+    put32(&mut f, 44, 1); // one FAT sector
+    put32(&mut f, 48, 1); // directory in sector 1
+    put32(&mut f, 56, 4096);
+    put32(&mut f, 60, 0xFFFF_FFFE);
+    put32(&mut f, 68, 0xFFFF_FFFE);
+    for i in 0..109 {
+        put32(&mut f, 76 + 4 * i, if i == 0 { 0 } else { 0xFFFF_FFFF });
+    }
+    // FAT (sector 0 at offset 512).
+    for i in 0..128 {
+        put32(&mut f, 512 + 4 * i, 0xFFFF_FFFF);
+    }
+    put32(&mut f, 512, 0xFFFF_FFFD);
+    put32(&mut f, 516, 0xFFFF_FFFE);
+    // Directory (sector 1 at offset 1024): root entry, then the encrypted package.
+    for (k, (name, kind)) in [("Root Entry", 5u8), ("EncryptedPackage", 2u8)]
+        .iter()
+        .enumerate()
+    {
+        let at = 1024 + 128 * k;
+        let utf16: Vec<u8> = name.encode_utf16().flat_map(u16::to_le_bytes).collect();
+        f[at..at + utf16.len()].copy_from_slice(&utf16);
+        put16(&mut f, at + 64, (utf16.len() + 2) as u16);
+        f[at + 66] = *kind;
+        put32(&mut f, at + 68, 0xFFFF_FFFF);
+        put32(&mut f, at + 72, 0xFFFF_FFFF);
+        put32(&mut f, at + 76, if k == 0 { 1 } else { 0xFFFF_FFFF });
+        put32(&mut f, at + 116, 0xFFFF_FFFE);
+    }
+    f
+}
+
+#[test]
+fn password_protected_workbooks_are_refused_in_one_line() {
+    let dir = tempfile::tempdir().unwrap();
+    for name in ["secret.xlsx", "secret.xls"] {
+        let path = text_file(dir.path(), name, &encrypted_ooxml());
+        let e = read_inventory(&path, &ReadOptions::default()).unwrap_err();
+        assert!(matches!(e, InputError::Protected { .. }), "{name}: {e}");
+        assert!(e.to_string().contains("password-protected") && !e.to_string().contains('\n'));
+    }
+}
