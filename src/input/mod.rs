@@ -10,10 +10,12 @@ the sources, [`parse`] typed records per row, [`validate`] checks across rows an
 
 pub mod columns;
 pub mod csv;
+pub mod guard;
 pub mod header;
 pub mod parse;
 pub mod raw;
 pub mod validate;
+pub mod xls_scan;
 pub mod xlsx;
 
 use std::cell::RefCell;
@@ -203,20 +205,37 @@ pub fn read_inventory(path: &Path, opts: &ReadOptions) -> Result<Inventory, Inpu
     let kind = match head {
         Some(h) if h.starts_with(&ZIP_MAGIC) => {
             let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
-            let kind = xlsx::check_zip(std::io::BufReader::new(f), &p, &opts.budget)?;
+            let kind = guarded_read(&p, || {
+                xlsx::check_zip(std::io::BufReader::new(f), &p, &opts.budget)
+            })?;
             if kind == WorkbookKind::Ods {
                 let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
-                xlsx::check_ods_extent(std::io::BufReader::new(f), &p, &opts.budget)?;
+                guarded_read(&p, || {
+                    xlsx::check_ods_extent(std::io::BufReader::new(f), &p, &opts.budget)
+                })?;
             }
             Some(kind)
         }
         Some(h) if h == CFB_MAGIC => Some(if matches!(ext.as_str(), "xlsx" | "xlsm") {
             WorkbookKind::Xlsx
         } else {
+            guarded_read(&p, || check_xls_extent(path, &opts.budget))?;
             WorkbookKind::Xls
         }),
         _ => None,
     };
+    if matches!(kind, Some(WorkbookKind::Xls | WorkbookKind::Ods))
+        && meta.len() > opts.budget.max_dense_file_bytes
+    {
+        return Err(InputError::TooLarge {
+            path: p,
+            message: format!(
+                "the .xls/.ods file has {} bytes, more than the budget of {} bytes for workbooks read whole (save it as .xlsx, which is streamed)",
+                meta.len(),
+                opts.budget.max_dense_file_bytes
+            ),
+        });
+    }
     let collected = RefCell::new(Collected::default());
     let mut counter = CellCounter {
         cells: 0,
@@ -224,7 +243,9 @@ pub fn read_inventory(path: &Path, opts: &ReadOptions) -> Result<Inventory, Inpu
         path: p.clone(),
     };
     match kind {
-        Some(kind) => read_workbook(path, kind, opts, &collected, &mut counter)?,
+        Some(kind) => guarded_read(&p, || {
+            read_workbook(path, kind, opts, &collected, &mut counter)
+        })?,
         None if matches!(ext.as_str(), "csv" | "txt" | "tsv") => {
             read_csv_files(path, opts, &collected, &mut counter)?
         }
@@ -237,6 +258,43 @@ pub fn read_inventory(path: &Path, opts: &ReadOptions) -> Result<Inventory, Inpu
     }
     let wall_pct = opts.limits.wall_area_mismatch_pct;
     Ok(validate::finish(collected.into_inner(), wall_pct))
+}
+
+/// Runs a workbook read inside the panic guard (calamine can panic on malformed files).
+fn guarded_read<T>(path: &str, f: impl FnOnce() -> Result<T, InputError>) -> Result<T, InputError> {
+    guard::guarded(f).unwrap_or_else(|panic| {
+        Err(unreadable(
+            path,
+            format!("not a readable workbook (malformed content: {panic})"),
+        ))
+    })
+}
+
+/// Refuses an `.xls` whose sheets would expand to more cells than the dense budget, before
+/// calamine reads it (calamine expands every sheet when the workbook is opened).
+fn check_xls_extent(path: &Path, budget: &Budget) -> Result<(), InputError> {
+    let p = path.display().to_string();
+    let bytes = std::fs::read(path).map_err(|e| unreadable(&p, e))?;
+    for (i, e) in xls_scan::sheet_extents(&bytes)
+        .unwrap_or_default()
+        .iter()
+        .enumerate()
+    {
+        let cells = e.rows.saturating_mul(e.cols);
+        if cells > budget.max_dense_cells {
+            return Err(InputError::TooLarge {
+                path: p,
+                message: format!(
+                    "sheet {} spans {} rows × {} columns = {cells} cells, more than the budget of {} for .xls (save it as .xlsx, which is streamed, or delete stray far-away cells)",
+                    i + 1,
+                    e.rows,
+                    e.cols,
+                    budget.max_dense_cells
+                ),
+            });
+        }
+    }
+    Ok(())
 }
 
 fn read_workbook(

@@ -99,6 +99,8 @@ pub struct Budget {
     pub max_rows: u64,
     /// Most cells of a dense sheet grid (.xls/.ods are read whole, not streamed).
     pub max_dense_cells: u64,
+    /// Largest .xls / .ods file (read whole into memory).
+    pub max_dense_file_bytes: u64,
 }
 
 impl Default for Budget {
@@ -111,6 +113,7 @@ impl Default for Budget {
             max_cells: 200_000_000,
             max_rows: 5_000_000,
             max_dense_cells: 10_000_000,
+            max_dense_file_bytes: 256 << 20,
         }
     }
 }

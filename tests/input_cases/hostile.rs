@@ -128,4 +128,23 @@ proptest! {
         }
         read_bytes("x.xlsx", &rezip(&parts));
     }
+
+    #[test]
+    fn mutated_compound_files_never_panic(
+        edits in proptest::collection::vec((any::<prop::sample::Index>(), any::<u8>()), 1..16),
+        cut in proptest::option::of(any::<prop::sample::Index>()),
+    ) {
+        let wb = super::cases::biff_workbook(&[(0, 0), (3, 2), (700, 9)]);
+        let mut b = super::cases::compound_file(&[("Workbook", wb)]);
+        for (i, v) in edits {
+            let at = i.index(b.len());
+            b[at] = v;
+        }
+        if let Some(c) = cut {
+            let at = c.index(b.len() + 1);
+            b.truncate(at);
+        }
+        let _ = seistriage::input::xls_scan::sheet_extents(&b);
+        read_bytes("c.xls", &b);
+    }
 }
