@@ -112,9 +112,10 @@ impl SheetRun<'_> {
             _ => {
                 let key = row.cells.first().map(|c| c.as_text()).unwrap_or_default();
                 let value = row.cells.get(1).map(|c| c.as_text()).unwrap_or_default();
-                if !key.trim().is_empty() {
-                    c.settings_rows
-                        .push((key.trim().to_string(), value.trim().to_string()));
+                // Keys are matched like headers: "Floor Weight kPa" is floor_weight_kpa.
+                let key = header::normalise(&key);
+                if !key.is_empty() {
+                    c.settings_rows.push((key, value.trim().to_string()));
                 }
             }
         }

@@ -556,7 +556,7 @@ fn optional_sheets_are_read_and_unknown_building_ids_reported_and_ignored() {
     let settings = vec![
         vec![S("key"), S("value")],
         vec![S("agr_g"), N(0.3)],
-        vec![S("default_ground_type"), S("B")],
+        vec![S("Default Ground-Type"), S("B")],
     ];
     let mut u1 = good("U1");
     u1[5] = N(1.0); // 4 × 0.25 = 1.0 m² along X: agrees
