@@ -103,3 +103,15 @@ fn truncated_compound_file_is_unreadable_not_a_panic() {
     let e = read_inventory(&p, &ReadOptions::default()).unwrap_err();
     assert!(e.to_string().contains("cannot read the file"), "{e}");
 }
+
+/// The delimiter was sniffed from the first non-blank line only: a title line above a
+/// `;`-separated header made the whole file read as one column (no header found).
+#[test]
+fn csv_title_line_above_a_semicolon_header_does_not_hide_the_delimiter() {
+    let inv = read_csv_text(
+        "Invented district inventory\n\nid;storeys;plan_area_m2;column_area_m2\nA;3;212,5;2\n",
+    );
+    assert_eq!(inv.buildings.len(), 1, "{:#?}", inv.problems);
+    assert_eq!(inv.buildings[0].plan_area_m2, 212.5);
+    assert_eq!(inv.buildings[0].row, 4);
+}

@@ -10,7 +10,7 @@ use std::io::Read;
 use std::path::Path;
 
 use super::InputError;
-use super::raw::{Budget, CellCounter, MAX_CELL_CHARS, RawCell, RawRow};
+use super::raw::{Budget, CellCounter, HEADER_SCAN_ROWS, MAX_CELL_CHARS, RawCell, RawRow};
 
 /// What the CSV source found out about the file.
 #[derive(Debug, Clone, Default)]
@@ -36,22 +36,19 @@ pub fn delimiter_of(text: &[u8]) -> u8 {
 }
 
 fn sniff_delimiter(text: &[u8]) -> u8 {
-    let line = text
-        .split(|b| *b == b'\n')
-        .find(|l| {
-            l.iter()
-                .any(|b| !b.is_ascii_whitespace() && *b != b',' && *b != b';')
-        })
-        .unwrap_or(&[]);
+    // Count candidates outside quotes over the first lines (title lines above the header
+    // hold none, so one line alone can mislead).
     let mut counts = [0usize; 3];
-    let mut quoted = false;
-    for b in line {
-        match b {
-            b'"' => quoted = !quoted,
-            b',' if !quoted => counts[0] += 1,
-            b';' if !quoted => counts[1] += 1,
-            b'\t' if !quoted => counts[2] += 1,
-            _ => {}
+    for line in text.split(|b| *b == b'\n').take(HEADER_SCAN_ROWS) {
+        let mut quoted = false;
+        for b in line {
+            match b {
+                b'"' => quoted = !quoted,
+                b',' if !quoted => counts[0] += 1,
+                b';' if !quoted => counts[1] += 1,
+                b'\t' if !quoted => counts[2] += 1,
+                _ => {}
+            }
         }
     }
     if counts[1] > counts[0] && counts[1] >= counts[2] {
@@ -167,5 +164,9 @@ mod tests {
         assert_eq!(sniff_delimiter(b"id,storeys\n"), b',');
         assert_eq!(sniff_delimiter(b"\n\nid\tstoreys\n"), b'\t');
         assert_eq!(sniff_delimiter(b"\"a;b\",c,d\n"), b',');
+        assert_eq!(
+            sniff_delimiter(b"Title, with a comma\n\nid;storeys;plan_area_m2\nA;3;2,5\n"),
+            b';'
+        );
     }
 }
