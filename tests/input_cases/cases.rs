@@ -941,3 +941,18 @@ fn password_protected_workbooks_are_refused_in_one_line() {
         assert!(e.to_string().contains("password-protected") && !e.to_string().contains('\n'));
     }
 }
+
+#[test]
+fn csv_row_numbers_hold_for_a_last_line_without_a_line_end_and_multi_line_fields() {
+    let dir = tempfile::tempdir().unwrap();
+    let text = "id,name,storeys,plan_area_m2,column_area_m2\r\nA,\"two\r\nlines\",3,200,2\r\n\r\nB,x,3,200,2\r\n\r\n\r\nC,y,3,200,2";
+    let inv = read(&text_file(dir.path(), "m.csv", text.as_bytes()));
+    let rows: Vec<_> = inv
+        .buildings
+        .iter()
+        .map(|b| (b.id.as_str(), b.row))
+        .collect();
+    assert_eq!(rows, vec![("A", 2), ("B", 4), ("C", 7)]);
+    assert_eq!(inv.blank_rows, 3);
+    assert_eq!(inv.buildings[0].name, "two\r\nlines");
+}
