@@ -387,7 +387,7 @@ fn read_csv_files(
     let dir = path.parent().unwrap_or(Path::new("."));
     let mut files: Vec<(&'static SheetSpec, std::path::PathBuf)> =
         vec![(&BUILDINGS, path.to_path_buf())];
-    for spec in [&WALLS, &STOREYS, &FOOTPRINTS] {
+    for spec in [&WALLS, &STOREYS, &FOOTPRINTS, &SETTINGS] {
         let sibling = dir.join(format!("{stem}.{}.csv", spec.name));
         if sibling.is_file() {
             files.push((spec, sibling));

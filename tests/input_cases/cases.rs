@@ -632,8 +632,25 @@ fn sibling_csv_files_are_the_optional_sheets() {
         "town.walls.csv",
         b"building_id,direction,length_m\nW1,X,4\nW9,Y,3\n",
     );
+    text_file(
+        dir.path(),
+        "town.storeys.csv",
+        b"building_id;storey;height_m\nW1;1;4,5\n",
+    );
+    text_file(
+        dir.path(),
+        "town.footprints.csv",
+        b"building_id,vertex,x_m,y_m\nW1,1,0,0\nW1,2,10,0\nW1,3,10,20\n",
+    );
+    text_file(dir.path(), "town.settings.csv", b"key,value\nagr_g,0.25\n");
     let inv = read(&main);
     assert_eq!(inv.walls.len(), 1);
+    assert_eq!(inv.storeys[0].height_m, Some(4.5));
+    assert_eq!(inv.footprints.len(), 3);
+    assert_eq!(
+        inv.settings_rows,
+        vec![("agr_g".to_string(), "0.25".to_string())]
+    );
     assert!(
         inv.problems
             .iter()
