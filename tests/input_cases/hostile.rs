@@ -1,5 +1,15 @@
-//! Hostile input: arbitrary bytes and mutated valid workbooks / CSV files never make the
-//! reader panic (bounded case counts so the suite stays quick).
+//! Hostile input: arbitrary bytes, mutated valid workbooks (raw bytes, and XML parts
+//! mutated then re-zipped), mutated compound files (.xls) and mutated CSV files never make
+//! the reader panic, and when a file is read the counts add up. The suite runs 48 cases per
+//! property; a fuzzing session is the same tests with more cases:
+//!
+//!     PROPTEST_CASES=20000 cargo test --test integration hostile
+//!
+//! Session of 2026-12-01 (debug build, 2 shared cores): 20,000 cases per property, 5.5
+//! minutes, nothing escaped. Found earlier: two panics inside calamine (an .xlsx dimension
+//! ending before it starts; a compound file cut inside a FAT sector) — now caught by
+//! `input::guard` and kept as tests in tests/regression.rs; proptest keeps their seeds in
+//! hostile.proptest-regressions, replayed first on every run.
 
 use proptest::prelude::*;
 use seistriage::input::{ReadOptions, read_inventory};
