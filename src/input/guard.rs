@@ -33,7 +33,10 @@ fn install_hook() {
         std::panic::set_hook(Box::new(move |info| {
             if !GUARDED.with(Cell::get) {
                 previous(info);
-            } else if info.location().is_some_and(|l| l.file().starts_with("src/")) {
+            } else if info
+                .location()
+                .is_some_and(|l| l.file().starts_with("src/"))
+            {
                 OWN_PANICS.fetch_add(1, Ordering::Relaxed);
             }
         }));

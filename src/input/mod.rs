@@ -319,6 +319,10 @@ fn read_workbook(
         }
         Err(e) => return Err(e),
     };
+    if kind == WorkbookKind::Xlsx {
+        let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
+        wb.set_recalc(xlsx::asks_recalc(std::io::BufReader::new(f)));
+    }
     let names = wb.sheet_names();
     let find = |spec: &SheetSpec| {
         names

@@ -111,6 +111,22 @@ pub fn check_zip<R: Read + Seek>(
     })
 }
 
+/// Whether an .xlsx asks to be fully recalculated on opening (`<calcPr fullCalcOnLoad="1">`):
+/// then its cached formula results of 0 were never calculated.
+pub fn asks_recalc<R: Read + Seek>(reader: R) -> bool {
+    let Ok(mut zip) = zip::ZipArchive::new(reader) else {
+        return false;
+    };
+    let Ok(f) = zip.by_name("xl/workbook.xml") else {
+        return false;
+    };
+    let mut text = String::new();
+    if f.take(4 << 20).read_to_string(&mut text).is_err() {
+        return false;
+    }
+    text.contains("fullCalcOnLoad=\"1\"") || text.contains("fullCalcOnLoad=\"true\"")
+}
+
 /// Days since 1970-01-01 → civil year (proleptic Gregorian).
 fn year_from_unix_days(z: i64) -> i64 {
     let z = z + 719_468;
@@ -185,8 +201,9 @@ fn from_data(v: &Data, truncated: &mut Vec<usize>, col: usize) -> RawCell {
 
 /// An opened workbook of any supported kind.
 pub enum Workbook<R: Read + Seek> {
-    /// Streamed.
-    Xlsx(Box<Xlsx<R>>),
+    /// Streamed; the flag says the file asks to be recalculated on opening (its cached
+    /// formula values were not computed by the program that wrote it).
+    Xlsx(Box<Xlsx<R>>, bool),
     /// Read whole.
     Xls(Box<Xls<R>>),
     /// Read whole.
@@ -197,6 +214,13 @@ pub enum Workbook<R: Read + Seek> {
 pub type Sink<'a> = dyn FnMut(RawRow, &[usize]) -> Result<(), InputError> + 'a;
 
 impl<R: Read + Seek> Workbook<R> {
+    /// Marks an .xlsx whose `workbook.xml` asks for a full recalculation on opening.
+    pub fn set_recalc(&mut self, recalc: bool) {
+        if let Workbook::Xlsx(_, flag) = self {
+            *flag = recalc;
+        }
+    }
+
     /// Opens a workbook of a known kind.
     pub fn open(reader: R, kind: WorkbookKind, path: &str) -> Result<Self, InputError> {
         let map = |e: String| {
@@ -209,9 +233,10 @@ impl<R: Read + Seek> Workbook<R> {
             }
         };
         Ok(match kind {
-            WorkbookKind::Xlsx => {
-                Workbook::Xlsx(Box::new(Xlsx::new(reader).map_err(|e| map(e.to_string()))?))
-            }
+            WorkbookKind::Xlsx => Workbook::Xlsx(
+                Box::new(Xlsx::new(reader).map_err(|e| map(e.to_string()))?),
+                false,
+            ),
             WorkbookKind::Xls => {
                 Workbook::Xls(Box::new(Xls::new(reader).map_err(|e| map(e.to_string()))?))
             }
@@ -224,7 +249,7 @@ impl<R: Read + Seek> Workbook<R> {
     /// Sheet names in workbook order.
     pub fn sheet_names(&self) -> Vec<String> {
         match self {
-            Workbook::Xlsx(w) => w.sheet_names(),
+            Workbook::Xlsx(w, _) => w.sheet_names(),
             Workbook::Xls(w) => w.sheet_names(),
             Workbook::Ods(w) => w.sheet_names(),
         }
@@ -240,7 +265,7 @@ impl<R: Read + Seek> Workbook<R> {
         sink: &mut Sink<'_>,
     ) -> Result<(), InputError> {
         match self {
-            Workbook::Xlsx(w) => stream_xlsx(w, name, path, counter, sink),
+            Workbook::Xlsx(w, recalc) => stream_xlsx(w, *recalc, name, path, counter, sink),
             Workbook::Xls(w) => {
                 let values = w
                     .worksheet_range(name)
@@ -272,6 +297,7 @@ fn too_far(path: &str, name: &str, row: u32, col: u32) -> InputError {
 
 fn stream_xlsx<R: Read + Seek>(
     wb: &mut Xlsx<R>,
+    recalc: bool,
     name: &str,
     path: &str,
     counter: &mut CellCounter,
@@ -310,6 +336,13 @@ fn stream_xlsx<R: Read + Seek>(
         let value = match (&cell.value, &cell.formula) {
             (DataRef::Empty, Some(f)) if !f.is_empty() => RawCell::FormulaNoValue(f.clone()),
             (DataRef::String(s), Some(f)) if s.is_empty() && !f.is_empty() => {
+                RawCell::FormulaNoValue(f.clone())
+            }
+            // Writers that do not calculate store 0 and ask for recalculation on opening.
+            (DataRef::Float(z), Some(f)) if recalc && *z == 0.0 && !f.is_empty() => {
+                RawCell::FormulaNoValue(f.clone())
+            }
+            (DataRef::Int(0), Some(f)) if recalc && !f.is_empty() => {
                 RawCell::FormulaNoValue(f.clone())
             }
             (v, _) => from_ref(v, is_1904, &mut truncated, col),

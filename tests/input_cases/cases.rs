@@ -174,6 +174,27 @@ fn formulas_without_a_cached_value_are_errors_and_cached_ones_are_read() {
 }
 
 #[test]
+fn formulas_a_writer_never_calculated_read_as_zero_are_errors() {
+    // Library writers store 0 as the result and set fullCalcOnLoad: the 0 is not a value.
+    let dir = tempfile::tempdir().unwrap();
+    let path = workbook_with(dir.path(), "f0.xlsx", |ws| {
+        fill(ws, 0, &[head(), good("G3"), good("G4")]);
+        ws.write_formula(1, 4, Formula::new("2+2")).unwrap();
+        ws.write_formula(2, 6, Formula::new("B1*0")).unwrap();
+    });
+    let inv = read(&path);
+    assert_eq!(rejected_rows(&inv), vec![2, 3]);
+    assert_eq!(
+        problems_at(&inv, 2, "column_area_m2", Severity::Error).len(),
+        1
+    );
+    assert_eq!(
+        problems_at(&inv, 3, "rc_wall_area_y_m2", Severity::Error).len(),
+        1
+    );
+}
+
+#[test]
 fn year_built_as_a_date_cell_gives_its_year_and_a_bare_number_is_a_year() {
     let dir = tempfile::tempdir().unwrap();
     let path = workbook_with(dir.path(), "y.xlsx", |ws| {

@@ -80,7 +80,11 @@ fn read_bytes(name: &str, bytes: &[u8]) {
     if let Ok(inv) = read_inventory(&p, &ReadOptions::default()) {
         assert_eq!(inv.rows, inv.buildings.len() + inv.not_screened.len());
     }
-    assert_eq!(seistriage::input::guard::own_panics(), 0, "a panic in our own code was caught");
+    assert_eq!(
+        seistriage::input::guard::own_panics(),
+        0,
+        "a panic in our own code was caught"
+    );
 }
 
 proptest! {
