@@ -138,6 +138,35 @@ pub fn finish(mut c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
         &mut extra,
         &mut later,
     );
+    // A storey listed twice for one building cannot be told apart: both rows are errors.
+    let mut seen: HashMap<(String, u32), Vec<usize>> = HashMap::new();
+    for (s, _) in &c.storeys {
+        if !s.building_id.is_empty() && s.storey > 0 {
+            seen.entry((s.building_id.clone(), s.storey))
+                .or_default()
+                .push(s.row);
+        }
+    }
+    for (s, probs) in &mut c.storeys {
+        if let Some(rows) = seen.get(&(s.building_id.clone(), s.storey))
+            && rows.len() > 1
+        {
+            let list = rows
+                .iter()
+                .map(|r| r.to_string())
+                .collect::<Vec<_>>()
+                .join(", ");
+            probs.push(err(
+                "storeys",
+                s.row,
+                "storey",
+                format!(
+                    "expected each storey once per building, found storey {} of \"{}\" in rows {list}",
+                    s.storey, s.building_id
+                ),
+            ));
+        }
+    }
     let storeys = sort_out(
         "storeys",
         std::mem::take(&mut c.storeys),

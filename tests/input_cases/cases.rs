@@ -994,3 +994,30 @@ fn csv_row_numbers_hold_for_a_last_line_without_a_line_end_and_multi_line_fields
     assert_eq!(inv.blank_rows, 3);
     assert_eq!(inv.buildings[0].name, "two\r\nlines");
 }
+
+#[test]
+fn a_storey_listed_twice_stops_its_building_from_being_screened() {
+    let dir = tempfile::tempdir().unwrap();
+    let storeys = vec![
+        vec![S("building_id"), S("storey"), S("height_m")],
+        vec![S("ST1"), N(1.0), N(4.0)],
+        vec![S("ST1"), N(1.0), N(3.0)],
+        vec![S("ST2"), N(1.0), N(3.0)],
+    ];
+    let inv = read(&workbook(
+        dir.path(),
+        "st.xlsx",
+        &[
+            ("buildings", vec![head(), good("ST1"), good("ST2")]),
+            ("storeys", storeys),
+        ],
+    ));
+    assert_eq!(rejected_rows(&inv), vec![2]);
+    assert_eq!(problems_at(&inv, 2, "storey", Severity::Error).len(), 1);
+    assert!(
+        problems_at(&inv, 2, "storey", Severity::Error)[0]
+            .message
+            .contains("rows 2, 3")
+    );
+    assert_eq!(inv.storeys.len(), 1);
+}
