@@ -55,7 +55,10 @@ pub struct Case {
 
 impl Case {
     pub fn new(rec: BuildingRecord) -> Self {
-        Case { rec, ..Default::default() }
+        Case {
+            rec,
+            ..Default::default()
+        }
     }
     pub fn input(&self) -> BuildingInput<'_> {
         BuildingInput {

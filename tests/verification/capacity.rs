@@ -5,8 +5,8 @@
 
 use approx::assert_abs_diff_eq;
 use seistriage::engine::capacity::{
-    A1Input, column_capacity, levels, theta_um_a1, theta_um_member, theta_y_column,
-    theta_y_wall, wall_capacity,
+    A1Input, column_capacity, levels, theta_um_a1, theta_um_member, theta_y_column, theta_y_wall,
+    wall_capacity,
 };
 use seistriage::settings::Settings;
 
@@ -31,7 +31,11 @@ fn column_worked_example_eq_a1_and_a10b() {
     assert_abs_diff_eq!(c.theta_y, 0.0094862, epsilon = 1e-6);
     // detailed (α 0.5, ρsx 0.006: 25^(0.5·0.006·21) = 25^0.063), no ÷1.2:
     let d = column_capacity(0.1, 20.0, 420.0, 0.40, 1.5, true, &s);
-    let chain = 0.016 / 1.5 * 0.3f64.powf(0.1) * 20.0f64.powf(0.225) * 3.75f64.powf(0.35) * 25.0f64.powf(0.063);
+    let chain = 0.016 / 1.5
+        * 0.3f64.powf(0.1)
+        * 20.0f64.powf(0.225)
+        * 3.75f64.powf(0.35)
+        * 25.0f64.powf(0.063);
     assert_abs_diff_eq!(d.theta_um, chain, epsilon = 1e-12);
 }
 
@@ -51,7 +55,11 @@ fn wall_worked_example_with_0_58_factor_and_a11b() {
     assert_abs_diff_eq!(w.theta_y, 0.0047926, epsilon = 1e-6);
     // Without boundary elements: α 0.2, ρsx 0.001 and ÷1.2.
     let n = wall_capacity(0.1, 20.0, 420.0, 4.0, 9.0, false, 1.0, 0.016, &s);
-    let a1 = 0.016 / 1.5 * 0.3f64.powf(0.1) * 20.0f64.powf(0.225) * 2.25f64.powf(0.35) * 25.0f64.powf(0.0042);
+    let a1 = 0.016 / 1.5
+        * 0.3f64.powf(0.1)
+        * 20.0f64.powf(0.225)
+        * 2.25f64.powf(0.35)
+        * 25.0f64.powf(0.0042);
     assert_abs_diff_eq!(n.theta_um, a1 * 0.58 / 1.2, epsilon = 1e-12);
 }
 
@@ -59,22 +67,68 @@ fn wall_worked_example_with_0_58_factor_and_a11b() {
 fn member_factors_0_58_and_1_2() {
     // EN 1998-3 §A.3.2.2: walls × 0.58; members without seismic detailing ÷ 1.2 [mem].
     let s = Settings::default();
-    assert_abs_diff_eq!(theta_um_member(0.03, true, true, &s), 0.0174, epsilon = 1e-15);
-    assert_abs_diff_eq!(theta_um_member(0.03, false, false, &s), 0.025, epsilon = 1e-15);
-    assert_abs_diff_eq!(theta_um_member(0.03, true, false, &s), 0.0145, epsilon = 1e-15);
-    assert_abs_diff_eq!(theta_um_member(0.03, false, true, &s), 0.03, epsilon = 1e-15);
+    assert_abs_diff_eq!(
+        theta_um_member(0.03, true, true, &s),
+        0.0174,
+        epsilon = 1e-15
+    );
+    assert_abs_diff_eq!(
+        theta_um_member(0.03, false, false, &s),
+        0.025,
+        epsilon = 1e-15
+    );
+    assert_abs_diff_eq!(
+        theta_um_member(0.03, true, false, &s),
+        0.0145,
+        epsilon = 1e-15
+    );
+    assert_abs_diff_eq!(
+        theta_um_member(0.03, false, true, &s),
+        0.03,
+        epsilon = 1e-15
+    );
 }
 
 #[test]
 fn eq_a1_mechanical_ratios_floor_and_diagonal_term() {
     // EN 1998-3 eq. (A.1): max(0.01, ω') / max(0.01, ω); 1.25^(100·ρd).
-    let base = A1Input { nu: 0.0, omega: 0.005, omega_c: 0.002, fc_mpa: 20.0, lv_m: 1.0, h_m: 1.0, alpha: 0.0, rho_sx: 0.0, fyw_mpa: 420.0, rho_d: 0.0 };
+    let base = A1Input {
+        nu: 0.0,
+        omega: 0.005,
+        omega_c: 0.002,
+        fc_mpa: 20.0,
+        lv_m: 1.0,
+        h_m: 1.0,
+        alpha: 0.0,
+        rho_sx: 0.0,
+        fyw_mpa: 420.0,
+        rho_d: 0.0,
+    };
     // both floored at 0.01 → ratio 1: θ = 0.016·20^0.225 (γel = 1).
-    assert_abs_diff_eq!(theta_um_a1(&base, 1.0), 0.016 * 20.0f64.powf(0.225), epsilon = 1e-12);
-    let asym = A1Input { omega: 0.2, omega_c: 0.1, ..base };
-    assert_abs_diff_eq!(theta_um_a1(&asym, 1.0), 0.016 * 10.0f64.powf(0.225), epsilon = 1e-12);
-    let diag = A1Input { rho_d: 0.01, ..base };
-    assert_abs_diff_eq!(theta_um_a1(&diag, 1.0), 0.016 * 20.0f64.powf(0.225) * 1.25, epsilon = 1e-12);
+    assert_abs_diff_eq!(
+        theta_um_a1(&base, 1.0),
+        0.016 * 20.0f64.powf(0.225),
+        epsilon = 1e-12
+    );
+    let asym = A1Input {
+        omega: 0.2,
+        omega_c: 0.1,
+        ..base
+    };
+    assert_abs_diff_eq!(
+        theta_um_a1(&asym, 1.0),
+        0.016 * 10.0f64.powf(0.225),
+        epsilon = 1e-12
+    );
+    let diag = A1Input {
+        rho_d: 0.01,
+        ..base
+    };
+    assert_abs_diff_eq!(
+        theta_um_a1(&diag, 1.0),
+        0.016 * 20.0f64.powf(0.225) * 1.25,
+        epsilon = 1e-12
+    );
 }
 
 #[test]
@@ -104,10 +158,28 @@ fn theta_y_clamp_for_slender_walls() {
 fn confidence_factor_divides_existing_strengths() {
     // EN 1998-3 §3.5 / Table 3.1 [mem-H]: mean strengths ÷ CF for existing members.
     let s1 = Settings::default();
-    let s2 = Settings { confidence_factor: 1.35, ..Settings::default() };
+    let s2 = Settings {
+        confidence_factor: 1.35,
+        ..Settings::default()
+    };
     let r1 = Case::new(record("C1")).screen(&s1);
     let r2 = Case::new(record("C2")).screen(&s2);
-    let c2 = column_capacity(r2.axial_load_ratio, 20.0 / 1.35, 420.0 / 1.35, 0.4, 1.5, false, &s2);
-    assert_abs_diff_eq!(r2.directions.x.capacity.columns.unwrap().cp, c2.levels.cp, epsilon = 1e-15);
-    assert!(r2.directions.x.capacity.columns.unwrap().cp != r1.directions.x.capacity.columns.unwrap().cp);
+    let c2 = column_capacity(
+        r2.axial_load_ratio,
+        20.0 / 1.35,
+        420.0 / 1.35,
+        0.4,
+        1.5,
+        false,
+        &s2,
+    );
+    assert_abs_diff_eq!(
+        r2.directions.x.capacity.columns.unwrap().cp,
+        c2.levels.cp,
+        epsilon = 1e-15
+    );
+    assert!(
+        r2.directions.x.capacity.columns.unwrap().cp
+            != r1.directions.x.capacity.columns.unwrap().cp
+    );
 }

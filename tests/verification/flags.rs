@@ -27,7 +27,11 @@ fn aci_318_19_boundary_displacement_check_both_sides() {
     assert!(!boundary_required(7.96, 4.0, c_lim * 2.0, c_lim, &s)); // hw/lw 1.99 < 2
     assert!(boundary_required(8.0, 4.0, c_lim * 2.0, c_lim, &s)); // hw/lw = 2
     // Drift floor 0.005: a drift of 0.001 uses 0.005.
-    assert_abs_diff_eq!(boundary_c_limit_m(4.0, 0.001, &s), 4.0 / 4.5, epsilon = 1e-12);
+    assert_abs_diff_eq!(
+        boundary_c_limit_m(4.0, 0.001, &s),
+        4.0 / 4.5,
+        epsilon = 1e-12
+    );
     // c estimate (method §10, mem): c = lw(ν + ω_v)/(0.85·β1 + 2ω_v); fc 20, fy 420,
     // ρv 0.25 % → ω_v = 0.0525; β1 = 0.85 (ACI 318-19 Table 22.2.2.4.3, fc ≤ 28 MPa).
     let c = neutral_axis_m(4.0, 0.1, 0.0025, 420.0, 20.0);
@@ -46,7 +50,11 @@ fn boundary_needed_flag_in_screening() {
     rec.column_area_m2 = 0.5;
     let s = Settings::default();
     let r = Case::new(rec.clone()).screen(&s);
-    assert!(has_flag(&r, "boundary-needed", Some(Dir::X)), "{:?}", r.flags);
+    assert!(
+        has_flag(&r, "boundary-needed", Some(Dir::X)),
+        "{:?}",
+        r.flags
+    );
     // With boundary elements recorded the check is satisfied.
     rec.boundary_elements = Some(YesNo::Yes);
     let r = Case::new(rec).screen(&s);
@@ -95,11 +103,21 @@ fn soft_and_weak_storey_from_the_storeys_sheet_raise_kappa() {
     ];
     let s = Settings::default();
     let r = c.screen(&s);
-    assert!(has_flag(&r, "soft-storey-extreme", Some(Dir::X)), "{:?}", r.flags);
-    assert!(!has_flag(&r, "soft-storey", Some(Dir::X)), "extreme replaces soft");
+    assert!(
+        has_flag(&r, "soft-storey-extreme", Some(Dir::X)),
+        "{:?}",
+        r.flags
+    );
+    assert!(
+        !has_flag(&r, "soft-storey", Some(Dir::X)),
+        "extreme replaces soft"
+    );
     assert!(!has_flag(&r, "soft-storey", Some(Dir::Y)));
     assert_abs_diff_eq!(r.directions.x.detail.kappa, s.kappa_soft, epsilon = 1e-15);
-    assert_eq!(r.directions.x.drift_demand.columns.unwrap(), 2.5 * r.directions.x.roof_drift_demand);
+    assert_eq!(
+        r.directions.x.drift_demand.columns.unwrap(),
+        2.5 * r.directions.x.roof_drift_demand
+    );
 }
 
 #[test]
@@ -110,12 +128,19 @@ fn wall_discontinued_and_short_column() {
     rec.short_columns = Some(YesNo::Yes);
     rec.agr_g = Some(0.01);
     let mut c = Case::new(rec);
-    c.walls = vec![wall("W1", Dir::X, 4.0, 0.0, 4.0), wall("W2", Dir::X, 4.0, 0.0, -4.0)];
+    c.walls = vec![
+        wall("W1", Dir::X, 4.0, 0.0, 4.0),
+        wall("W2", Dir::X, 4.0, 0.0, -4.0),
+    ];
     let mut up = wall("W9", Dir::Y, 4.0, 5.0, 0.0);
     up.start_storey = Some(2);
     c.walls.push(up);
     let r = c.screen(&Settings::default());
-    let f = r.flags.iter().find(|f| f.code == "wall-discontinued").unwrap();
+    let f = r
+        .flags
+        .iter()
+        .find(|f| f.code == "wall-discontinued")
+        .unwrap();
     assert_eq!(f.direction, Some(Dir::Y));
     assert!(f.detail.contains("W9"));
     assert!(has_flag(&r, "short-column", None));
@@ -124,11 +149,22 @@ fn wall_discontinued_and_short_column() {
 }
 
 fn rect(lx: f64, ly: f64) -> Vec<(f64, f64)> {
-    vec![(-lx / 2.0, -ly / 2.0), (lx / 2.0, -ly / 2.0), (lx / 2.0, ly / 2.0), (-lx / 2.0, ly / 2.0)]
+    vec![
+        (-lx / 2.0, -ly / 2.0),
+        (lx / 2.0, -ly / 2.0),
+        (lx / 2.0, ly / 2.0),
+        (-lx / 2.0, ly / 2.0),
+    ]
 }
 
 fn pw(dir: Dir, x: f64, y: f64) -> PlanWall {
-    PlanWall { dir, lw: 4.0, tw: 0.25, x, y }
+    PlanWall {
+        dir,
+        lw: 4.0,
+        tw: 0.25,
+        x,
+        y,
+    }
 }
 
 #[test]
@@ -138,7 +174,12 @@ fn en1998_1_4_2_3_2_torsion_symmetric_plan() {
     // r_x = r_y = √80 = 8.944 m ≥ l_s; e0 = 0 → regular (eqs. 4.1a, 4.1b).
     let fp = footprint(&rect(20.0, 10.0)).unwrap();
     assert_abs_diff_eq!(fp.ip, 20.0 * 10.0 * (400.0 + 100.0) / 12.0, epsilon = 1e-9);
-    let walls = [pw(Dir::X, 0.0, 4.0), pw(Dir::X, 0.0, -4.0), pw(Dir::Y, 8.0, 0.0), pw(Dir::Y, -8.0, 0.0)];
+    let walls = [
+        pw(Dir::X, 0.0, 4.0),
+        pw(Dir::X, 0.0, -4.0),
+        pw(Dir::Y, 8.0, 0.0),
+        pw(Dir::Y, -8.0, 0.0),
+    ];
     let t = check(&walls, &fp, 0.30);
     assert_abs_diff_eq!(t.rx.unwrap(), 80.0f64.sqrt(), epsilon = 1e-12);
     assert_abs_diff_eq!(t.ls, (500.0f64 / 12.0).sqrt(), epsilon = 1e-12);
@@ -151,14 +192,24 @@ fn en1998_1_4_2_3_2_torsion_eccentric_plan() {
     // r_y = √(2080/32) = 8.062 m; 0.30·r_y = 2.419 m < 3 → direction X irregular (eq. 4.1a).
     // Direction Y: e0x = 0 and r_x = 8.062 ≥ l_s 6.455 → regular.
     let fp = footprint(&rect(20.0, 10.0)).unwrap();
-    let walls = [pw(Dir::X, 0.0, 4.0), pw(Dir::X, 0.0, 2.0), pw(Dir::Y, 8.0, 0.0), pw(Dir::Y, -8.0, 0.0)];
+    let walls = [
+        pw(Dir::X, 0.0, 4.0),
+        pw(Dir::X, 0.0, 2.0),
+        pw(Dir::Y, 8.0, 0.0),
+        pw(Dir::Y, -8.0, 0.0),
+    ];
     let t = check(&walls, &fp, 0.30);
     assert_abs_diff_eq!(t.ys.unwrap(), 3.0, epsilon = 1e-12);
     assert_abs_diff_eq!(t.ry.unwrap(), 65.0f64.sqrt(), epsilon = 1e-12);
     assert!(t.fails_x && !t.fails_y);
     // A small eccentricity passes: walls at y = 4.2 / −3.8 → e0y = 0.2 m, K_θ = 2·16·16 + 2048
     // = 2560, r_y = 8.944 m, 0.30·r_y = 2.683 m > 0.2 m.
-    let walls = [pw(Dir::X, 0.0, 4.2), pw(Dir::X, 0.0, -3.8), pw(Dir::Y, 8.0, 0.0), pw(Dir::Y, -8.0, 0.0)];
+    let walls = [
+        pw(Dir::X, 0.0, 4.2),
+        pw(Dir::X, 0.0, -3.8),
+        pw(Dir::Y, 8.0, 0.0),
+        pw(Dir::Y, -8.0, 0.0),
+    ];
     assert!(!check(&walls, &fp, 0.30).fails_x);
     // Screening: the same eccentric walls listed with a footprint raise `torsion` in X only.
     let mut c = Case::new(record("T1"));
@@ -171,7 +222,13 @@ fn en1998_1_4_2_3_2_torsion_eccentric_plan() {
     c.footprint = rect(20.0, 10.0)
         .into_iter()
         .enumerate()
-        .map(|(i, (x, y))| FootprintVertex { row: i + 2, building_id: "T1".into(), vertex: i as f64, x_m: x, y_m: y })
+        .map(|(i, (x, y))| FootprintVertex {
+            row: i + 2,
+            building_id: "T1".into(),
+            vertex: i as f64,
+            x_m: x,
+            y_m: y,
+        })
         .collect();
     let r = c.screen(&Settings::default());
     assert!(has_flag(&r, "torsion", Some(Dir::X)), "{:?}", r.flags);
@@ -185,14 +242,30 @@ fn near_fault_flag_and_demand_factor() {
     let mut c = Case::new(record("NF"));
     let plain = c.screen(&Settings::default());
     c.site = Some(SiteInfo {
-        near_fault: Some(NearFault { name: "Invented Ridge".into(), distance_m: 4200.0, mw: Some(6.6), limit_km: 10.0 }),
+        near_fault: Some(NearFault {
+            name: "Invented Ridge".into(),
+            distance_m: 4200.0,
+            mw: Some(6.6),
+            limit_km: 10.0,
+        }),
         ..SiteInfo::default()
     });
-    let s = Settings { near_fault_demand_factor: 1.3, ..Settings::default() };
+    let s = Settings {
+        near_fault_demand_factor: 1.3,
+        ..Settings::default()
+    };
     let r = c.screen(&s);
     let f = r.flags.iter().find(|f| f.code == "near-fault").unwrap();
-    assert!(f.detail.contains("Invented Ridge") && f.detail.contains("4.20 km") && f.detail.contains("6.6"));
-    assert_abs_diff_eq!(r.directions.y.detail.se_g, 1.3 * plain.directions.y.detail.se_g, epsilon = 1e-12);
+    assert!(
+        f.detail.contains("Invented Ridge")
+            && f.detail.contains("4.20 km")
+            && f.detail.contains("6.6")
+    );
+    assert_abs_diff_eq!(
+        r.directions.y.detail.se_g,
+        1.3 * plain.directions.y.detail.se_g,
+        epsilon = 1e-12
+    );
 }
 
 #[test]
@@ -219,13 +292,22 @@ fn ranking_ties_are_deterministic() {
         rec.occupants = occ;
         Case::new(rec).screen(&s)
     };
-    let mut v = vec![mk("b", Some(10)), mk("a", None), mk("B", None), mk("c", Some(0)), mk("d", Some(50))];
+    let mut v = vec![
+        mk("b", Some(10)),
+        mk("a", None),
+        mk("B", None),
+        mk("c", Some(0)),
+        mk("d", Some(50)),
+    ];
     rank(&mut v);
     let ids: Vec<&str> = v.iter().map(|b| b.id.as_str()).collect();
     // identical engineering: occupants 50, 10 first; then 0/missing tie broken by id bytes
     // ("B" 0x42 < "a" 0x61 < "c").
     assert_eq!(ids, ["d", "b", "B", "a", "c"]);
-    assert_eq!(v.iter().map(|b| b.rank).collect::<Vec<_>>(), [1, 2, 3, 4, 5]);
+    assert_eq!(
+        v.iter().map(|b| b.rank).collect::<Vec<_>>(),
+        [1, 2, 3, 4, 5]
+    );
     // A higher score outranks occupants; a lower PI breaks a score tie.
     let mut hi = record("z");
     hi.agr_g = Some(0.5);
@@ -247,10 +329,24 @@ fn defaults_used_canonical_names() {
     rec.use_ = None;
     rec.column_depth_m = None;
     let r = Case::new(rec).screen(&Settings::default());
-    for k in ["fc_mpa", "floor_weight_kpa", "ground_type", "wall_length_x_m", "use", "column_depth_m"] {
-        assert!(r.defaults_used.iter().any(|d| d == k), "{k} in {:?}", r.defaults_used);
+    for k in [
+        "fc_mpa",
+        "floor_weight_kpa",
+        "ground_type",
+        "wall_length_x_m",
+        "use",
+        "column_depth_m",
+    ] {
+        assert!(
+            r.defaults_used.iter().any(|d| d == k),
+            "{k} in {:?}",
+            r.defaults_used
+        );
     }
-    assert!(!r.defaults_used.iter().any(|d| d == "wall_length_y_m"), "no Y walls: Y length unused");
+    assert!(
+        !r.defaults_used.iter().any(|d| d == "wall_length_y_m"),
+        "no Y walls: Y length unused"
+    );
     assert!(has_flag(&r, "defaults-used", None));
 }
 
@@ -265,7 +361,11 @@ fn not_screened_reasons() {
     rec.column_area_m2 = 0.0;
     let e = Case::new(rec).try_screen(&Settings::default()).unwrap_err();
     assert!(e.iter().any(|m| m.contains("direction Y")), "{e:?}");
-    let s = Settings { spectrum: seistriage::settings::Spectrum::TwoParameter, sds_g: Some(1.0), ..Settings::default() };
+    let s = Settings {
+        spectrum: seistriage::settings::Spectrum::TwoParameter,
+        sds_g: Some(1.0),
+        ..Settings::default()
+    };
     let e = Case::new(record("N3")).try_screen(&s).unwrap_err();
     assert!(e.iter().any(|m| m.contains("no hazard given")));
 }

@@ -34,10 +34,22 @@ fn axial_ratio_and_jbdpa_strength_by_hand() {
     assert_abs_diff_eq!(r.detail.weight_kn, 9600.0, epsilon = TOL);
     assert_abs_diff_eq!(r.axial_load_ratio, 0.08, epsilon = TOL);
     assert_abs_diff_eq!(r.directions.x.detail.strength_walls, 1.0, epsilon = TOL);
-    assert_abs_diff_eq!(r.directions.x.detail.strength_columns, 2000.0 / 9600.0, epsilon = TOL);
+    assert_abs_diff_eq!(
+        r.directions.x.detail.strength_columns,
+        2000.0 / 9600.0,
+        epsilon = TOL
+    );
     assert_abs_diff_eq!(r.directions.x.detail.alpha1, 0.7, epsilon = TOL);
-    assert_abs_diff_eq!(r.strength_coefficient.x, 1.0 + 0.7 * 2000.0 / 9600.0, epsilon = TOL);
-    assert_abs_diff_eq!(r.strength_coefficient.y, 1600.0 / 9600.0 + 2000.0 / 9600.0, epsilon = TOL);
+    assert_abs_diff_eq!(
+        r.strength_coefficient.x,
+        1.0 + 0.7 * 2000.0 / 9600.0,
+        epsilon = TOL
+    );
+    assert_abs_diff_eq!(
+        r.strength_coefficient.y,
+        1600.0 / 9600.0 + 2000.0 / 9600.0,
+        epsilon = TOL
+    );
     // β square-root branch (JBDPA 2001, mem): fc 45 → √(45/20) = 1.5.
     let mut rec = record("I3");
     rec.fc_mpa = Some(45.0);
@@ -49,11 +61,26 @@ fn axial_ratio_and_jbdpa_strength_by_hand() {
 fn low_priority_index_only_with_a_threshold() {
     // Method §1: no published cut-off built in; flag only when pi_threshold_pct is set.
     let c = Case::new(record("I4"));
-    assert!(!has_flag(&c.screen(&Settings::default()), "low-priority-index", Some(seistriage::model::Dir::Y)));
-    let s = Settings { pi_threshold_pct: Some(0.3), ..Settings::default() };
+    assert!(!has_flag(
+        &c.screen(&Settings::default()),
+        "low-priority-index",
+        Some(seistriage::model::Dir::Y)
+    ));
+    let s = Settings {
+        pi_threshold_pct: Some(0.3),
+        ..Settings::default()
+    };
     let r = c.screen(&s);
-    assert!(has_flag(&r, "low-priority-index", Some(seistriage::model::Dir::Y))); // 0.225 < 0.3
-    assert!(!has_flag(&r, "low-priority-index", Some(seistriage::model::Dir::X))); // 0.725
+    assert!(has_flag(
+        &r,
+        "low-priority-index",
+        Some(seistriage::model::Dir::Y)
+    )); // 0.225 < 0.3
+    assert!(!has_flag(
+        &r,
+        "low-priority-index",
+        Some(seistriage::model::Dir::X)
+    )); // 0.725
 }
 
 #[test]
@@ -65,10 +92,18 @@ fn retrofit_walls_strength_and_kappa_rule() {
     let s = Settings::default();
     let r = c.with(&s, 0.0, 2.0);
     let add = 1.5f64.sqrt() * 2.0 * 2.0 * 1000.0 / 9600.0;
-    assert_abs_diff_eq!(r.directions.y.detail.strength_walls, 1600.0 / 9600.0 + add, epsilon = TOL);
+    assert_abs_diff_eq!(
+        r.directions.y.detail.strength_walls,
+        1600.0 / 9600.0 + add,
+        epsilon = TOL
+    );
     assert_abs_diff_eq!(r.directions.y.detail.alpha1, 0.7, epsilon = TOL);
     assert_abs_diff_eq!(r.directions.y.detail.kappa, 1.35, epsilon = TOL);
-    assert!(r.walls.iter().any(|w| w.wall_id == "new" && w.boundary_elements && w.axial_load_ratio == 0.05));
+    assert!(
+        r.walls
+            .iter()
+            .any(|w| w.wall_id == "new" && w.boundary_elements && w.axial_load_ratio == 0.05)
+    );
     // Below min_new_wall_index_pct (ΔA 0.8 m² = 0.1 %): κ = min(before 1.5, graded 1.44) = 1.44.
     let r = c.with(&s, 0.0, 0.8);
     assert_abs_diff_eq!(r.directions.y.detail.kappa, 1.5 - 0.3 * 0.2, epsilon = TOL);

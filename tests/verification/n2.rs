@@ -2,10 +2,10 @@
 //! (eqs. B.3, B.7-B.8 and the 3·det* limit). Tolerance 1e-12 unless stated.
 
 use approx::assert_abs_diff_eq;
+use seistriage::engine::capacity::wall_shear_span_m;
 use seistriage::engine::n2::{
     N2Branch, mode_shape, participation_factor, target_displacement_m, yield_acceleration_g,
 };
-use seistriage::engine::capacity::wall_shear_span_m;
 use seistriage::settings::Settings;
 
 use super::bldg::{Case, record};
@@ -18,7 +18,11 @@ fn gamma_equal_storeys_is_3n_over_2n_plus_1() {
     for n in 1..=20u32 {
         let z: Vec<f64> = (1..=n).map(|i| 3.0 * f64::from(i)).collect();
         let g = participation_factor(&mode_shape(&z));
-        assert_abs_diff_eq!(g, 3.0 * f64::from(n) / (2.0 * f64::from(n) + 1.0), epsilon = TOL);
+        assert_abs_diff_eq!(
+            g,
+            3.0 * f64::from(n) / (2.0 * f64::from(n) + 1.0),
+            epsilon = TOL
+        );
     }
 }
 
@@ -36,17 +40,30 @@ fn wall_shear_span_equal_storeys() {
         let z: Vec<f64> = (1..=n).map(|i| 2.8 * f64::from(i)).collect();
         let h = 2.8 * f64::from(n);
         let nf = f64::from(n);
-        assert_abs_diff_eq!(wall_shear_span_m(&z), h * (2.0 * nf + 1.0) / (3.0 * nf), epsilon = 1e-9);
+        assert_abs_diff_eq!(
+            wall_shear_span_m(&z),
+            h * (2.0 * nf + 1.0) / (3.0 * nf),
+            epsilon = 1e-9
+        );
     }
 }
 
 #[test]
 fn equal_displacement_rule_t_at_or_above_tc() {
     // EN 1998-1 eq. (B.7): T* ≥ TC → dt* = det* whatever qu is.
-    assert_eq!(target_displacement_m(0.05, Some(3.0), 0.6, 0.6), (0.05, N2Branch::EqualDisplacement));
-    assert_eq!(target_displacement_m(0.05, Some(3.0), 0.9, 0.6), (0.05, N2Branch::EqualDisplacement));
+    assert_eq!(
+        target_displacement_m(0.05, Some(3.0), 0.6, 0.6),
+        (0.05, N2Branch::EqualDisplacement)
+    );
+    assert_eq!(
+        target_displacement_m(0.05, Some(3.0), 0.9, 0.6),
+        (0.05, N2Branch::EqualDisplacement)
+    );
     // T < TC but qu ≤ 1 (elastic response): dt* = det* (eq. B.8 first case).
-    assert_eq!(target_displacement_m(0.02, Some(1.0), 0.3, 0.6), (0.02, N2Branch::EqualDisplacement));
+    assert_eq!(
+        target_displacement_m(0.02, Some(1.0), 0.3, 0.6),
+        (0.02, N2Branch::EqualDisplacement)
+    );
 }
 
 #[test]
@@ -79,7 +96,15 @@ fn roof_drift_chain_in_a_screened_building() {
     let r = Case::new(record("N1")).screen(&Settings::default());
     let y = &r.directions.y;
     assert_abs_diff_eq!(y.detail.gamma, 12.0 / 9.0, epsilon = TOL);
-    assert_abs_diff_eq!(y.detail.roof_displacement_m, 12.0 / 9.0 * y.detail.dt_star_m, epsilon = TOL);
-    assert_abs_diff_eq!(y.roof_drift_demand, y.detail.roof_displacement_m / 12.0, epsilon = TOL);
+    assert_abs_diff_eq!(
+        y.detail.roof_displacement_m,
+        12.0 / 9.0 * y.detail.dt_star_m,
+        epsilon = TOL
+    );
+    assert_abs_diff_eq!(
+        y.roof_drift_demand,
+        y.detail.roof_displacement_m / 12.0,
+        epsilon = TOL
+    );
     assert_abs_diff_eq!(y.detail.qu, y.detail.se_g / y.detail.say_g, epsilon = TOL);
 }

@@ -33,17 +33,27 @@ fn eq_4_8_clamps_lw_over_h_at_0_9() {
     // EN 1998-1 eq. (4.8): lw/H ≤ 0.9. Walls listed along Y: lw 16 m (16/12 → 0.9) and
     // lw 6 m (0.5). Ac = 4·(1.1)² + 1.5·(0.7)² = 4.84 + 0.735.
     let mut c = Case::new(record("P2"));
-    c.walls = vec![wall("W1", Dir::Y, 16.0, 0.0, 0.0), wall("W2", Dir::Y, 6.0, 0.0, 0.0)];
+    c.walls = vec![
+        wall("W1", Dir::Y, 16.0, 0.0, 0.0),
+        wall("W2", Dir::Y, 6.0, 0.0, 0.0),
+    ];
     c.walls.push(wall("WX", Dir::X, 4.0, 0.0, 0.0));
     let r = c.screen(&Settings::default());
-    assert_abs_diff_eq!(r.directions.y.detail.ac_m2, 4.0 * 1.21 + 1.5 * 0.49, epsilon = TOL);
+    assert_abs_diff_eq!(
+        r.directions.y.detail.ac_m2,
+        4.0 * 1.21 + 1.5 * 0.49,
+        epsilon = TOL
+    );
 }
 
 #[test]
 fn period_factor_input_period_and_new_wall_scaling() {
     // Method §4 order: formula × period_factor; input replaces the product; new walls scale
     // by T_formula(with)/T_formula(without).
-    let s = Settings { period_factor: 1.4, ..Settings::default() };
+    let s = Settings {
+        period_factor: 1.4,
+        ..Settings::default()
+    };
     let base = Case::new(record("P3"));
     let r = base.screen(&s);
     let t_formula = r.directions.x.detail.period_formula_s;
@@ -60,7 +70,11 @@ fn period_factor_input_period_and_new_wall_scaling() {
     let ratio = (1.0 / ac_new.sqrt()) / (1.0 / ac.sqrt());
     assert_abs_diff_eq!(r_new.directions.x.period_s, 0.9 * ratio, epsilon = TOL);
     // Y has no new walls: unchanged.
-    assert_abs_diff_eq!(r_new.directions.y.period_s, 1.4 * 0.075 * 12.0f64.powf(0.75), epsilon = TOL);
+    assert_abs_diff_eq!(
+        r_new.directions.y.period_s,
+        1.4 * 0.075 * 12.0f64.powf(0.75),
+        epsilon = TOL
+    );
 }
 
 #[test]

@@ -54,7 +54,11 @@ fn se_on_each_branch_and_at_each_corner() {
     // T = TD: both (3.4) and (3.5) give plateau·0.6/2.
     assert_abs_diff_eq!(se_ec8_g(2.0, ag, &p, 1.0), plateau * 0.3, epsilon = TOL);
     // T = 3: eq. (3.5) plateau·TC·TD/T² = plateau·1.2/9.
-    assert_abs_diff_eq!(se_ec8_g(3.0, ag, &p, 1.0), plateau * 1.2 / 9.0, epsilon = TOL);
+    assert_abs_diff_eq!(
+        se_ec8_g(3.0, ag, &p, 1.0),
+        plateau * 1.2 / 9.0,
+        epsilon = TOL
+    );
     // Continuity just either side of each corner (1e-9 relative: the branches meet).
     for tcorner in [p.tb, p.tc, p.td] {
         let lo = se_ec8_g(tcorner - 1e-10, ag, &p, 1.0);
@@ -96,9 +100,17 @@ fn two_parameter_shape_asce7_11_4_6() {
     assert_abs_diff_eq!(sa_two_parameter_g(1.2, sds, sd1, tl), 0.5, epsilon = TOL);
     assert_abs_diff_eq!(sa_two_parameter_g(4.0, sds, sd1, tl), 0.15, epsilon = TOL);
     // eq. (11.4-7): SD1·TL/T².
-    assert_abs_diff_eq!(sa_two_parameter_g(8.0, sds, sd1, tl), 0.6 * 4.0 / 64.0, epsilon = TOL);
+    assert_abs_diff_eq!(
+        sa_two_parameter_g(8.0, sds, sd1, tl),
+        0.6 * 4.0 / 64.0,
+        epsilon = TOL
+    );
     // no TL: SD1/T continues.
-    assert_abs_diff_eq!(sa_two_parameter_g(8.0, sds, sd1, None), 0.075, epsilon = TOL);
+    assert_abs_diff_eq!(
+        sa_two_parameter_g(8.0, sds, sd1, None),
+        0.075,
+        epsilon = TOL
+    );
 }
 
 #[test]
@@ -112,7 +124,10 @@ fn importance_factor_and_type_2_in_screening() {
     let r = Case::new(rec).screen(&Settings::default());
     assert_abs_diff_eq!(r.detail.gamma_i, 1.2, epsilon = TOL);
     assert_abs_diff_eq!(r.detail.ag_g, 0.36, epsilon = TOL);
-    let s2 = Settings { spectrum: Spectrum::Ec8Type2, ..Settings::default() };
+    let s2 = Settings {
+        spectrum: Spectrum::Ec8Type2,
+        ..Settings::default()
+    };
     let r2 = Case::new(record("S2")).screen(&s2);
     assert_abs_diff_eq!(r2.directions.x.detail.tc_s, 0.25, epsilon = TOL);
 }
