@@ -216,3 +216,34 @@ fn generated_xlsx_has_every_row() {
     assert_eq!(range.height(), 301);
     assert!(demo::write_generated(3, &dir.path().join("g.txt"), 3).is_err());
 }
+
+#[test]
+fn listed_walls_lie_inside_their_footprints() {
+    use geo::{Contains, Coord, LineString, Point, Polygon};
+    let [_, walls, _, footprints] = demo::demo_tables();
+    let text = |c: &Cell| match c {
+        Cell::Text(s) => s.clone(),
+        _ => String::new(),
+    };
+    let n = |c: &Cell| match c {
+        Cell::Number(v) => *v,
+        _ => f64::NAN,
+    };
+    let mut checked = 0;
+    let ids: std::collections::BTreeSet<_> = footprints.rows.iter().map(|r| text(&r[0])).collect();
+    for id in ids {
+        let ring: Vec<Coord> = footprints
+            .rows
+            .iter()
+            .filter(|r| text(&r[0]) == id)
+            .map(|r| Coord { x: n(&r[2]), y: n(&r[3]) })
+            .collect();
+        let poly = Polygon::new(LineString::new(ring), vec![]);
+        for w in walls.rows.iter().filter(|r| text(&r[0]) == id) {
+            let (x, y) = (n(&w[5]), n(&w[6]));
+            assert!(poly.contains(&Point::new(x, y)), "{id} wall {} at ({x}, {y})", text(&w[1]));
+            checked += 1;
+        }
+    }
+    assert!(checked >= 15, "{checked}");
+}

@@ -357,7 +357,15 @@ pub enum Layout {
 
 /// Lists the RC walls of `b` one by one in the footprint frame (origin at the plan centre),
 /// clears its `rc_wall_area_*` columns (the walls sheet replaces them) and returns the rows.
-pub fn invent_walls(dice: &mut Dice, b: &mut BuildingRecord, layout: Layout) -> Vec<WallRecord> {
+/// `cut` = (width, depth) of a corner cut away at the north-east of the plan rectangle (an
+/// L-shaped footprint, see [`l_footprint`]): walls that would fall in it move to the
+/// re-entrant faces, so every wall lies inside the footprint.
+pub fn invent_walls(
+    dice: &mut Dice,
+    b: &mut BuildingRecord,
+    layout: Layout,
+    cut: Option<(f64, f64)>,
+) -> Vec<WallRecord> {
     let lx = b.plan_length_x_m.unwrap_or(20.0);
     let ly = b.plan_length_y_m.unwrap_or(12.0);
     let t = round(dice.range(0.25, 0.3), 2);
@@ -390,15 +398,19 @@ pub fn invent_walls(dice: &mut Dice, b: &mut BuildingRecord, layout: Layout) -> 
     let (hx, hy) = (lx / 2.0 - t / 2.0, ly / 2.0 - t / 2.0);
     let lwx = (lx / 5.0).clamp(3.0, 6.0);
     let lwy = (ly / 3.0).clamp(3.0, 6.0);
+    // North face east of centre: on the re-entrant face when the corner is cut away.
+    let north_east_y = cut.map_or(hy, |(_, c)| ly / 2.0 - c - t / 2.0);
+    // East face: towards its south end when the corner is cut away.
+    let east_y = cut.map_or(0.0, |_| -ly / 2.0 + lwy / 2.0 + 0.5);
     // X walls on the north and south faces.
     push(X, lwx, -lx / 4.0, -hy, 1);
-    push(X, lwx, lx / 4.0, hy, 1);
+    push(X, lwx, lx / 4.0, north_east_y, 1);
     match layout {
         Layout::Balanced | Layout::Discontinued => {
             push(X, lwx, lx / 4.0, -hy, 1);
             push(X, lwx, -lx / 4.0, hy, if layout == Layout::Discontinued { 2 } else { 1 });
             push(Y, lwy, -hx, 0.0, 1);
-            push(Y, lwy, hx, 0.0, 1);
+            push(Y, lwy, hx, east_y, 1);
         }
         Layout::Eccentric => {
             push(Y, lwy, -hx, -ly / 4.0, 1);
@@ -414,13 +426,14 @@ pub fn invent_walls(dice: &mut Dice, b: &mut BuildingRecord, layout: Layout) -> 
     walls
 }
 
-/// An L-shaped footprint for `b` (a corner of the plan rectangle cut away), centred on the
-/// rectangle's centre; sets the plan area to the L's area. Vertices in order from 1.
-pub fn l_footprint(dice: &mut Dice, b: &mut BuildingRecord) -> Vec<FootprintVertex> {
+/// An L-shaped footprint for `b` (the north-east corner of the plan rectangle cut away),
+/// centred on the rectangle's centre; sets the plan area to the L's area. Returns the
+/// vertices in order from 1 and the cut (width along X, depth along Y).
+pub fn l_footprint(dice: &mut Dice, b: &mut BuildingRecord) -> (Vec<FootprintVertex>, (f64, f64)) {
     let lx = b.plan_length_x_m.unwrap_or(20.0);
     let ly = b.plan_length_y_m.unwrap_or(12.0);
     let a = round(lx * dice.range(0.25, 0.4), 1);
-    let c = round(ly * dice.range(0.3, 0.5), 1);
+    let c = round(ly * dice.range(0.3, 0.45), 1);
     let (x0, x1, y0, y1) = (-lx / 2.0, lx / 2.0, -ly / 2.0, ly / 2.0);
     let pts = [
         (x0, y0),
@@ -431,7 +444,8 @@ pub fn l_footprint(dice: &mut Dice, b: &mut BuildingRecord) -> Vec<FootprintVert
         (x0, y1),
     ];
     b.plan_area_m2 = round(lx * ly - a * c, 0);
-    pts.iter()
+    let vertices = pts
+        .iter()
         .enumerate()
         .map(|(i, &(x, y))| FootprintVertex {
             row: 0,
@@ -440,7 +454,8 @@ pub fn l_footprint(dice: &mut Dice, b: &mut BuildingRecord) -> Vec<FootprintVert
             x_m: round(x, 2),
             y_m: round(y, 2),
         })
-        .collect()
+        .collect();
+    (vertices, (a, c))
 }
 
 /// Storey-by-storey data for `b` (one row per storey); with `soft` the ground storey is

@@ -405,15 +405,24 @@ pub fn demo_tables() -> [Table; 4] {
         match role {
             Role::Plain => {}
             Role::Walls(layout, with_footprint) => {
-                if with_footprint {
-                    footprints.extend(invent::l_footprint(&mut dice, &mut b));
-                }
-                walls.extend(invent::invent_walls(&mut dice, &mut b, layout));
+                let cut = if with_footprint {
+                    let (vertices, cut) = invent::l_footprint(&mut dice, &mut b);
+                    footprints.extend(vertices);
+                    Some(cut)
+                } else {
+                    None
+                };
+                walls.extend(invent::invent_walls(&mut dice, &mut b, layout, cut));
             }
             Role::Storeys(soft) => {
                 let rows = invent::invent_storeys(&mut dice, &b, soft);
-                if soft {
-                    b.ground_storey_height_m = rows.first().and_then(|r| r.height_m);
+                // The row's ground-storey values agree with storey 1 of the storeys sheet.
+                if let Some(ground) = rows.first() {
+                    if soft {
+                        b.ground_storey_height_m = ground.height_m;
+                    }
+                    b.infill_area_x_m2 = ground.infill_area_x_m2;
+                    b.infill_area_y_m2 = ground.infill_area_y_m2;
                 }
                 storeys.extend(rows);
             }
