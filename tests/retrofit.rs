@@ -297,7 +297,7 @@ proptest! {
         let after = engine::screen_building_with(&inp, &s, &walls).unwrap();
         for d in Dir::BOTH {
             match *rf.added_wall_area_m2.get(d) {
-                Some(a) if a == 0.0 => {
+                Some(0.0) => {
                     prop_assert!(base.directions.get(d).dcr.ls <= s.retrofit_target_dcr);
                 }
                 Some(a) => {

@@ -25,6 +25,11 @@ pub const STOREY_FLAG_CODES: [&str; 3] = ["soft-storey", "soft-storey-extreme", 
 pub const NO_SOLUTION_NOTE: &str =
     "no wall solution within the cap — detailed study or replacement";
 
+/// DCR ≤ target (method §12); false when the DCR is not a number.
+pub fn meets(dcr: f64, target: f64) -> bool {
+    dcr <= target
+}
+
 /// The bisection loop of method §12, exactly:
 ///
 /// lo = one wall, hi = cap; if DCR(lo) ≤ target report lo; if DCR(hi) > target report
@@ -45,20 +50,21 @@ pub fn bisect(
     mut dcr: impl FnMut(f64) -> f64,
     target: f64,
 ) -> Option<f64> {
-    if !(lo <= hi) {
+    let one_wall_within_cap = lo <= hi;
+    if !one_wall_within_cap {
         return None;
     }
-    if dcr(lo) <= target {
+    if meets(dcr(lo), target) {
         return Some(lo);
     }
-    if !(dcr(hi) <= target) {
+    if !meets(dcr(hi), target) {
         return None;
     }
     let (mut lo, mut hi) = (lo, hi);
     let mut iterations = 0;
     while hi - lo > tol && iterations < max_iter {
         let mid = (lo + hi) / 2.0;
-        if dcr(mid) <= target {
+        if meets(dcr(mid), target) {
             hi = mid;
         } else {
             lo = mid;
@@ -184,7 +190,7 @@ where
             Ok(after) => {
                 for d in Dir::BOTH {
                     let dcr = after.directions.get(d).dcr.ls;
-                    if *proposed.area_m2.get(d) > 0.0 && !(dcr <= target) {
+                    if *proposed.area_m2.get(d) > 0.0 && !meets(dcr, target) {
                         notes.push(format!(
                             "with both directions' walls added DCR_LS,{} = {dcr:.3} is above the target {target}",
                             d.code()
