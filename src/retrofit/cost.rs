@@ -80,6 +80,15 @@ pub fn apply(r: &mut Retrofit, height_m: f64, floor_area_m2: f64, settings: &Set
         r.cost = None;
         r.replacement_cost = None;
         r.replace = None;
+        let msg = format!(
+            "costs not computed: set {}",
+            missing_unit_costs(settings).join(", ")
+        );
+        if r.note.is_empty() {
+            r.note = msg;
+        } else {
+            r.note = format!("{}; {msg}", r.note);
+        }
         return;
     };
     let cost = match (r.added_wall_area_m2.x, r.added_wall_area_m2.y) {
@@ -172,6 +181,7 @@ mod tests {
         apply(&mut r, 15.0, 2000.0, &s);
         assert_eq!((r.cost, r.replacement_cost, r.replace), (None, None, None));
         assert_eq!(funding_cost(&r), None);
+        assert_eq!(r.note, "costs not computed: set replacement_cost_m2");
         assert_eq!(missing_unit_costs(&s), vec!["replacement_cost_m2"]);
         assert_eq!(missing_unit_costs(&Settings::default()).len(), 3);
     }

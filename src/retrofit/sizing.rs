@@ -221,18 +221,20 @@ where
             ),
         );
     }
-    if areas.x.is_none() || areas.y.is_none() {
-        notes.insert(0, NO_SOLUTION_NOTE.to_string());
+    let unsolved: Vec<&str> = Dir::BOTH
+        .iter()
+        .filter(|d| areas.get(**d).is_none())
+        .map(|d| d.code())
+        .collect();
+    if !unsolved.is_empty() {
+        notes.insert(
+            0,
+            format!("{NO_SOLUTION_NOTE} (direction {})", unsolved.join(" and ")),
+        );
     } else if areas.x == Some(0.0) && areas.y == Some(0.0) {
         notes.push(format!(
             "no added walls needed: DCR_LS is at or below the target {target} in both directions (class {} for other reasons, e.g. short columns — detailed study)",
             base.class
-        ));
-    }
-    if !flags_after.is_empty() {
-        notes.push(format!(
-            "remaining after the new walls: {}",
-            flags_after.join(", ")
         ));
     }
     Some(Retrofit {
