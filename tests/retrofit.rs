@@ -373,3 +373,125 @@ fn bare_frame_is_sized_and_priced() {
     }
     assert!((rf.replacement_cost.unwrap() - 900.0 * fl).abs() < 1e-6);
 }
+
+// ---------------------------------------------------------------------------------------
+// The whole pipeline with a budget (engine + sizing + plan).
+
+fn loaded(records: Vec<BuildingRecord>, settings: Settings) -> seistriage::pipeline::Loaded {
+    let n = records.len();
+    seistriage::pipeline::Loaded {
+        input: Default::default(),
+        inventory: seistriage::model::Inventory {
+            buildings: records,
+            rows: n,
+            ..Default::default()
+        },
+        settings,
+        sites: Default::default(),
+    }
+}
+
+fn stock() -> Vec<BuildingRecord> {
+    // Invented stock: bare frames and walled blocks of various sizes at agR 0.3 g.
+    let mut out = Vec::new();
+    for k in 0..8u32 {
+        let mut r = record(
+            2 + k % 5,
+            200.0 + 60.0 * f64::from(k),
+            2.0 + 0.3 * f64::from(k),
+            if k % 3 == 0 { 3.0 } else { 0.0 },
+            if k % 2 == 0 { 2.0 } else { 0.0 },
+            0.3,
+        );
+        r.row = 2 + k as usize;
+        r.id = format!("INV-{k:02}");
+        r.occupants = Some(u64::from(10 + 7 * k));
+        out.push(r);
+    }
+    out
+}
+
+#[test]
+fn pipeline_budget_plan_with_both_plans() {
+    let s = Settings {
+        unit_cost_wall_m3: Some(1200.0),
+        unit_cost_floor_m2: Some(80.0),
+        replacement_cost_m2: Some(1000.0),
+        budget: Some(600_000.0),
+        ..Settings::default()
+    };
+    let report = seistriage::pipeline::screen(&loaded(stock(), s.clone()));
+    assert!(!report.buildings.is_empty());
+    let plan = report.budget_plan.clone().expect("a budget plan");
+    // walk: funded ids in rank order, cost within the budget and equal to the sum of the
+    // funding costs; occupants of class 1–2 funded buildings
+    let mut sum = 0.0;
+    let mut occ = 0;
+    let mut last_rank = 0;
+    for id in &plan.priority_walk.funded {
+        let b = report.buildings.iter().find(|b| &b.id == id).unwrap();
+        assert!(b.rank > last_rank);
+        last_rank = b.rank;
+        let rf = b.retrofit.as_ref().unwrap();
+        assert_eq!(rf.funded, Some(true));
+        sum += cost::funding_cost(rf).unwrap();
+        if b.class <= 2 {
+            occ += b.occupants.unwrap_or(0);
+        }
+    }
+    assert!((sum - plan.priority_walk.cost).abs() < 1e-6);
+    assert!(plan.priority_walk.cost <= 600_000.0 + 1e-6);
+    assert_eq!(plan.priority_walk.occupants_protected, occ);
+    assert!(plan.max_occupants.occupants_protected >= plan.priority_walk.occupants_protected);
+    assert!(plan.max_occupants.cost <= 600_000.0 + 1e-6);
+    for b in &report.buildings {
+        match &b.retrofit {
+            Some(rf) => {
+                assert!(rf.funded.is_some() && rf.funded_best.is_some());
+                assert_eq!(
+                    rf.funded_best == Some(true),
+                    plan.max_occupants.funded.contains(&b.id)
+                );
+            }
+            None => assert!(!sizing::needs_retrofit(b, &s)),
+        }
+    }
+    let json = serde_json::to_value(&report).unwrap();
+    assert!(json["budget_plan"]["max_occupants"]["method"].is_string());
+}
+
+#[test]
+fn pipeline_without_unit_costs_sizes_but_makes_no_plan() {
+    let s = Settings {
+        budget: Some(600_000.0),
+        ..Settings::default()
+    };
+    let report = seistriage::pipeline::screen(&loaded(stock(), s));
+    assert!(report.budget_plan.is_none());
+    assert!(
+        report
+            .problems
+            .iter()
+            .any(|p| p.column == "budget" && p.message.contains("unit_cost_wall_m3"))
+    );
+    let sized: Vec<_> = report
+        .buildings
+        .iter()
+        .filter_map(|b| b.retrofit.as_ref())
+        .collect();
+    assert!(
+        !sized.is_empty(),
+        "the invented stock has buildings to retrofit"
+    );
+    for rf in sized {
+        assert!(rf.cost.is_none() && rf.replacement_cost.is_none() && rf.replace.is_none());
+        assert!(rf.funded.is_none());
+        assert!(
+            rf.added_wall_area_m2.x.is_some()
+                || rf.added_wall_area_m2.y.is_some()
+                || rf.note.contains("no wall solution")
+        );
+    }
+    let json = serde_json::to_value(&report).unwrap();
+    assert!(json["budget_plan"].is_null());
+}
