@@ -57,28 +57,45 @@ pub struct Layout {
 impl Layout {
     /// Decides the layout for a report.
     pub fn of(report: &Report) -> Self {
-        let counts = RowCounts::of(report);
+        Self::plan(RowCounts::of(report), report.buildings.len())
+    }
+
+    /// Decides the layout from the row counts of the tables and the number of buildings:
+    /// the large-stock rule of `interface.md` when the Directions sheet would pass the row
+    /// limit (the Retrofit plan goes with the per-row tables), and any other table too long
+    /// for a sheet to CSV as well.
+    pub fn plan(counts: RowCounts, buildings: usize) -> Self {
         let fits = |t: Table| t.rows(&counts) < SHEET_ROWS;
-        let mut csv = Vec::new();
+        let mut layout = Layout {
+            counts,
+            csv: Vec::new(),
+            constant_memory: buildings > CONSTANT_MEMORY_FROM,
+        };
         if !fits(Table::Directions) {
-            csv.extend([
-                Table::Priority,
-                Table::Retrofit,
-                Table::Directions,
-                Table::Walls,
-                Table::Flags,
-            ]);
+            layout = layout.large_stock();
         }
         for t in Table::ALL {
-            if !fits(t) && !csv.contains(&t) {
-                csv.push(t);
+            if !fits(t) && !layout.csv.contains(&t) {
+                layout.csv.push(t);
             }
         }
-        Layout {
-            counts,
-            csv,
-            constant_memory: report.buildings.len() > CONSTANT_MEMORY_FROM,
+        layout
+    }
+
+    /// The same layout with the large-stock rule applied (per-row tables to CSV).
+    pub fn large_stock(mut self) -> Self {
+        for t in [
+            Table::Priority,
+            Table::Retrofit,
+            Table::Directions,
+            Table::Walls,
+            Table::Flags,
+        ] {
+            if !self.csv.contains(&t) {
+                self.csv.push(t);
+            }
         }
+        self
     }
 
     /// True when the per-row tables were moved to CSV files (the large-stock rule).
@@ -206,7 +223,17 @@ pub fn write_with_progress(
     path: &Path,
     progress: Progress<'_>,
 ) -> Result<Vec<(String, PathBuf)>, ReportError> {
-    let layout = Layout::of(report);
+    write_with_layout(report, path, &Layout::of(report), progress)
+}
+
+/// [`write`] with a given layout (tests and benchmarks force the large-stock layout or
+/// constant-memory mode with this).
+pub fn write_with_layout(
+    report: &Report,
+    path: &Path,
+    layout: &Layout,
+    progress: Progress<'_>,
+) -> Result<Vec<(String, PathBuf)>, ReportError> {
     let mut extra = Vec::new();
     for t in &layout.csv {
         let p = csv_path(path, *t);
@@ -214,7 +241,7 @@ pub fn write_with_progress(
         extra.push((format!("{} (CSV)", t.sheet_name()), p));
     }
     let tmp = temp_path(path);
-    let result = build_and_save(report, path, &tmp, &layout, &extra, progress);
+    let result = build_and_save(report, path, &tmp, layout, &extra, progress);
     match result {
         Ok(()) => {
             std::fs::rename(&tmp, path).inspect_err(|_| {
@@ -321,6 +348,45 @@ mod tests {
         let c = cut(&astral);
         assert!(c.encode_utf16().count() <= CELL_TEXT_LIMIT);
         assert_eq!(c.chars().count(), CELL_TEXT_LIMIT / 2);
+    }
+
+    fn counts(buildings: usize, walls: usize) -> RowCounts {
+        RowCounts {
+            priority: buildings,
+            retrofit: buildings / 2,
+            directions: 2 * buildings,
+            walls,
+            flags: buildings,
+            not_screened: 3,
+            problems: 5,
+        }
+    }
+
+    #[test]
+    fn large_stock_rule_follows_the_directions_row_limit() {
+        // 524,287 buildings give 1,048,574 direction rows + header = 1,048,575: fits.
+        let l = Layout::plan(counts(524_287, 0), 524_287);
+        assert!(!l.large());
+        assert!(l.constant_memory);
+        assert_eq!(l.sheet_rows(Table::Directions), Some(1_048_574));
+        // One more building passes the limit: the per-row tables go to CSV.
+        let l = Layout::plan(counts(524_288, 0), 524_288);
+        assert!(l.large());
+        assert_eq!(l.sheet_rows(Table::Priority), Some(LARGE_PRIORITY_ROWS));
+        for t in [Table::Directions, Table::Walls, Table::Flags, Table::Retrofit] {
+            assert_eq!(l.sheet_rows(t), None, "{t:?}");
+        }
+        assert_eq!(l.sheet_rows(Table::NotScreened), Some(3));
+        assert_eq!(l.sheet_rows(Table::Problems), Some(5));
+    }
+
+    #[test]
+    fn a_long_walls_table_alone_goes_to_csv() {
+        let l = Layout::plan(counts(1_000, SHEET_ROWS), 1_000);
+        assert!(!l.large());
+        assert_eq!(l.csv, vec![Table::Walls]);
+        assert_eq!(l.sheet_rows(Table::Priority), Some(1_000));
+        assert!(!l.constant_memory);
     }
 
     #[test]
