@@ -404,3 +404,19 @@ fn a_failed_write_leaves_nothing_under_the_final_name() {
     let left: Vec<_> = std::fs::read_dir(dir.path()).unwrap().flatten().collect();
     assert_eq!(left.len(), 1, "{left:?}");
 }
+
+/// Writes the sample workbook to `$SEISTRIAGE_SAMPLE_WORKBOOK` when set, for looking at it in
+/// a spreadsheet application (see DEVELOPERS.md); otherwise checks it saves in a tempdir.
+#[test]
+fn sample_workbook_for_visual_check() {
+    let report = sample::report(40);
+    match std::env::var_os("SEISTRIAGE_SAMPLE_WORKBOOK") {
+        Some(p) => {
+            workbook::write(&report, Path::new(&p)).unwrap();
+        }
+        None => {
+            let (_d, out) = write(&report);
+            assert!(out.exists());
+        }
+    }
+}

@@ -191,6 +191,12 @@ fn write_table_sheet(
         _ => 0,
     };
     ws.set_freeze_panes(1, freeze_cols)?;
+    // Printing: landscape, header repeated on every page; Priority fits the page width.
+    ws.set_landscape();
+    ws.set_repeat_rows(0, 0)?;
+    if table == Table::Priority {
+        ws.set_print_fit_to_pages(1, 0);
+    }
     let last_col = cols.len().saturating_sub(1) as u16;
     ws.autofilter(0, 0, rows as u32, last_col)?;
     for (i, c) in cols.iter().enumerate() {

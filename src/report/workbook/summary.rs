@@ -235,9 +235,11 @@ fn bar_chart(report: &Report, ranges: &ChartRanges) -> Option<Chart> {
         report.settings.ranking_level.code().to_uppercase(),
         ranges.bars
     ));
-    chart.x_axis().set_reverse().set_name("Rank and id");
+    // In a bar chart the category axis is the vertical one (`y_axis` here); reversed so that
+    // rank 1 is on top.
+    chart.y_axis().set_reverse().set_name("Rank and id");
     chart
-        .y_axis()
+        .x_axis()
         .set_name("Governing DCR (1.0 = capacity reached)")
         .set_min(0);
     chart.legend().set_hidden();
@@ -332,6 +334,7 @@ impl Rows<'_> {
         Ok(())
     }
     fn header(&mut self, names: &[&str], styles: &Styles) -> Result<(), ReportError> {
+        self.ws.set_row_height(self.r, 30)?;
         for (i, n) in names.iter().enumerate() {
             self.ws
                 .write_string_with_format(self.r, i as u16, *n, &styles.header)?;
@@ -341,20 +344,20 @@ impl Rows<'_> {
     }
 }
 
-/// Effective hazard settings shown on the Summary.
-const HAZARD_KEYS: &[&str] = &[
-    "agr_g",
-    "default_ground_type",
-    "spectrum",
-    "sds_g",
-    "sd1_g",
-    "tl_s",
-    "damping_pct",
-    "period_factor",
-    "capacity_model",
-    "confidence_factor",
-    "ranking_level",
-    "near_fault_km",
+/// Effective hazard and method settings shown on the Summary: (key, plain label).
+const HAZARD_KEYS: &[(&str, &str)] = &[
+    ("agr_g", "Reference PGA on rock agR (g)"),
+    ("default_ground_type", "Ground type where none given"),
+    ("spectrum", "Spectrum"),
+    ("sds_g", "SDS (g), two-parameter spectrum"),
+    ("sd1_g", "SD1 (g), two-parameter spectrum"),
+    ("tl_s", "TL (s), two-parameter spectrum"),
+    ("damping_pct", "Damping (%)"),
+    ("period_factor", "Factor on the formula period"),
+    ("capacity_model", "Wall capacity model"),
+    ("confidence_factor", "Confidence factor CF"),
+    ("ranking_level", "Ranking level"),
+    ("near_fault_km", "Near-fault distance (km)"),
 ];
 
 fn money(v: f64) -> String {
@@ -382,15 +385,22 @@ pub fn budget_line(report: &Report) -> String {
         Some(p) => {
             let walk = &p.priority_walk;
             let best = &p.max_occupants;
+            let n = |k: usize| {
+                if k == 1 {
+                    "1 building".to_string()
+                } else {
+                    format!("{k} buildings")
+                }
+            };
             let mut s = format!(
-                "Budget {}: the priority walk funds {} buildings for {}, protecting {} occupants \
-                 of class 1–2 buildings; the max-occupants plan funds {} buildings for {}, \
-                 protecting {} occupants",
+                "Budget {}: the priority walk funds {} for {}, protecting {} occupants of \
+                 class 1–2 buildings; the max-occupants plan funds {} for {}, protecting {} \
+                 occupants",
                 money(p.budget),
-                walk.funded.len(),
+                n(walk.funded.len()),
                 money(walk.cost),
                 walk.occupants_protected,
-                best.funded.len(),
+                n(best.funded.len()),
                 money(best.cost),
                 best.occupants_protected
             );
@@ -429,7 +439,7 @@ pub fn write(
     now: &ExcelDateTime,
     charts: &ChartRanges,
 ) -> Result<(), ReportError> {
-    for (c, w) in [34.0, 16.0, 28.0, 16.0, 26.0, 12.0, 16.0, 12.0].iter().enumerate() {
+    for (c, w) in [46.0, 22.0, 28.0, 16.0, 26.0, 12.0, 16.0, 12.0].iter().enumerate() {
         ws.set_column_width(c as u16, *w)?;
     }
     ws.set_landscape().set_print_fit_to_pages(1, 0);
@@ -448,14 +458,16 @@ pub fn write(
         &format!("{} {}", report.tool, report.version),
         styles,
     )?;
-    for key in HAZARD_KEYS {
+    for (key, label) in HAZARD_KEYS {
         let v = report.settings.value_text(key).unwrap_or_default();
         let v = if v.is_empty() {
             "(not set: per building row or district)".to_string()
+        } else if *key == "ranking_level" {
+            v.to_uppercase()
         } else {
             v
         };
-        w.label(key, &v, styles)?;
+        w.label(&format!("{label} [{key}]"), &v, styles)?;
     }
     w.label(
         "All settings",
