@@ -2,7 +2,7 @@
 //! hand-built reports (every sheet and rule of interface.md, independent of the engine) and
 //! on the built binary run over inventories the tests generate.
 
-mod binary;
-mod exports;
+pub mod binary;
+pub mod exports;
 mod sample;
-mod workbook;
+pub mod workbook;
