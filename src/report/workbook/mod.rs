@@ -317,11 +317,7 @@ fn build_and_save(
         let ws = if layout.constant_memory
             && matches!(
                 t,
-                Table::Priority
-                    | Table::Retrofit
-                    | Table::Directions
-                    | Table::Walls
-                    | Table::Flags
+                Table::Priority | Table::Retrofit | Table::Directions | Table::Walls | Table::Flags
             ) {
             wb.add_worksheet_with_constant_memory()?
         } else {
@@ -379,7 +375,12 @@ mod tests {
         let l = Layout::plan(counts(524_288, 0), 524_288);
         assert!(l.large());
         assert_eq!(l.sheet_rows(Table::Priority), Some(LARGE_PRIORITY_ROWS));
-        for t in [Table::Directions, Table::Walls, Table::Flags, Table::Retrofit] {
+        for t in [
+            Table::Directions,
+            Table::Walls,
+            Table::Flags,
+            Table::Retrofit,
+        ] {
             assert_eq!(l.sheet_rows(t), None, "{t:?}");
         }
         assert_eq!(l.sheet_rows(Table::NotScreened), Some(3));
