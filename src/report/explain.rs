@@ -544,7 +544,7 @@ mod tests {
             "roof drift δ_r = d_t/H = {}",
             b.directions.x.roof_drift_demand
         )));
-        assert!(text.contains("[default]"), "defaults are marked");
+        assert!(text.contains("[default: "), "defaults are marked");
         assert!(text.contains("fc = 20 MPa  [default: fc_mpa]"));
         for step in [
             "§0", "§1", "§2", "§3", "§4", "§5", "§6", "§7", "§8", "§9", "§10", "§11",
