@@ -427,7 +427,15 @@ fn render(
             r.capacity.walls.as_ref().map_or("null".into(), lv),
             r.capacity.columns.as_ref().map_or("null".into(), lv)
         );
-        let _ = writeln!(o, "     DCR {}", lv(&r.dcr));
+        if let (Some(dw), Some(c)) = (r.drift_demand.walls, r.capacity.walls) {
+            let g = engine::dcr::group_dcr(dw, &c);
+            let _ = writeln!(o, "     walls δ_w/θ_w: {}", lv(&g));
+        }
+        if let (Some(dc), Some(c)) = (r.drift_demand.columns, r.capacity.columns) {
+            let g = engine::dcr::group_dcr(dc, &c);
+            let _ = writeln!(o, "     columns δ_c/θ_c: {}", lv(&g));
+        }
+        let _ = writeln!(o, "     DCR = max over groups: {}", lv(&r.dcr));
     }
     let _ = writeln!(o, "§10 Flags");
     if b.flags.is_empty() {
