@@ -60,7 +60,13 @@ fn demo_workbook_has_the_canonical_sheets_and_headers() {
     let names: Vec<_> = book.iter().map(|(n, _)| n.as_str()).collect();
     assert_eq!(names, ["buildings", "walls", "storeys", "footprints"]);
     let (_, buildings) = &book[0];
-    let header: Vec<String> = buildings.rows().next().unwrap().iter().map(|c| c.to_string()).collect();
+    let header: Vec<String> = buildings
+        .rows()
+        .next()
+        .unwrap()
+        .iter()
+        .map(|c| c.to_string())
+        .collect();
     assert_eq!(header, BUILDING_COLUMNS);
     let expected: [&[&str]; 3] = [
         &demo::WALL_COLUMNS,
@@ -68,7 +74,13 @@ fn demo_workbook_has_the_canonical_sheets_and_headers() {
         &demo::FOOTPRINT_COLUMNS,
     ];
     for ((_, sheet), cols) in book[1..].iter().zip(expected) {
-        let header: Vec<String> = sheet.rows().next().unwrap().iter().map(|c| c.to_string()).collect();
+        let header: Vec<String> = sheet
+            .rows()
+            .next()
+            .unwrap()
+            .iter()
+            .map(|c| c.to_string())
+            .collect();
         assert_eq!(header, cols);
     }
 }
@@ -123,13 +135,18 @@ fn demo_buildings_lie_in_the_bundled_districts_and_near_fault_varies() {
     assert!(g.faults().all(|f| f.mw.is_some()));
     let points = demo_points();
     let (sites, problems) = locate(&points, &g, &Settings::default());
-    assert!(problems.is_empty(), "every demo building is inside a district: {problems:?}");
+    assert!(
+        problems.is_empty(),
+        "every demo building is inside a district: {problems:?}"
+    );
     for b in &points {
         let site = &sites[&b.id];
         assert!(!site.district.is_empty());
         // A given district agrees with the polygon the point lies in.
         if let (Some(given), Some(lat), Some(lon)) = (&b.district, b.latitude, b.longitude) {
-            let at = g.district_at(seistriage::geography::LatLon::new(lat, lon)).unwrap();
+            let at = g
+                .district_at(seistriage::geography::LatLon::new(lat, lon))
+                .unwrap();
             assert_eq!(&at.name, given);
         }
     }
@@ -145,7 +162,11 @@ fn demo_buildings_lie_in_the_bundled_districts_and_near_fault_varies() {
     assert!(not_flagged > 0);
     let districts_used: std::collections::BTreeSet<_> =
         sites.values().map(|s| s.district.clone()).collect();
-    assert_eq!(districts_used.len(), g.districts().len(), "{districts_used:?}");
+    assert_eq!(
+        districts_used.len(),
+        g.districts().len(),
+        "{districts_used:?}"
+    );
 }
 
 #[test]
@@ -166,7 +187,10 @@ fn demo_settings_file_is_valid_and_sets_the_demo_keys() {
 fn write_demo_files_copies_the_bundled_files() {
     let dir = tempfile::tempdir().unwrap();
     let files = demo::write_demo_files(&dir.path().join("out")).unwrap();
-    assert_eq!(std::fs::read(&files.inventory).unwrap(), demo::BUNDLED_INVENTORY);
+    assert_eq!(
+        std::fs::read(&files.inventory).unwrap(),
+        demo::BUNDLED_INVENTORY
+    );
     for (p, bytes) in [
         (files.districts.unwrap(), demo::BUNDLED_DISTRICTS),
         (files.faults.unwrap(), demo::BUNDLED_FAULTS),
@@ -199,7 +223,13 @@ fn generated_csv_is_deterministic_canonical_and_complete() {
     // No partial file is left beside the output.
     let leftovers = std::fs::read_dir(dir.path())
         .unwrap()
-        .filter(|e| e.as_ref().unwrap().file_name().to_string_lossy().ends_with(".partial"))
+        .filter(|e| {
+            e.as_ref()
+                .unwrap()
+                .file_name()
+                .to_string_lossy()
+                .ends_with(".partial")
+        })
         .count();
     assert_eq!(leftovers, 0);
 }
@@ -236,12 +266,19 @@ fn listed_walls_lie_inside_their_footprints() {
             .rows
             .iter()
             .filter(|r| text(&r[0]) == id)
-            .map(|r| Coord { x: n(&r[2]), y: n(&r[3]) })
+            .map(|r| Coord {
+                x: n(&r[2]),
+                y: n(&r[3]),
+            })
             .collect();
         let poly = Polygon::new(LineString::new(ring), vec![]);
         for w in walls.rows.iter().filter(|r| text(&r[0]) == id) {
             let (x, y) = (n(&w[5]), n(&w[6]));
-            assert!(poly.contains(&Point::new(x, y)), "{id} wall {} at ({x}, {y})", text(&w[1]));
+            assert!(
+                poly.contains(&Point::new(x, y)),
+                "{id} wall {} at ({x}, {y})",
+                text(&w[1])
+            );
             checked += 1;
         }
     }

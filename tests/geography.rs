@@ -41,7 +41,10 @@ fn holed() -> Geography {
 
 #[test]
 fn point_inside_the_polygon() {
-    assert_eq!(holed().district_at(LatLon::new(3.0, 3.0)).unwrap().name, "Holed");
+    assert_eq!(
+        holed().district_at(LatLon::new(3.0, 3.0)).unwrap().name,
+        "Holed"
+    );
 }
 
 #[test]
@@ -53,14 +56,26 @@ fn point_outside_the_polygon() {
 #[test]
 fn point_on_an_edge_is_covered() {
     // geo's Contains is false on the boundary; the district test must use covers/intersects.
-    assert_eq!(holed().district_at(LatLon::new(0.0, 2.5)).unwrap().name, "Holed");
-    assert_eq!(holed().district_at(LatLon::new(2.5, 4.0)).unwrap().name, "Holed");
+    assert_eq!(
+        holed().district_at(LatLon::new(0.0, 2.5)).unwrap().name,
+        "Holed"
+    );
+    assert_eq!(
+        holed().district_at(LatLon::new(2.5, 4.0)).unwrap().name,
+        "Holed"
+    );
 }
 
 #[test]
 fn point_on_a_vertex_is_covered() {
-    assert_eq!(holed().district_at(LatLon::new(4.0, 4.0)).unwrap().name, "Holed");
-    assert_eq!(holed().district_at(LatLon::new(0.0, 0.0)).unwrap().name, "Holed");
+    assert_eq!(
+        holed().district_at(LatLon::new(4.0, 4.0)).unwrap().name,
+        "Holed"
+    );
+    assert_eq!(
+        holed().district_at(LatLon::new(0.0, 0.0)).unwrap().name,
+        "Holed"
+    );
 }
 
 #[test]
@@ -105,7 +120,12 @@ fn overlap_and_shared_border_go_to_the_first_district_in_file_order() {
     assert_eq!(g.district_at(LatLon::new(1.0, 2.0)).unwrap().name, "Second");
 }
 
-fn building(id: &str, lat: Option<f64>, lon: Option<f64>, district: Option<&str>) -> BuildingRecord {
+fn building(
+    id: &str,
+    lat: Option<f64>,
+    lon: Option<f64>,
+    district: Option<&str>,
+) -> BuildingRecord {
     BuildingRecord {
         row: 2,
         id: id.into(),
@@ -144,14 +164,22 @@ fn locate_assigns_district_and_its_hazard_and_reports_outsiders() {
         .find(|p| p.row == Some(7))
         .expect("outsider reported");
     assert_eq!(p.severity, Severity::Warning);
-    assert!(p.message.contains("outside every district"), "{}", p.message);
+    assert!(
+        p.message.contains("outside every district"),
+        "{}",
+        p.message
+    );
     // A given district wins over the polygons; its hazard comes by (case-insensitive) name.
     assert_eq!(sites["given"].district, "holed");
     assert_eq!(sites["given"].agr_g, Some(0.3));
     // A given district not in the file: kept, no hazard, reported.
     assert_eq!(sites["elsewhere"].district, "Nowhere");
     assert_eq!(sites["elsewhere"].agr_g, None);
-    assert!(problems.iter().any(|p| p.message.contains("\"Nowhere\" is not in")));
+    assert!(
+        problems
+            .iter()
+            .any(|p| p.message.contains("\"Nowhere\" is not in"))
+    );
 }
 
 #[test]
@@ -191,7 +219,11 @@ fn near_fault_at(km: f64, mw: &str, settings: &Settings) -> Option<f64> {
     let site = &sites["x"];
     let fault = site.fault.as_ref().expect("distance reported");
     assert_eq!(fault.name, "T");
-    assert!((fault.distance_m - km * 1000.0).abs() < 0.5, "{}", fault.distance_m);
+    assert!(
+        (fault.distance_m - km * 1000.0).abs() < 0.5,
+        "{}",
+        fault.distance_m
+    );
     site.near_fault.as_ref().map(|n| n.limit_km)
 }
 
@@ -211,9 +243,11 @@ fn near_fault_thresholds_of_method_section_10() {
 
 #[test]
 fn near_fault_thresholds_come_from_settings() {
-    let mut s = Settings::default();
-    s.near_fault_km = 3.0;
-    s.near_fault_km_large = 20.0;
+    let s = Settings {
+        near_fault_km: 3.0,
+        near_fault_km_large: 20.0,
+        ..Settings::default()
+    };
     assert_eq!(near_fault_at(4.0, "", &s), None);
     assert_eq!(near_fault_at(19.0, "7.5", &s), Some(20.0));
 }
@@ -250,7 +284,11 @@ fn building_without_coordinates_is_reported_when_faults_are_given() {
         &Settings::default(),
     );
     assert!(sites["x"].fault.is_none());
-    assert!(problems.iter().any(|p| p.message.contains("no fault distance")));
+    assert!(
+        problems
+            .iter()
+            .any(|p| p.message.contains("no fault distance"))
+    );
 }
 
 /// Loads `bad` between two good districts and returns the single problem it causes.
@@ -310,7 +348,11 @@ fn wrong_geometry_type_is_reported_by_feature() {
         r#""name":"Line""#,
         r#"{"type":"LineString","coordinates":[[3,0],[4,1]]}"#,
     ));
-    assert!(p.message.contains("wrong geometry type LineString"), "{}", p.message);
+    assert!(
+        p.message.contains("wrong geometry type LineString"),
+        "{}",
+        p.message
+    );
 }
 
 #[test]
@@ -320,7 +362,11 @@ fn latitude_outside_90_is_reported_by_feature() {
         r#""name":"Swapped""#,
         r#"{"type":"Polygon","coordinates":[[[0,120],[1,120],[1,121],[0,121],[0,120]]]}"#,
     ));
-    assert!(p.message.contains("latitude 120 outside ±90"), "{}", p.message);
+    assert!(
+        p.message.contains("latitude 120 outside ±90"),
+        "{}",
+        p.message
+    );
 }
 
 #[test]
@@ -340,10 +386,22 @@ fn non_numeric_hazard_property_is_a_warning_and_the_district_is_kept() {
 #[test]
 fn bad_fault_features_are_reported_and_the_others_still_measure() {
     let text = collection(&[
-        feature(r#""name":"Words","mw":"large""#, r#"{"type":"LineString","coordinates":[[-1,0],[1,0]]}"#),
-        feature(r#""name":"Area""#, r#"{"type":"Polygon","coordinates":[[[0,0],[1,0],[1,1],[0,0]]]}"#),
-        feature(r#""name":"OnePoint""#, r#"{"type":"LineString","coordinates":[[0,0]]}"#),
-        feature(r#""name":"Pole""#, r#"{"type":"LineString","coordinates":[[0,95],[1,0]]}"#),
+        feature(
+            r#""name":"Words","mw":"large""#,
+            r#"{"type":"LineString","coordinates":[[-1,0],[1,0]]}"#,
+        ),
+        feature(
+            r#""name":"Area""#,
+            r#"{"type":"Polygon","coordinates":[[[0,0],[1,0],[1,1],[0,0]]]}"#,
+        ),
+        feature(
+            r#""name":"OnePoint""#,
+            r#"{"type":"LineString","coordinates":[[0,0]]}"#,
+        ),
+        feature(
+            r#""name":"Pole""#,
+            r#"{"type":"LineString","coordinates":[[0,95],[1,0]]}"#,
+        ),
     ]);
     let (g, problems) = Geography::from_geojson_str(None, Some(&text)).unwrap();
     let find = |row: usize| problems.iter().find(|p| p.row == Some(row)).unwrap();
@@ -356,7 +414,11 @@ fn bad_fault_features_are_reported_and_the_others_still_measure() {
     assert_eq!(g.faults().count(), 1);
     // Without a magnitude the trace flags within near_fault_km (10 km) — 5 km here.
     let lat = 5000.0 / m_per_deg();
-    let (sites, _) = locate(&[building("x", Some(lat), Some(0.0), None)], &g, &Settings::default());
+    let (sites, _) = locate(
+        &[building("x", Some(lat), Some(0.0), None)],
+        &g,
+        &Settings::default(),
+    );
     assert_eq!(sites["x"].near_fault.as_ref().unwrap().name, "Words");
 }
 
@@ -403,7 +465,9 @@ fn many_buildings_many_districts_give_the_same_answer_as_a_linear_scan() {
     assert!(problems.is_empty());
     let mut state = 12345_u64;
     let mut next = || {
-        state = state.wrapping_mul(6364136223846793005).wrapping_add(1442695040888963407);
+        state = state
+            .wrapping_mul(6364136223846793005)
+            .wrapping_add(1442695040888963407);
         (state >> 11) as f64 / (1u64 << 53) as f64
     };
     use geo::Intersects;

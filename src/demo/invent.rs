@@ -162,9 +162,8 @@ pub const FAULTS: [DemoFault; 2] = [
 ];
 
 fn polygon_of(d: &DemoDistrict) -> Polygon<f64> {
-    let ring = |pts: &[(f64, f64)]| {
-        LineString::new(pts.iter().map(|&(x, y)| Coord { x, y }).collect())
-    };
+    let ring =
+        |pts: &[(f64, f64)]| LineString::new(pts.iter().map(|&(x, y)| Coord { x, y }).collect());
     Polygon::new(ring(d.ring), d.holes.iter().map(|h| ring(h)).collect())
 }
 
@@ -242,7 +241,12 @@ pub fn invent_building(
                 1990..2000 => dice.int(5, 8),
                 _ => dice.int(5, 10),
             };
-            (n, dice.range(220.0, 560.0), dice.range(1.4, 2.6), Use::Residential)
+            (
+                n,
+                dice.range(220.0, 560.0),
+                dice.range(1.4, 2.6),
+                Use::Residential,
+            )
         }
         Kind::School => (
             dice.int(2, 4),
@@ -250,14 +254,24 @@ pub fn invent_building(
             dice.range(2.8, 4.5),
             Use::School,
         ),
-        Kind::Health => (3, dice.range(900.0, 1300.0), dice.range(2.0, 3.0), Use::Hospital),
+        Kind::Health => (
+            3,
+            dice.range(900.0, 1300.0),
+            dice.range(2.0, 3.0),
+            Use::Hospital,
+        ),
         Kind::Office => (
             dice.int(4, 8),
             dice.range(400.0, 800.0),
             dice.range(1.2, 2.0),
             Use::Office,
         ),
-        Kind::Hall => (2, dice.range(350.0, 600.0), dice.range(1.3, 1.8), Use::Other),
+        Kind::Hall => (
+            2,
+            dice.range(350.0, 600.0),
+            dice.range(1.3, 1.8),
+            Use::Other,
+        ),
     };
     let plan_area = round(plan_area, 0);
     let lx = round((plan_area * aspect).sqrt(), 1);
@@ -408,7 +422,13 @@ pub fn invent_walls(
     match layout {
         Layout::Balanced | Layout::Discontinued => {
             push(X, lwx, lx / 4.0, -hy, 1);
-            push(X, lwx, -lx / 4.0, hy, if layout == Layout::Discontinued { 2 } else { 1 });
+            push(
+                X,
+                lwx,
+                -lx / 4.0,
+                hy,
+                if layout == Layout::Discontinued { 2 } else { 1 },
+            );
             push(Y, lwy, -hx, 0.0, 1);
             push(Y, lwy, hx, east_y, 1);
         }

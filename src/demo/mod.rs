@@ -235,7 +235,8 @@ pub fn building_pairs(b: &BuildingRecord) -> [(&'static str, Cell); 39] {
         ("occupants", num(b.occupants.map(|o| o as f64))),
         (
             "ground_type",
-            b.ground_type.map_or(Cell::Blank, |g| Cell::Text(g.to_string())),
+            b.ground_type
+                .map_or(Cell::Blank, |g| Cell::Text(g.to_string())),
         ),
         ("agr_g", num(b.agr_g)),
         ("sds_g", num(b.sds_g)),
@@ -571,7 +572,10 @@ pub fn demo_districts_geojson() -> String {
         "name": "Karsavel districts (invented)",
         "features": features,
     });
-    format!("{}\n", serde_json::to_string_pretty(&doc).unwrap_or_default())
+    format!(
+        "{}\n",
+        serde_json::to_string_pretty(&doc).unwrap_or_default()
+    )
 }
 
 /// The demo fault traces as GeoJSON text.
@@ -591,15 +595,14 @@ pub fn demo_faults_geojson() -> String {
         "name": "Karsavel fault traces (invented)",
         "features": features,
     });
-    format!("{}\n", serde_json::to_string_pretty(&doc).unwrap_or_default())
+    format!(
+        "{}\n",
+        serde_json::to_string_pretty(&doc).unwrap_or_default()
+    )
 }
 
 /// The `n`-th invented building of a generated inventory (pure in `dice`).
-fn generated_building(
-    dice: &mut Dice,
-    polygons: &[geo::Polygon<f64>],
-    i: usize,
-) -> BuildingRecord {
+fn generated_building(dice: &mut Dice, polygons: &[geo::Polygon<f64>], i: usize) -> BuildingRecord {
     let (d, lat, lon) = invent::invented_site(dice, polygons);
     let district = DISTRICTS.get(d).map_or("Karsavel", |x| x.name);
     let kind = match dice.int(0, 99) {
@@ -721,9 +724,15 @@ mod tests {
         assert!((50..=80).contains(&data.len()), "{}", data.len());
         assert_eq!(buildings.rows.len() - data.len(), 1, "one blank row");
         let col = |name: &str| BUILDING_COLUMNS.iter().position(|c| *c == name).unwrap();
-        assert!(data.iter().any(|r| matches!(&r[col("plan_area_m2")], Cell::Text(_))));
+        assert!(
+            data.iter()
+                .any(|r| matches!(&r[col("plan_area_m2")], Cell::Text(_)))
+        );
         assert!(data.iter().any(|r| r[col("storeys")] == Cell::Number(2.5)));
-        assert!(data.iter().any(|r| r[col("column_area_m2")] == Cell::Number(-2.4)));
+        assert!(
+            data.iter()
+                .any(|r| r[col("column_area_m2")] == Cell::Number(-2.4))
+        );
         let mut ids: Vec<_> = data.iter().map(|r| r[0].clone()).collect();
         let all = ids.len();
         ids.sort_by_key(|c| format!("{c:?}"));

@@ -258,7 +258,11 @@ pub(crate) fn districts(values: &[JsonValue], problems: &mut Vec<Problem>) -> Ve
         let feature = match parse_feature(value) {
             Ok(f) => f,
             Err(m) => {
-                problems.push(at.problem("geometry", format!("{m}; feature skipped"), Severity::Error));
+                problems.push(at.problem(
+                    "geometry",
+                    format!("{m}; feature skipped"),
+                    Severity::Error,
+                ));
                 continue;
             }
         };
@@ -281,7 +285,11 @@ pub(crate) fn districts(values: &[JsonValue], problems: &mut Vec<Problem>) -> Ve
         let shape = match shape {
             Ok(s) => s,
             Err(m) => {
-                problems.push(at.problem("geometry", format!("{m}; feature skipped"), Severity::Error));
+                problems.push(at.problem(
+                    "geometry",
+                    format!("{m}; feature skipped"),
+                    Severity::Error,
+                ));
                 continue;
             }
         };
@@ -299,8 +307,7 @@ pub(crate) fn districts(values: &[JsonValue], problems: &mut Vec<Problem>) -> Ve
             }
         };
         let mut hazard = DistrictHazard::default();
-        let positive = |key: &str, problems: &mut Vec<Problem>| match number_property(props, key)
-        {
+        let positive = |key: &str, problems: &mut Vec<Problem>| match number_property(props, key) {
             Ok(Some(v)) if v > 0.0 => Some(v),
             Ok(Some(v)) => {
                 problems.push(at.problem(
@@ -362,7 +369,11 @@ pub(crate) fn faults(values: &[JsonValue], problems: &mut Vec<Problem>) -> Vec<F
         let feature = match parse_feature(value) {
             Ok(f) => f,
             Err(m) => {
-                problems.push(at.problem("geometry", format!("{m}; trace skipped"), Severity::Error));
+                problems.push(at.problem(
+                    "geometry",
+                    format!("{m}; trace skipped"),
+                    Severity::Error,
+                ));
                 continue;
             }
         };
@@ -392,7 +403,11 @@ pub(crate) fn faults(values: &[JsonValue], problems: &mut Vec<Problem>) -> Vec<F
                 continue;
             }
             Err(m) => {
-                problems.push(at.problem("geometry", format!("{m}; trace skipped"), Severity::Error));
+                problems.push(at.problem(
+                    "geometry",
+                    format!("{m}; trace skipped"),
+                    Severity::Error,
+                ));
                 continue;
             }
         };

@@ -414,10 +414,22 @@ mod tests {
     #[test]
     fn near_fault_limits_follow_method_section_10() {
         let s = Settings::default();
-        assert_eq!(near_fault_limit_km(Some(7.4), &s), Some(s.near_fault_km_large));
-        assert_eq!(near_fault_limit_km(Some(7.0), &s), Some(s.near_fault_km_large));
-        assert_eq!(near_fault_limit_km(Some(6.0), &s), Some(s.near_fault_km_small));
-        assert_eq!(near_fault_limit_km(Some(6.9), &s), Some(s.near_fault_km_small));
+        assert_eq!(
+            near_fault_limit_km(Some(7.4), &s),
+            Some(s.near_fault_km_large)
+        );
+        assert_eq!(
+            near_fault_limit_km(Some(7.0), &s),
+            Some(s.near_fault_km_large)
+        );
+        assert_eq!(
+            near_fault_limit_km(Some(6.0), &s),
+            Some(s.near_fault_km_small)
+        );
+        assert_eq!(
+            near_fault_limit_km(Some(6.9), &s),
+            Some(s.near_fault_km_small)
+        );
         assert_eq!(near_fault_limit_km(Some(5.9), &s), None);
         assert_eq!(near_fault_limit_km(None, &s), Some(s.near_fault_km));
     }

@@ -101,11 +101,7 @@ pub fn closest_point_on_segment(p: LatLon, a: LatLon, b: LatLon) -> LatLon {
     let n = cross(va, vb);
     let nn = norm(n);
     let nearer_end = || {
-        if angle(vp, va) <= angle(vp, vb) {
-            a
-        } else {
-            b
-        }
+        if angle(vp, va) <= angle(vp, vb) { a } else { b }
     };
     if nn < 1e-15 {
         return nearer_end();
@@ -116,11 +112,7 @@ pub fn closest_point_on_segment(p: LatLon, a: LatLon, b: LatLon) -> LatLon {
         return nearer_end();
     }
     let within = dot(cross(va, foot), n) >= 0.0 && dot(cross(foot, vb), n) >= 0.0;
-    if within {
-        position(foot)
-    } else {
-        nearer_end()
-    }
+    if within { position(foot) } else { nearer_end() }
 }
 
 /// Distance (m) from `p` to the closest point of the great-circle segment `a`–`b`: the
@@ -211,7 +203,11 @@ mod tests {
     #[test]
     fn haversine_is_symmetric_and_zero_on_itself() {
         let (p, q) = (LatLon::new(38.1, 23.7), LatLon::new(37.9, 24.2));
-        assert_relative_eq!(haversine_m(p, q, R), haversine_m(q, p, R), max_relative = 1e-14);
+        assert_relative_eq!(
+            haversine_m(p, q, R),
+            haversine_m(q, p, R),
+            max_relative = 1e-14
+        );
         assert_eq!(haversine_m(p, p, R), 0.0);
     }
 
@@ -283,7 +279,10 @@ mod tests {
         let d = point_polyline_distance_m(LatLon::new(0.5, 1.2), &line, R);
         let expected = R * (0.5_f64.to_radians().cos() * 0.2_f64.to_radians().sin()).asin();
         assert_relative_eq!(d, expected, max_relative = 1e-9);
-        assert_eq!(point_polyline_distance_m(LatLon::new(0.0, 0.0), &[], R), f64::INFINITY);
+        assert_eq!(
+            point_polyline_distance_m(LatLon::new(0.0, 0.0), &[], R),
+            f64::INFINITY
+        );
     }
 
     #[test]
@@ -291,7 +290,13 @@ mod tests {
         // A high-latitude east-west trace, where the arc bulges north of its vertices.
         let line = [LatLon::new(70.0, -20.0), LatLon::new(70.0, 20.0)];
         let cap = BoundingCap::around(line.iter()).unwrap();
-        for (lat, lon) in [(72.0, 0.0), (75.0, 0.0), (60.0, 0.0), (70.0, 40.0), (10.0, 5.0)] {
+        for (lat, lon) in [
+            (72.0, 0.0),
+            (75.0, 0.0),
+            (60.0, 0.0),
+            (70.0, 40.0),
+            (10.0, 5.0),
+        ] {
             let p = LatLon::new(lat, lon);
             let exact = point_polyline_distance_m(p, &line, R);
             assert!(cap.lower_bound_m(p, R) <= exact + 1e-6, "{lat} {lon}");

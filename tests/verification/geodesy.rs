@@ -6,7 +6,7 @@
 //!   68(2):159, on the sphere of mean radius R = 6 371 008.8 m (inventory.md);
 //! - the cross-track and along-track distance formulas of the Aviation Formulary
 //!   (E. Williams, "Aviation Formulary V1.47"):
-//!     XTD = asin(sin d13 · sin(θ13 − θ12)),  ATD = acos(cos d13 / cos XTD),
+//!   XTD = asin(sin d13 · sin(θ13 − θ12)),  ATD = acos(cos d13 / cos XTD),
 //!   with the initial course θ = atan2(sin Δλ cos φ2, cos φ1 sin φ2 − sin φ1 cos φ2 cos Δλ);
 //!   the closest point is abreast of the segment when 0 ≤ ATD ≤ segment length, otherwise
 //!   it is the nearer end (then the Haversine distance to that end).
@@ -108,15 +108,23 @@ fn spherical_distances_agree_with_the_wgs84_geodesic_within_half_a_percent() {
     // Karney (2013) geodesic on the WGS84 ellipsoid (geo::Geodesic) from each test point to
     // the closest point found on the sphere: the sphere's error at these mid-latitude,
     // tens-of-km distances is a few tenths of a percent, inside the 0.5 % tolerance.
-    for (lat, lon) in [(37.90, 22.80), (38.55, 24.10), (38.10, 23.45), (38.40, 23.70)] {
+    for (lat, lon) in [
+        (37.90, 22.80),
+        (38.55, 24.10),
+        (38.10, 23.45),
+        (38.40, 23.70),
+    ] {
         let p = LatLon::new(lat, lon);
         let t = trace();
         let foot = [(t[0], t[1]), (t[1], t[2])]
             .into_iter()
             .map(|(a, b)| closest_point_on_segment(p, a, b))
             .min_by(|x, y| {
-                haversine_m(p, *x, MEAN_EARTH_RADIUS_M)
-                    .total_cmp(&haversine_m(p, *y, MEAN_EARTH_RADIUS_M))
+                haversine_m(p, *x, MEAN_EARTH_RADIUS_M).total_cmp(&haversine_m(
+                    p,
+                    *y,
+                    MEAN_EARTH_RADIUS_M,
+                ))
             })
             .unwrap();
         let ellipsoid = Geodesic.distance(Point::new(lon, lat), Point::new(foot.lon, foot.lat));
