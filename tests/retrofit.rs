@@ -533,3 +533,29 @@ fn pipeline_without_unit_costs_sizes_but_makes_no_plan() {
     let json = serde_json::to_value(&report).unwrap();
     assert!(json["budget_plan"].is_null());
 }
+
+/// Results (rank order) are matched to inputs (file order) by id: each building is sized
+/// with its own input whatever the order.
+#[test]
+fn size_all_matches_results_to_inputs_by_id() {
+    let mut weak = record(5, 500.0, 1.5, 0.0, 0.0, 0.4);
+    weak.id = "WEAK".into();
+    weak.row = 2;
+    let mut strong = record(3, 500.0, 10.0, 5.0, 5.0, 0.1);
+    strong.id = "STRONG".into();
+    strong.row = 3;
+    let inputs = vec![input(&strong), input(&weak)];
+    let s = Settings::default();
+    let w = engine::screen_building(&inputs[1], &s).unwrap();
+    let st = engine::screen_building(&inputs[0], &s).unwrap();
+    assert!(w.class <= 2 && st.class >= 3, "{} {}", w.class, st.class);
+    let mut rs = vec![w.clone(), st];
+    retrofit::size_all(&mut rs, &inputs, &s);
+    assert!(rs[1].retrofit.is_none());
+    let rf = rs[0].retrofit.clone().unwrap();
+    // the same sizing as for the weak building alone
+    let mut alone = vec![w];
+    retrofit::size_all(&mut alone, &inputs[1..], &s);
+    assert_eq!(alone[0].retrofit.as_ref(), Some(&rf));
+    assert!(rf.added_wall_area_m2.x.is_some_and(|a| a > 0.0));
+}
