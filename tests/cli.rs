@@ -90,7 +90,12 @@ fn a_closed_stdout_exits_0() {
     drop(child.stdout.take());
     let status = child.wait().unwrap();
     let mut err = String::new();
-    child.stderr.take().unwrap().read_to_string(&mut err).unwrap();
+    child
+        .stderr
+        .take()
+        .unwrap()
+        .read_to_string(&mut err)
+        .unwrap();
     assert_eq!(status.code(), Some(0), "{err}");
     assert!(dir.path().join("r.xlsx").exists());
 }

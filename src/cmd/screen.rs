@@ -76,7 +76,10 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
             );
         }
         if outputs.iter().skip(i + 1).any(|q| same_file(p, q)) {
-            bail!("two outputs would be written to the same file {}", p.display());
+            bail!(
+                "two outputs would be written to the same file {}",
+                p.display()
+            );
         }
     }
     if let Some(n) = o.threads {

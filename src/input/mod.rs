@@ -8,16 +8,10 @@ use std::path::Path;
 use crate::model::Inventory;
 
 /// Options of the reading layer.
-#[derive(Debug, Clone)]
+#[derive(Debug, Clone, Default)]
 pub struct ReadOptions {
     /// 1-based header row of every sheet; `None` = find it by the required names.
     pub header_row: Option<usize>,
-}
-
-impl Default for ReadOptions {
-    fn default() -> Self {
-        Self { header_row: None }
-    }
 }
 
 /// Failures that stop the whole file from being read.

@@ -49,11 +49,7 @@ pub fn summary(report: &Report, written: &[(String, PathBuf)]) -> String {
     let by = [c.by_class.c1, c.by_class.c2, c.by_class.c3, c.by_class.c4];
     for (k, n) in by.iter().enumerate() {
         let class = (k + 1) as u8;
-        let _ = writeln!(
-            s,
-            "  class {class} {:<26} {n:>9}",
-            class_name(class)
-        );
+        let _ = writeln!(s, "  class {class} {:<26} {n:>9}", class_name(class));
     }
     if !report.buildings.is_empty() {
         let _ = writeln!(s);

@@ -40,7 +40,11 @@ pub fn fixture_rows() -> Vec<Vec<Option<String>>> {
             1 => "@SUM(1)".to_string(),
             _ => format!("Invented block {i}"),
         };
-        let walls = if i % 3 == 0 { 0.0 } else { 1.0 + i as f64 * 0.6 };
+        let walls = if i.is_multiple_of(3) {
+            0.0
+        } else {
+            1.0 + i as f64 * 0.6
+        };
         rows.push(vec![
             s(&format!("T{:03}", i + 1)),
             Some(name),
@@ -57,7 +61,7 @@ pub fn fixture_rows() -> Vec<Vec<Option<String>>> {
             s(&format!("{}", walls * 0.8)),
             s("6.0"),
             s("4.0"),
-            (i % 5 != 0).then(|| (30 + 7 * i).to_string()),
+            (!i.is_multiple_of(5)).then(|| (30 + 7 * i).to_string()),
             s("0.25"),
         ]);
     }
@@ -165,7 +169,11 @@ fn workbook_from_the_binary_agrees_with_the_json() {
         run.json["counts"]["screened"].as_u64().unwrap()
     );
     let p = sheet(&run.out, "Priority");
-    assert_eq!(p.height() - 1, buildings.len(), "Priority rows = screened buildings");
+    assert_eq!(
+        p.height() - 1,
+        buildings.len(),
+        "Priority rows = screened buildings"
+    );
     for (i, b) in buildings.iter().enumerate() {
         let r = i + 1;
         assert_eq!(text(&p, r, col(&p, "Id")).as_deref(), b["id"].as_str());
@@ -184,7 +192,10 @@ fn workbook_from_the_binary_agrees_with_the_json() {
         let pi = f(&b["directions"]["x"]["priority_index_pct"])
             .unwrap()
             .min(f(&b["directions"]["y"]["priority_index_pct"]).unwrap());
-        assert_eq!(num(&p, r, col(&p, "Priority index, weaker direction (%)")), Some(pi));
+        assert_eq!(
+            num(&p, r, col(&p, "Priority index, weaker direction (%)")),
+            Some(pi)
+        );
         assert_eq!(num(&p, r, col(&p, "Occupants")), f(&b["occupants"]));
         assert_eq!(num(&p, r, col(&p, "Latitude (deg)")), f(&b["latitude"]));
         assert_eq!(num(&p, r, col(&p, "Longitude (deg)")), f(&b["longitude"]));
@@ -215,7 +226,10 @@ fn workbook_from_the_binary_agrees_with_the_json() {
                 ("DCR LS (-)", &j["dcr"]["ls"]),
                 ("DCR CP (-)", &j["dcr"]["cp"]),
                 ("Axial load ratio ν (-)", &b["axial_load_ratio"]),
-                ("Strength coefficient C_y (-)", &b["strength_coefficient"][dir]),
+                (
+                    "Strength coefficient C_y (-)",
+                    &b["strength_coefficient"][dir],
+                ),
             ] {
                 assert_eq!(num(&d, r, col(&d, h)), f(v), "{} {dir} {h}", b["id"]);
             }
@@ -232,7 +246,9 @@ fn workbook_from_the_binary_agrees_with_the_json() {
     let files = package(&run.out);
     for n in 1..=2 {
         assert!(
-            files.iter().any(|(f, _)| *f == format!("xl/charts/chart{n}.xml")),
+            files
+                .iter()
+                .any(|(f, _)| *f == format!("xl/charts/chart{n}.xml")),
             "chart{n}"
         );
     }
@@ -289,7 +305,11 @@ fn csv_inventory_gives_the_same_results_as_the_workbook_inventory() {
 #[test]
 fn terminal_summary_names_the_outputs_and_the_caution() {
     let run = screen("inv.xlsx", false);
-    assert!(run.stdout.contains("Ten highest priorities"), "{}", run.stdout);
+    assert!(
+        run.stdout.contains("Ten highest priorities"),
+        "{}",
+        run.stdout
+    );
     assert!(run.stdout.contains("workbook: r.xlsx"));
     assert!(run.stdout.contains("JSON: r.json"));
     assert!(run.stdout.contains(seistriage::CAUTION));

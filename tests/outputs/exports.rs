@@ -100,14 +100,20 @@ fn geojson_is_an_rfc7946_feature_collection_of_points_lon_lat() {
         .iter()
         .filter(|b| b.latitude.is_some() && b.longitude.is_some())
         .collect();
-    assert!(with_coords.len() < report.buildings.len(), "sample lacks a building without coordinates");
+    assert!(
+        with_coords.len() < report.buildings.len(),
+        "sample lacks a building without coordinates"
+    );
     assert_eq!(fc.features.len(), with_coords.len());
     for (f, b) in fc.features.iter().zip(with_coords) {
         let geom = f.geometry.as_ref().unwrap();
         // RFC 7946 §3.1.1: position = [longitude, latitude].
         match &geom.value {
             geojson::GeometryValue::Point { coordinates } => {
-                assert_eq!(coordinates.as_slice(), &[b.longitude.unwrap(), b.latitude.unwrap()]);
+                assert_eq!(
+                    coordinates.as_slice(),
+                    &[b.longitude.unwrap(), b.latitude.unwrap()]
+                );
             }
             other => panic!("not a point: {other:?}"),
         }
@@ -134,23 +140,33 @@ fn json_writes_null_for_non_finite_numbers() {
     let dir = tempfile::tempdir().unwrap();
     let path = dir.path().join("r.json");
     report::json::write(&report, &path).unwrap();
-    let v: serde_json::Value = serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
+    let v: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
     assert!(v["buildings"][0]["score"].is_null());
     assert!(v["buildings"][0]["directions"]["x"]["period_s"].is_null());
-    assert_eq!(v["buildings"][1]["score"].as_f64(), Some(report.buildings[1].score));
+    assert_eq!(
+        v["buildings"][1]["score"].as_f64(),
+        Some(report.buildings[1].score)
+    );
 }
 
 #[test]
 fn terminal_summary_has_counts_top_ten_outputs_and_caution() {
     let report = sample::report(24);
     let written = vec![
-        ("workbook".to_string(), std::path::PathBuf::from("out/r.xlsx")),
+        (
+            "workbook".to_string(),
+            std::path::PathBuf::from("out/r.xlsx"),
+        ),
         ("JSON".to_string(), std::path::PathBuf::from("out/r.json")),
     ];
     let s = report::terminal::summary(&report, &written);
     let c = &report.counts.by_class;
     let count = |label: &str| -> usize {
-        let line = s.lines().find(|l| l.trim_start().starts_with(label)).unwrap();
+        let line = s
+            .lines()
+            .find(|l| l.trim_start().starts_with(label))
+            .unwrap();
         line.split_whitespace().last().unwrap().parse().unwrap()
     };
     assert_eq!(count("class 1 collapse-level deficit"), c.c1);

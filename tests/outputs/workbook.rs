@@ -137,7 +137,10 @@ fn formula_like_inventory_text_comes_back_as_text_and_no_cell_is_a_formula() {
     assert_eq!(text(&ns, 1, 2).as_deref(), Some("=HYPERLINK(\"x\")"));
     for (name, xml) in package(&out) {
         if name.starts_with("xl/worksheets/") {
-            assert!(!xml.contains("<f>") && !xml.contains("<f "), "{name} holds a formula");
+            assert!(
+                !xml.contains("<f>") && !xml.contains("<f "),
+                "{name} holds a formula"
+            );
         }
     }
 }
@@ -161,8 +164,14 @@ fn non_finite_numbers_leave_blank_cells() {
     report.buildings[1].directions.x.period_s = f64::NAN;
     let (_d, out) = write(&report);
     let p = sheet(&out, "Priority");
-    assert_eq!(p.get((2, col(&p, "Score (governing DCR)"))), Some(&Data::Empty));
-    assert_eq!(p.get((2, col(&p, "DCR IO (max of x, y)"))), Some(&Data::Empty));
+    assert_eq!(
+        p.get((2, col(&p, "Score (governing DCR)"))),
+        Some(&Data::Empty)
+    );
+    assert_eq!(
+        p.get((2, col(&p, "DCR IO (max of x, y)"))),
+        Some(&Data::Empty)
+    );
     let d = sheet(&out, "Directions");
     // Building 2, direction x is Directions row 3.
     assert_eq!(d.get((3, col(&d, "Period used T (s)"))), Some(&Data::Empty));
@@ -190,7 +199,11 @@ fn the_three_charts_are_in_the_package_with_their_series() {
     let bars = chart(2);
     assert!(bars.contains("<c:barChart>"));
     let cost = chart(3);
-    assert_eq!(cost.matches("<c:ser>").count(), 3, "cost, funded walk, budget");
+    assert_eq!(
+        cost.matches("<c:ser>").count(),
+        3,
+        "cost, funded walk, budget"
+    );
     assert!(files.iter().any(|(f, _)| f == "xl/drawings/drawing1.xml"));
 }
 
@@ -213,7 +226,9 @@ fn scatter_series_hold_at_most_5000_points_per_class_highest_priorities_first() 
     let (_d, out) = write(&report);
     let cd = sheet(&out, "Chart data");
     for k in 0..3usize {
-        let ci: Vec<f64> = (1..cd.height()).filter_map(|r| num(&cd, r, 2 * k)).collect();
+        let ci: Vec<f64> = (1..cd.height())
+            .filter_map(|r| num(&cd, r, 2 * k))
+            .collect();
         assert_eq!(ci.len(), 5_000, "class {}", k + 1);
         // Highest priorities first: the first 5,000 of the class in rank order.
         assert_eq!(ci[0], (k * 5_400) as f64);
@@ -229,15 +244,27 @@ fn per_row_sheets_have_one_row_per_item() {
     assert_eq!(rows("Directions"), 2 * report.buildings.len());
     assert_eq!(
         rows("Walls"),
-        report.buildings.iter().map(|b| b.walls.len()).sum::<usize>()
+        report
+            .buildings
+            .iter()
+            .map(|b| b.walls.len())
+            .sum::<usize>()
     );
     assert_eq!(
         rows("Flags"),
-        report.buildings.iter().map(|b| b.flags.len()).sum::<usize>()
+        report
+            .buildings
+            .iter()
+            .map(|b| b.flags.len())
+            .sum::<usize>()
     );
     assert_eq!(
         rows("Retrofit plan"),
-        report.buildings.iter().filter(|b| b.retrofit.is_some()).count()
+        report
+            .buildings
+            .iter()
+            .filter(|b| b.retrofit.is_some())
+            .count()
     );
     assert_eq!(rows("Not screened"), report.not_screened.len());
     assert_eq!(rows("Input problems"), report.problems.len());
@@ -245,22 +272,38 @@ fn per_row_sheets_have_one_row_per_item() {
     let b = &report.buildings[3];
     let r = 2 * 3 + 2; // building 4, direction y
     assert_eq!(text(&d, r, col(&d, "Direction")).as_deref(), Some("y"));
-    assert_eq!(num(&d, r, col(&d, "Se(T) (g)")), Some(b.directions.y.detail.se_g));
-    assert_eq!(num(&d, r, col(&d, "κ (-)")), Some(b.directions.y.detail.kappa));
+    assert_eq!(
+        num(&d, r, col(&d, "Se(T) (g)")),
+        Some(b.directions.y.detail.se_g)
+    );
+    assert_eq!(
+        num(&d, r, col(&d, "κ (-)")),
+        Some(b.directions.y.detail.kappa)
+    );
     assert_eq!(
         num(&d, r, col(&d, "Roof drift δ_r (%)")),
         Some(b.directions.y.roof_drift_demand)
     );
     // A direction without walls has blank wall capacities (not zero).
     let r0 = 1; // building 1 (i = 0 has no walls), direction x
-    assert_eq!(d.get((r0, col(&d, "Wall capacity LS (%)"))), Some(&Data::Empty));
+    assert_eq!(
+        d.get((r0, col(&d, "Wall capacity LS (%)"))),
+        Some(&Data::Empty)
+    );
     let rp = sheet(&out, "Retrofit plan");
     // Building 6 (i = 5) has no solution in y: blank area and a note saying so.
     let row = (1..rp.height())
         .find(|r| text(&rp, *r, col(&rp, "Id")).as_deref() == Some("B0006"))
         .unwrap();
-    assert_eq!(rp.get((row, col(&rp, "Added wall area Y (m²)"))), Some(&Data::Empty));
-    assert!(text(&rp, row, col(&rp, "Note")).unwrap().contains("no wall solution"));
+    assert_eq!(
+        rp.get((row, col(&rp, "Added wall area Y (m²)"))),
+        Some(&Data::Empty)
+    );
+    assert!(
+        text(&rp, row, col(&rp, "Note"))
+            .unwrap()
+            .contains("no wall solution")
+    );
     assert_eq!(text(&rp, row, col(&rp, "Replace")).as_deref(), Some("yes"));
 }
 
@@ -273,7 +316,10 @@ fn every_table_has_a_frozen_header_and_an_autofilter() {
         let name = format!("xl/worksheets/sheet{n}.xml");
         let xml = &files.iter().find(|(f, _)| *f == name).unwrap().1;
         assert!(xml.contains("<autoFilter "), "{name}: no autofilter");
-        assert!(xml.contains("state=\"frozen\""), "{name}: header not frozen");
+        assert!(
+            xml.contains("state=\"frozen\""),
+            "{name}: header not frozen"
+        );
         assert!(xml.contains("<cols>"), "{name}: no column widths");
     }
     let styles = &files.iter().find(|(f, _)| f == "xl/styles.xml").unwrap().1;
@@ -294,7 +340,11 @@ fn assumptions_list_every_setting_with_its_source_and_the_caution() {
         assert_eq!(text(&a, row, 2).as_deref(), Some(k.tag));
         let v = report.settings.value_text(k.key).unwrap();
         let shown = text(&a, row, 1).unwrap();
-        assert!(shown == v || (v.is_empty() && shown == "(empty)"), "{}", k.key);
+        assert!(
+            shown == v || (v.is_empty() && shown == "(empty)"),
+            "{}",
+            k.key
+        );
     }
     let all: Vec<String> = a
         .cells()
@@ -327,7 +377,10 @@ fn summary_says_what_was_screened_and_lists_the_top_ten_and_budget() {
         assert!(all.contains(&b.id), "{} not in the top ten", b.id);
     }
     assert!(!all.contains(&report.buildings[10].id));
-    assert!(all.iter().any(|x| x.starts_with("Budget 500,000: the priority walk funds")));
+    assert!(
+        all.iter()
+            .any(|x| x.starts_with("Budget 500,000: the priority walk funds"))
+    );
     assert!(all.iter().any(|x| x == "Northfield"));
 }
 
@@ -343,7 +396,10 @@ fn large_stock_layout_writes_the_per_row_tables_as_csv_beside_the_workbook() {
         .map(|(_, p)| p.file_name().unwrap().to_string_lossy().into_owned())
         .collect();
     for tag in ["priority", "retrofit-plan", "directions", "walls", "flags"] {
-        assert!(names.contains(&format!("big.{tag}.csv")), "{tag}: {names:?}");
+        assert!(
+            names.contains(&format!("big.{tag}.csv")),
+            "{tag}: {names:?}"
+        );
     }
     assert_eq!(
         open(&out).sheet_names(),
@@ -365,7 +421,10 @@ fn large_stock_layout_writes_the_per_row_tables_as_csv_beside_the_workbook() {
     assert_eq!(count("directions"), 2 * report.buildings.len());
     assert_eq!(count("priority"), report.buildings.len());
     let p = sheet(&out, "Priority");
-    assert_eq!(p.height() - 1, report.buildings.len().min(LARGE_PRIORITY_ROWS));
+    assert_eq!(
+        p.height() - 1,
+        report.buildings.len().min(LARGE_PRIORITY_ROWS)
+    );
     let s = sheet(&out, "Summary");
     assert!(s.cells().any(|(_, _, c)| matches!(c, Data::String(t) if t.contains("Large stock") && t.contains("big.directions.csv"))));
     let _ = Table::ALL;

@@ -64,7 +64,10 @@ pub fn write(ws: &mut Worksheet, report: &Report, styles: &Styles) -> Result<(),
     r += 1;
     ws.write_string_with_format(r, 0, "Construction-era table", &styles.section)?;
     r += 1;
-    for (i, h) in ["From year", "To year", "fc (MPa)", "fy (MPa)"].iter().enumerate() {
+    for (i, h) in ["From year", "To year", "fc (MPa)", "fy (MPa)"]
+        .iter()
+        .enumerate()
+    {
         ws.write_string_with_format(r, i as u16, *h, &styles.header)?;
     }
     r += 1;
@@ -111,10 +114,16 @@ pub fn write(ws: &mut Worksheet, report: &Report, styles: &Styles) -> Result<(),
     r += 1;
     for (tag, meaning) in [
         ("[src]", "a published source named beside the value"),
-        ("[mem], [mem-H]", "recalled from memory: verify before relying on it"),
+        (
+            "[mem], [mem-H]",
+            "recalled from memory: verify before relying on it",
+        ),
         ("[practice]", "common practice with no single source"),
         ("[screening]", "an assumption of this method, stated openly"),
-        ("[project]", "a choice of this tool, with no engineering meaning"),
+        (
+            "[project]",
+            "a choice of this tool, with no engineering meaning",
+        ),
     ] {
         ws.write_string(r, 0, tag)?;
         ws.merge_range(r, 1, r, 3, meaning, &styles.text)?;

@@ -211,7 +211,7 @@ fn write_table_sheet(
         }
         r += 1;
         *done += 1;
-        if *done % 4096 == 0 {
+        if (*done).is_multiple_of(4096) {
             progress(*done);
         }
         Ok::<(), ReportError>(())
@@ -319,11 +319,7 @@ fn build_and_save(
         let ws = if layout.constant_memory
             && matches!(
                 t,
-                Table::Priority
-                    | Table::Retrofit
-                    | Table::Directions
-                    | Table::Walls
-                    | Table::Flags
+                Table::Priority | Table::Retrofit | Table::Directions | Table::Walls | Table::Flags
             ) {
             wb.add_worksheet_with_constant_memory()?
         } else {
@@ -381,7 +377,12 @@ mod tests {
         let l = Layout::plan(counts(524_288, 0), 524_288);
         assert!(l.large());
         assert_eq!(l.sheet_rows(Table::Priority), Some(LARGE_PRIORITY_ROWS));
-        for t in [Table::Directions, Table::Walls, Table::Flags, Table::Retrofit] {
+        for t in [
+            Table::Directions,
+            Table::Walls,
+            Table::Flags,
+            Table::Retrofit,
+        ] {
             assert_eq!(l.sheet_rows(t), None, "{t:?}");
         }
         assert_eq!(l.sheet_rows(Table::NotScreened), Some(3));

@@ -219,7 +219,8 @@ fn bar_chart(report: &Report, ranges: &ChartRanges) -> Option<Chart> {
         .take(ranges.bars)
         .map(|b| {
             let k = usize::from(b.class.clamp(1, 4) - 1);
-            ChartPoint::new().set_format(&mut fill(CLASS_FILL.get(k).copied().unwrap_or(0x80_80_80)))
+            ChartPoint::new()
+                .set_format(&mut fill(CLASS_FILL.get(k).copied().unwrap_or(0x80_80_80)))
         })
         .collect();
     let mut chart = Chart::new(ChartType::Bar);
@@ -284,10 +285,7 @@ fn cost_chart(ranges: &ChartRanges) -> Option<Chart> {
     chart
         .title()
         .set_name("Cumulative retrofit cost against buildings funded");
-    chart
-        .x_axis()
-        .set_name("Buildings (rank order)")
-        .set_min(0);
+    chart.x_axis().set_name("Buildings (rank order)").set_min(0);
     chart
         .y_axis()
         .set_name("Cumulative cost (currency units)")
@@ -304,7 +302,8 @@ struct Rows<'w> {
 
 impl Rows<'_> {
     fn label(&mut self, label: &str, value: &str, styles: &Styles) -> Result<(), ReportError> {
-        self.ws.write_string_with_format(self.r, 0, label, &styles.label)?;
+        self.ws
+            .write_string_with_format(self.r, 0, label, &styles.label)?;
         self.ws.write_string(self.r, 1, cut(value))?;
         self.r += 1;
         Ok(())
@@ -316,7 +315,8 @@ impl Rows<'_> {
         kind: Kind,
         styles: &Styles,
     ) -> Result<(), ReportError> {
-        self.ws.write_string_with_format(self.r, 0, label, &styles.label)?;
+        self.ws
+            .write_string_with_format(self.r, 0, label, &styles.label)?;
         if value.is_finite() {
             self.ws
                 .write_number_with_format(self.r, 1, value, styles.kind(kind))?;
@@ -326,7 +326,8 @@ impl Rows<'_> {
     }
     fn section(&mut self, title: &str, styles: &Styles) -> Result<(), ReportError> {
         self.r += 1;
-        self.ws.write_string_with_format(self.r, 0, title, &styles.section)?;
+        self.ws
+            .write_string_with_format(self.r, 0, title, &styles.section)?;
         for c in 1..8 {
             self.ws.write_blank(self.r, c, &styles.section)?;
         }
@@ -372,11 +373,7 @@ fn money(v: f64) -> String {
         }
         out.push(ch);
     }
-    if v < 0.0 {
-        format!("-{out}")
-    } else {
-        out
-    }
+    if v < 0.0 { format!("-{out}") } else { out }
 }
 
 /// The budget line of the Summary (and of the terminal summary).
@@ -439,7 +436,10 @@ pub fn write(
     now: &ExcelDateTime,
     charts: &ChartRanges,
 ) -> Result<(), ReportError> {
-    for (c, w) in [46.0, 22.0, 28.0, 16.0, 26.0, 12.0, 16.0, 12.0].iter().enumerate() {
+    for (c, w) in [46.0, 22.0, 28.0, 16.0, 26.0, 12.0, 16.0, 12.0]
+        .iter()
+        .enumerate()
+    {
         ws.set_column_width(c as u16, *w)?;
     }
     ws.set_landscape().set_print_fit_to_pages(1, 0);
@@ -477,15 +477,30 @@ pub fn write(
 
     w.section("Counts", styles)?;
     let c = &report.counts;
-    w.label_num("Rows in the buildings sheet", c.rows as f64, Kind::Thousands, styles)?;
-    w.label_num("Buildings screened", c.screened as f64, Kind::Thousands, styles)?;
+    w.label_num(
+        "Rows in the buildings sheet",
+        c.rows as f64,
+        Kind::Thousands,
+        styles,
+    )?;
+    w.label_num(
+        "Buildings screened",
+        c.screened as f64,
+        Kind::Thousands,
+        styles,
+    )?;
     w.label_num(
         "Rows not screened (see Not screened)",
         c.not_screened as f64,
         Kind::Thousands,
         styles,
     )?;
-    w.label_num("Blank rows skipped", c.blank_rows as f64, Kind::Thousands, styles)?;
+    w.label_num(
+        "Blank rows skipped",
+        c.blank_rows as f64,
+        Kind::Thousands,
+        styles,
+    )?;
     w.label_num(
         "Input problems (see Input problems)",
         report.problems.len() as f64,
@@ -503,7 +518,9 @@ pub fn write(
                 super::LARGE_PRIORITY_ROWS
             ));
         } else {
-            note.push_str("Tables too long for a sheet are written as CSV files beside this workbook.");
+            note.push_str(
+                "Tables too long for a sheet are written as CSV files beside this workbook.",
+            );
         }
         for (what, p) in extra {
             note.push_str(&format!(" {what}: {}.", p.display()));
@@ -518,10 +535,8 @@ pub fn write(
     let by = [c.by_class.c1, c.by_class.c2, c.by_class.c3, c.by_class.c4];
     for (k, n) in by.iter().enumerate() {
         let class = (k + 1) as f64;
-        w.ws
-            .write_number_with_format(w.r, 0, class, styles.class_format(class))?;
-        w.ws
-            .write_number_with_format(w.r, 1, *n as f64, styles.kind(Kind::Thousands))?;
+        w.ws.write_number_with_format(w.r, 0, class, styles.class_format(class))?;
+        w.ws.write_number_with_format(w.r, 1, *n as f64, styles.kind(Kind::Thousands))?;
         if c.screened > 0 {
             w.ws.write_number_with_format(
                 w.r,
@@ -549,17 +564,14 @@ pub fn write(
     )?;
     for b in report.buildings.iter().take(10) {
         let r = w.r;
-        w.ws
-            .write_number_with_format(r, 0, b.rank as f64, styles.kind(Kind::Int))?;
+        w.ws.write_number_with_format(r, 0, b.rank as f64, styles.kind(Kind::Int))?;
         w.ws.write_string(r, 1, cut(&b.id))?;
         w.ws.write_string(r, 2, cut(&b.name))?;
         w.ws.write_string(r, 3, cut(&b.district))?;
         let class = f64::from(b.class);
-        w.ws
-            .write_number_with_format(r, 4, class, styles.class_format(class))?;
+        w.ws.write_number_with_format(r, 4, class, styles.class_format(class))?;
         if b.score.is_finite() {
-            w.ws
-                .write_number_with_format(r, 5, b.score, styles.kind(Kind::Dcr))?;
+            w.ws.write_number_with_format(r, 5, b.score, styles.kind(Kind::Dcr))?;
         }
         w.ws.write_string(
             r,
@@ -575,8 +587,7 @@ pub fn write(
             ),
         )?;
         if let Some(o) = b.occupants {
-            w.ws
-                .write_number_with_format(r, 7, o as f64, styles.kind(Kind::Thousands))?;
+            w.ws.write_number_with_format(r, 7, o as f64, styles.kind(Kind::Thousands))?;
         }
         w.r += 1;
     }
@@ -612,8 +623,15 @@ pub fn write(
     }
     for (d, n) in &districts {
         let r = w.r;
-        w.ws
-            .write_string(r, 0, if d.is_empty() { "(no district)" } else { cut(d) })?;
+        w.ws.write_string(
+            r,
+            0,
+            if d.is_empty() {
+                "(no district)"
+            } else {
+                cut(d)
+            },
+        )?;
         w.ws.write_number_with_format(
             r,
             1,
@@ -621,8 +639,12 @@ pub fn write(
             styles.kind(Kind::Thousands),
         )?;
         for (k, v) in n.iter().enumerate() {
-            w.ws
-                .write_number_with_format(r, 2 + k as u16, *v as f64, styles.kind(Kind::Thousands))?;
+            w.ws.write_number_with_format(
+                r,
+                2 + k as u16,
+                *v as f64,
+                styles.kind(Kind::Thousands),
+            )?;
         }
         w.r += 1;
     }
