@@ -97,6 +97,14 @@ pub fn summary(report: &Report, written: &[(String, PathBuf)]) -> String {
     }
     if !written.is_empty() {
         let _ = writeln!(s);
+        if written.iter().any(|(what, _)| what.ends_with("(CSV)")) {
+            let _ = writeln!(
+                s,
+                "Some tables are too long for a spreadsheet sheet ({} rows): they were written \
+                 as CSV files beside the workbook (listed below).",
+                super::workbook::SHEET_ROWS
+            );
+        }
         let _ = writeln!(s, "Outputs");
         for (what, p) in written {
             let _ = writeln!(s, "  {what}: {}", clean(&p.display().to_string(), 4096));

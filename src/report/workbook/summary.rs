@@ -514,8 +514,8 @@ pub fn write(
                 "Large stock: the Directions sheet would pass the spreadsheet row limit \
                  ({} rows), so the per-row tables are written as CSV files beside this \
                  workbook, and the Priority sheet here holds only the first {} rows.",
-                super::SHEET_ROWS,
-                super::LARGE_PRIORITY_ROWS
+                money(super::SHEET_ROWS as f64),
+                money(super::LARGE_PRIORITY_ROWS as f64)
             ));
         } else {
             note.push_str(
@@ -523,7 +523,11 @@ pub fn write(
             );
         }
         for (what, p) in extra {
-            note.push_str(&format!(" {what}: {}.", p.display()));
+            let name = p.file_name().map_or_else(
+                || p.display().to_string(),
+                |n| n.to_string_lossy().into_owned(),
+            );
+            note.push_str(&format!(" {what}: {name}."));
         }
         w.r += 1;
         w.ws.merge_range(w.r, 0, w.r + 2, 7, cut(&note), &styles.caution)?;
