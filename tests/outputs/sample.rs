@@ -69,6 +69,7 @@ fn direction(i: usize, d: Dir, class: u8) -> DirectionResult {
             roof_displacement_m: 0.065,
             kappa: 1.35,
             tc_s: 0.6,
+            ..Default::default()
         },
     }
 }
@@ -174,6 +175,7 @@ pub fn building(i: usize, class: u8) -> BuildingResult {
             boundary_elements: false,
             columns_detailed: false,
             wall_shear_span_m: 8.75,
+            ..Default::default()
         },
         walls: (0..(i % 3))
             .map(|w| WallResult {
