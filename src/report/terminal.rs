@@ -56,7 +56,7 @@ pub fn summary(report: &Report, written: &[(String, PathBuf)]) -> String {
         let _ = writeln!(s, "Ten highest priorities");
         let _ = writeln!(
             s,
-            "  {:>5}  {:<14} {:<28} {:>5}  {:>6}  governing",
+            "  {:>5}  {:<14} {:<34} {:>5}  {:>6}  governing",
             "rank", "id", "name", "class", "score"
         );
         for b in report.buildings.iter().take(10) {
@@ -67,10 +67,10 @@ pub fn summary(report: &Report, written: &[(String, PathBuf)]) -> String {
             };
             let _ = writeln!(
                 s,
-                "  {:>5}  {:<14} {:<28} {:>5}  {:>6}  {} {} {}",
+                "  {:>5}  {:<14} {:<34} {:>5}  {:>6}  {} {} {}",
                 b.rank,
                 clean(&b.id, 14),
-                clean(&b.name, 28),
+                clean(&b.name, 34),
                 b.class,
                 score,
                 b.governing.direction.code(),
