@@ -5,6 +5,7 @@
 mod common;
 
 mod cli;
+mod demo;
 mod geography;
 mod input_cases;
 mod outputs;

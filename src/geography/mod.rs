@@ -1,0 +1,484 @@
+/*!
+Geography: district polygons and fault traces (GeoJSON), giving each building its district,
+district hazard overrides and its distance to the nearest fault trace (inventory.md,
+"Companion geography"; method §10 `near-fault`).
+
+- Districts: a building without a `district` gets the first district, in file order, whose
+  polygon covers its point — edges and vertices included. (geo's `Contains` is false on the
+  boundary, so the test is `Intersects` of the point with the polygon, which is the
+  "covers" predicate for a point.) Candidates come from an R-tree of polygon bounding boxes,
+  so a lookup costs O(log n) plus the few polygons whose box holds the point. Polygon edges
+  are straight lines in longitude/latitude, as GeoJSON prescribes (RFC 7946 §3.1.1).
+- Hazard: the district whose `name` equals the building's district (given or assigned)
+  lends its `agr_g`, `ground_type`, `sds_g`, `sd1_g`; the engine applies them where the row
+  gives none. Names are compared trimmed; an exact match wins, else a case-insensitive one.
+- Faults: the Haversine distance (mean Earth radius 6 371 008.8 m) to the closest point of
+  the trace's great-circle segments ([`sphere`]); traces are visited in order of a lower
+  bound from a bounding spherical cap and skipped once the bound exceeds both the best
+  distance so far and the trace's near-fault limit, so a building usually measures one or
+  two traces exactly.
+- Bad input never stops the screening: bad features are reported (feature number and what
+  is wrong) and skipped; buildings outside every district or without coordinates are
+  reported and still screened.
+*/
+
+pub mod features;
+pub mod sphere;
+
+use std::collections::HashMap;
+use std::path::Path;
+
+use geo::{BoundingRect, Intersects, Point};
+use rayon::prelude::*;
+use rstar::RTree;
+use rstar::primitives::{GeomWithData, Rectangle};
+
+pub use features::{District, DistrictHazard, FaultTrace};
+pub use sphere::{BoundingCap, LatLon, MEAN_EARTH_RADIUS_M};
+
+use crate::model::{BuildingRecord, FaultDistance, NearFault, Problem, Severity, SiteInfo};
+use crate::settings::Settings;
+
+/// A fault trace with its bounding cap (for the distance lower bound).
+#[derive(Debug, Clone)]
+struct IndexedTrace {
+    trace: FaultTrace,
+    cap: Option<BoundingCap>,
+}
+
+type BoxEntry = GeomWithData<Rectangle<[f64; 2]>, usize>;
+
+/// District polygons and fault traces, as loaded and indexed.
+#[derive(Debug, Clone, Default)]
+pub struct Geography {
+    districts: Vec<District>,
+    district_boxes: RTree<BoxEntry>,
+    by_name: HashMap<String, usize>,
+    by_lower_name: HashMap<String, usize>,
+    traces: Vec<IndexedTrace>,
+    /// A districts file was given (even if none of its features was usable).
+    districts_given: bool,
+    /// A faults file was given.
+    faults_given: bool,
+}
+
+/// Places every building: district (given or assigned), district hazard, nearest fault and
+/// near-fault trigger. Keyed by building id. Problems are reported, never fatal.
+pub fn locate(
+    buildings: &[BuildingRecord],
+    geo: &Geography,
+    settings: &Settings,
+) -> (HashMap<String, SiteInfo>, Vec<Problem>) {
+    let placed: Vec<(SiteInfo, Vec<Problem>)> = buildings
+        .par_iter()
+        .map(|b| geo.place(b, settings))
+        .collect();
+    let mut sites = HashMap::with_capacity(buildings.len());
+    let mut problems = Vec::new();
+    for (b, (site, mut p)) in buildings.iter().zip(placed) {
+        sites.insert(b.id.clone(), site);
+        problems.append(&mut p);
+    }
+    (sites, problems)
+}
+
+/// Failures that stop a geography file from being used at all.
+#[derive(Debug, thiserror::Error)]
+pub enum GeoError {
+    /// The file cannot be read or is not GeoJSON.
+    #[error("{path}: {message}")]
+    Unreadable {
+        /// Path.
+        path: String,
+        /// Why.
+        message: String,
+    },
+}
+
+/// The near-fault distance limit (km) of a trace of magnitude `mw`, or `None` when the
+/// trace never flags (method §10 `near-fault`, after the ASCE 7-16 §11.4.1 near-fault site
+/// definition): Mw ≥ `near_fault_mw_large` → `near_fault_km_large`; `near_fault_mw_small` ≤
+/// Mw < `near_fault_mw_large` → `near_fault_km_small`; Mw < `near_fault_mw_small` → never;
+/// no magnitude → `near_fault_km`.
+pub fn near_fault_limit_km(mw: Option<f64>, s: &Settings) -> Option<f64> {
+    match mw {
+        None => Some(s.near_fault_km),
+        Some(m) if m >= s.near_fault_mw_large => Some(s.near_fault_km_large),
+        Some(m) if m >= s.near_fault_mw_small => Some(s.near_fault_km_small),
+        Some(_) => None,
+    }
+}
+
+fn read_json(path: &Path) -> Result<Vec<geojson::JsonValue>, GeoError> {
+    let unreadable = |message: String| GeoError::Unreadable {
+        path: path.display().to_string(),
+        message,
+    };
+    let bytes = std::fs::read(path).map_err(|e| unreadable(format!("cannot read: {e}")))?;
+    let doc: geojson::JsonValue = serde_json::from_slice(&bytes)
+        .map_err(|e| unreadable(format!("not a GeoJSON file (not valid JSON: {e})")))?;
+    features::feature_values(doc).map_err(unreadable)
+}
+
+impl Geography {
+    /// Loads district polygons and/or fault traces. Bad features are reported as problems
+    /// (sheet `districts` / `faults`, row = feature number, 1-based in file order) and
+    /// skipped; a file that cannot be read or is not GeoJSON is an error.
+    pub fn load(
+        districts: Option<&Path>,
+        faults: Option<&Path>,
+    ) -> Result<(Geography, Vec<Problem>), GeoError> {
+        let d = districts.map(read_json).transpose()?;
+        let f = faults.map(read_json).transpose()?;
+        Ok(Self::from_feature_values(d.as_deref(), f.as_deref()))
+    }
+
+    /// Builds the geography from GeoJSON texts (`None` = file not given). A text that is
+    /// not GeoJSON is an error naming `"districts"` or `"faults"`.
+    pub fn from_geojson_str(
+        districts: Option<&str>,
+        faults: Option<&str>,
+    ) -> Result<(Geography, Vec<Problem>), GeoError> {
+        let parse = |text: &str, what: &str| {
+            let unreadable = |message: String| GeoError::Unreadable {
+                path: what.to_string(),
+                message,
+            };
+            let doc: geojson::JsonValue = serde_json::from_str(text)
+                .map_err(|e| unreadable(format!("not a GeoJSON file (not valid JSON: {e})")))?;
+            features::feature_values(doc).map_err(unreadable)
+        };
+        let d = districts.map(|t| parse(t, "districts")).transpose()?;
+        let f = faults.map(|t| parse(t, "faults")).transpose()?;
+        Ok(Self::from_feature_values(d.as_deref(), f.as_deref()))
+    }
+
+    fn from_feature_values(
+        districts: Option<&[geojson::JsonValue]>,
+        faults: Option<&[geojson::JsonValue]>,
+    ) -> (Geography, Vec<Problem>) {
+        let mut problems = Vec::new();
+        let d = districts
+            .map(|v| features::districts(v, &mut problems))
+            .unwrap_or_default();
+        let f = faults
+            .map(|v| features::faults(v, &mut problems))
+            .unwrap_or_default();
+        let mut geo = Self::new(d, f);
+        geo.districts_given = districts.is_some();
+        geo.faults_given = faults.is_some();
+        (geo, problems)
+    }
+
+    /// Builds and indexes a geography from checked districts and traces (as if both files
+    /// had been given).
+    pub fn new(districts: Vec<District>, traces: Vec<FaultTrace>) -> Geography {
+        let boxes = districts
+            .iter()
+            .enumerate()
+            .filter_map(|(i, d)| {
+                d.shape.bounding_rect().map(|r| {
+                    GeomWithData::new(
+                        Rectangle::from_corners([r.min().x, r.min().y], [r.max().x, r.max().y]),
+                        i,
+                    )
+                })
+            })
+            .collect();
+        let mut by_name = HashMap::new();
+        let mut by_lower_name = HashMap::new();
+        for (i, d) in districts.iter().enumerate() {
+            by_name.entry(d.name.clone()).or_insert(i);
+            by_lower_name.entry(d.name.to_lowercase()).or_insert(i);
+        }
+        let traces = traces
+            .into_iter()
+            .map(|trace| {
+                let cap = BoundingCap::around(trace.parts.iter().flatten());
+                IndexedTrace { trace, cap }
+            })
+            .collect();
+        Geography {
+            districts,
+            district_boxes: RTree::bulk_load(boxes),
+            by_name,
+            by_lower_name,
+            traces,
+            districts_given: true,
+            faults_given: true,
+        }
+    }
+
+    /// The usable districts, in file order.
+    pub fn districts(&self) -> &[District] {
+        &self.districts
+    }
+
+    /// The usable fault traces, in file order.
+    pub fn faults(&self) -> impl Iterator<Item = &FaultTrace> {
+        self.traces.iter().map(|t| &t.trace)
+    }
+
+    /// The first district in file order whose polygon covers the point (edges and vertices
+    /// included; a point in a hole is outside).
+    pub fn district_at(&self, p: LatLon) -> Option<&District> {
+        let point = Point::new(p.lon, p.lat);
+        self.district_boxes
+            .locate_all_at_point(&[p.lon, p.lat])
+            .map(|entry| entry.data)
+            .filter(|&i| {
+                self.districts
+                    .get(i)
+                    // Intersects, not Contains: a point on an edge or vertex is covered.
+                    .is_some_and(|d| d.shape.intersects(&point))
+            })
+            .min()
+            .and_then(|i| self.districts.get(i))
+    }
+
+    /// The district named `name` (trimmed; exact match first, else case-insensitive).
+    pub fn district_named(&self, name: &str) -> Option<&District> {
+        let name = name.trim();
+        self.by_name
+            .get(name)
+            .or_else(|| self.by_lower_name.get(&name.to_lowercase()))
+            .and_then(|&i| self.districts.get(i))
+    }
+
+    /// The nearest trace (ties: first in file order) and the trace that triggers the
+    /// near-fault flag (the nearest among those within their limit), for a point.
+    pub fn faults_near(
+        &self,
+        p: LatLon,
+        settings: &Settings,
+    ) -> (Option<FaultDistance>, Option<NearFault>) {
+        let r = MEAN_EARTH_RADIUS_M;
+        let mut order: Vec<(f64, usize)> = self
+            .traces
+            .iter()
+            .enumerate()
+            .map(|(i, t)| (t.cap.map_or(0.0, |c| c.lower_bound_m(p, r)), i))
+            .collect();
+        order.sort_by(|a, b| a.0.total_cmp(&b.0).then(a.1.cmp(&b.1)));
+        let mut nearest: Option<(f64, usize)> = None;
+        let mut trigger: Option<(f64, usize, f64)> = None;
+        for (bound, i) in order {
+            let Some(t) = self.traces.get(i) else {
+                continue;
+            };
+            let limit_m = near_fault_limit_km(t.trace.mw, settings).map(|km| km * 1000.0);
+            let could_be_nearest = nearest.is_none_or(|(d, _)| bound <= d);
+            let could_trigger = limit_m.is_some_and(|l| bound <= l);
+            if !could_be_nearest && !could_trigger {
+                continue;
+            }
+            let d = t
+                .trace
+                .parts
+                .iter()
+                .map(|part| sphere::point_polyline_distance_m(p, part, r))
+                .fold(f64::INFINITY, f64::min);
+            if nearest.is_none_or(|(best, j)| (d, i) < (best, j)) {
+                nearest = Some((d, i));
+            }
+            if let Some(l) = limit_m
+                && d <= l
+                && trigger.is_none_or(|(best, j, _)| (d, i) < (best, j))
+            {
+                trigger = Some((d, i, l));
+            }
+        }
+        let name_of = |i: usize| {
+            self.traces
+                .get(i)
+                .map(|t| t.trace.name.clone())
+                .unwrap_or_default()
+        };
+        let fault = nearest.map(|(d, i)| FaultDistance {
+            name: name_of(i),
+            distance_m: d,
+        });
+        let near = trigger.map(|(d, i, l)| NearFault {
+            name: name_of(i),
+            distance_m: d,
+            mw: self.traces.get(i).and_then(|t| t.trace.mw),
+            limit_km: l / 1000.0,
+        });
+        (fault, near)
+    }
+
+    /// District, hazard and fault data of one building, with the problems found.
+    fn place(&self, b: &BuildingRecord, settings: &Settings) -> (SiteInfo, Vec<Problem>) {
+        let mut problems = Vec::new();
+        let warn = |column: &str, message: String| Problem {
+            sheet: "buildings".into(),
+            row: Some(b.row),
+            column: column.into(),
+            message,
+            severity: Severity::Warning,
+        };
+        let uses_geography = self.districts_given || self.faults_given;
+        let point = match (b.latitude, b.longitude) {
+            (Some(lat), Some(lon)) => {
+                if !(lat.is_finite() && (-90.0..=90.0).contains(&lat)) {
+                    if uses_geography {
+                        problems.push(warn(
+                            "latitude",
+                            format!("latitude {lat} outside ±90°: no district or fault lookup"),
+                        ));
+                    }
+                    None
+                } else if !(lon.is_finite() && (-180.0..=180.0).contains(&lon)) {
+                    if uses_geography {
+                        problems.push(warn(
+                            "longitude",
+                            format!("longitude {lon} outside ±180°: no district or fault lookup"),
+                        ));
+                    }
+                    None
+                } else {
+                    Some(LatLon::new(lat, lon))
+                }
+            }
+            _ => None,
+        };
+        let given = b
+            .district
+            .as_deref()
+            .map(str::trim)
+            .filter(|s| !s.is_empty());
+        let mut site = SiteInfo::default();
+        match (given, point) {
+            (Some(name), _) => site.district = name.to_string(),
+            (None, Some(p)) if self.districts_given => match self.district_at(p) {
+                Some(d) => site.district = d.name.clone(),
+                None => problems.push(warn(
+                    "",
+                    format!(
+                        "the point (latitude {}, longitude {}) lies outside every district \
+                         polygon: no district assigned; the building is still screened",
+                        p.lat, p.lon
+                    ),
+                )),
+            },
+            (None, None) if self.districts_given && point_missing(b) => problems.push(warn(
+                "",
+                "no latitude/longitude and no district: no district assigned".into(),
+            )),
+            _ => {}
+        }
+        if self.districts_given && !site.district.is_empty() {
+            match self.district_named(&site.district) {
+                Some(d) => {
+                    site.agr_g = d.hazard.agr_g;
+                    site.ground_type = d.hazard.ground_type;
+                    site.sds_g = d.hazard.sds_g;
+                    site.sd1_g = d.hazard.sd1_g;
+                }
+                None => problems.push(warn(
+                    "district",
+                    format!(
+                        "district \"{}\" is not in the districts file: no district hazard applies",
+                        site.district
+                    ),
+                )),
+            }
+        }
+        if self.faults_given {
+            match point {
+                Some(p) => {
+                    let (fault, near) = self.faults_near(p, settings);
+                    site.fault = fault;
+                    site.near_fault = near;
+                }
+                None if point_missing(b) => problems.push(warn(
+                    "",
+                    "no latitude/longitude: no fault distance, near-fault not assessed".into(),
+                )),
+                None => {}
+            }
+        }
+        (site, problems)
+    }
+}
+
+/// Latitude or longitude blank (as opposed to given but out of range, reported apart).
+fn point_missing(b: &BuildingRecord) -> bool {
+    b.latitude.is_none() || b.longitude.is_none()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn near_fault_limits_follow_method_section_10() {
+        let s = Settings::default();
+        assert_eq!(
+            near_fault_limit_km(Some(7.4), &s),
+            Some(s.near_fault_km_large)
+        );
+        assert_eq!(
+            near_fault_limit_km(Some(7.0), &s),
+            Some(s.near_fault_km_large)
+        );
+        assert_eq!(
+            near_fault_limit_km(Some(6.0), &s),
+            Some(s.near_fault_km_small)
+        );
+        assert_eq!(
+            near_fault_limit_km(Some(6.9), &s),
+            Some(s.near_fault_km_small)
+        );
+        assert_eq!(near_fault_limit_km(Some(5.9), &s), None);
+        assert_eq!(near_fault_limit_km(None, &s), Some(s.near_fault_km));
+    }
+
+    fn square(name: &str, x0: f64, y0: f64, size: f64) -> String {
+        format!(
+            r#"{{"type":"Feature","properties":{{"name":"{name}"}},"geometry":{{"type":"Polygon","coordinates":[[[{x0},{y0}],[{x1},{y0}],[{x1},{y1}],[{x0},{y1}],[{x0},{y0}]]]}}}}"#,
+            x1 = x0 + size,
+            y1 = y0 + size
+        )
+    }
+
+    #[test]
+    fn shared_border_goes_to_the_first_district_in_file_order() {
+        let text = format!(
+            r#"{{"type":"FeatureCollection","features":[{},{}]}}"#,
+            square("West", 0.0, 0.0, 1.0),
+            square("East", 1.0, 0.0, 1.0)
+        );
+        let (g, p) = Geography::from_geojson_str(Some(&text), None).unwrap();
+        assert!(p.is_empty());
+        let on_border = LatLon::new(0.5, 1.0);
+        assert_eq!(g.district_at(on_border).unwrap().name, "West");
+        assert_eq!(g.district_at(LatLon::new(0.5, 1.5)).unwrap().name, "East");
+        assert!(g.district_at(LatLon::new(0.5, 2.5)).is_none());
+    }
+
+    #[test]
+    fn nearest_and_trigger_can_be_different_traces() {
+        // Trace A (Mw 5.5) passes 2 km away: nearest, but Mw < 6 never flags.
+        // Trace B (Mw 7.2) passes ~13.3 km away: not nearest, but within 15 km → triggers.
+        let km_deg = 1000.0 / (MEAN_EARTH_RADIUS_M * std::f64::consts::PI / 180.0);
+        let faults = format!(
+            r#"{{"type":"FeatureCollection","features":[
+            {{"type":"Feature","properties":{{"name":"A","mw":5.5}},"geometry":{{"type":"LineString","coordinates":[[-1,{a}],[1,{a}]]}}}},
+            {{"type":"Feature","properties":{{"name":"B","mw":7.2}},"geometry":{{"type":"LineString","coordinates":[[-1,{b}],[1,{b}]]}}}}]}}"#,
+            a = 2.0 * km_deg,
+            b = -13.3 * km_deg
+        );
+        let (g, p) = Geography::from_geojson_str(None, Some(&faults)).unwrap();
+        assert!(p.is_empty(), "{p:?}");
+        let (fault, near) = g.faults_near(LatLon::new(0.0, 0.0), &Settings::default());
+        let fault = fault.unwrap();
+        assert_eq!(fault.name, "A");
+        assert!((fault.distance_m - 2000.0).abs() < 1.0);
+        let near = near.unwrap();
+        assert_eq!(near.name, "B");
+        assert!((near.distance_m - 13_300.0).abs() < 5.0);
+        assert_eq!(near.limit_km, 15.0);
+        assert_eq!(near.mw, Some(7.2));
+    }
+}
