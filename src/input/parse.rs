@@ -210,6 +210,13 @@ impl<'a> RowParser<'a> {
             return None;
         }
         let v = self.number(name)?;
+        // A formula result such as 2.9999999999999996 is the whole number a person sees.
+        let r = v.round();
+        let v = if (v - r).abs() <= 1e-9 * r.abs().max(1.0) {
+            r
+        } else {
+            v
+        };
         if v.fract() != 0.0 || v.abs() > 1e12 {
             self.error(
                 name,
@@ -717,6 +724,18 @@ mod tests {
         assert_eq!(parse_number_text("twelve", false), None);
         assert_eq!(parse_number_text("inf", false), None);
         assert_eq!(parse_number_text("NaN", false), None);
+    }
+
+    #[test]
+    fn float_noise_from_formulas_still_gives_whole_numbers() {
+        let row = DataRow {
+            row: 2,
+            cells: vec![RawCell::Number(2.9999999999999996), RawCell::Number(2.5)],
+        };
+        let mut p = RowParser::new(&crate::input::columns::STOREYS, &row, false);
+        assert_eq!(p.whole("building_id", false), Some(3));
+        assert_eq!(p.whole("storey", false), None);
+        assert!(p.has_errors());
     }
 
     #[test]
