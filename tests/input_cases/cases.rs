@@ -1021,3 +1021,48 @@ fn a_storey_listed_twice_stops_its_building_from_being_screened() {
     );
     assert_eq!(inv.storeys.len(), 1);
 }
+
+#[test]
+fn two_columns_meaning_the_same_give_a_warning_and_the_first_is_used() {
+    let dir = tempfile::tempdir().unwrap();
+    let mut h = head();
+    h.push(S("Floors"));
+    let mut r = good("DU1");
+    r.push(N(9.0));
+    let inv = read(&workbook(
+        dir.path(),
+        "du.xlsx",
+        &[("buildings", vec![h, r])],
+    ));
+    assert_eq!(inv.buildings[0].storeys, 5);
+    assert!(
+        inv.problems
+            .iter()
+            .any(|p| p.severity == Severity::Warning && p.message.contains("all mean storeys"))
+    );
+}
+
+#[test]
+fn a_header_row_option_pointing_at_a_data_row_is_a_sheet_error() {
+    let dir = tempfile::tempdir().unwrap();
+    let path = workbook(
+        dir.path(),
+        "hw.xlsx",
+        &[("buildings", vec![head(), good("HW1"), good("HW2")])],
+    );
+    let opts = ReadOptions {
+        header_row: Some(2),
+        ..Default::default()
+    };
+    let inv = read_inventory(&path, &opts).unwrap();
+    assert!(inv.buildings.is_empty());
+    assert!(
+        inv.problems.iter().any(|p| p.severity == Severity::Error
+            && p.row == Some(2)
+            && p.message
+                .contains("required column(s) id, storeys, plan_area_m2, column_area_m2")),
+        "{:#?}",
+        inv.problems
+    );
+    assert_counts(&inv);
+}
