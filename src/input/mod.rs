@@ -5,7 +5,12 @@ optional cells that are blank stay `None` and the engine resolves their defaults
 
 Layout: [`columns`] is the one table of canonical columns, [`header`] the header-matching
 rule, [`raw`] untyped cells, budgets and the per-sheet state machine, [`xlsx`] and [`csv`]
-the sources, [`parse`] typed records per row, [`validate`] checks across rows and sheets.
+the sources ([`xls_scan`] sizes an `.xls` before calamine expands it), [`parse`] typed
+records per row, [`validate`] checks across rows and sheets, [`guard`] turns a panic of the
+spreadsheet library on a malformed file into an ordinary error.
+
+Only the buildings sheet's header row follows `--header-row`; every other sheet (and every
+sibling CSV file) finds its own header row by its required names.
 */
 
 pub mod columns;
