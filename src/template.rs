@@ -26,6 +26,9 @@ pub enum TemplateError {
     /// File system error.
     #[error("{0}")]
     Io(#[from] std::io::Error),
+    /// Writing the file.
+    #[error("{0}")]
+    Write(#[from] crate::report::ReportError),
 }
 
 /// Last row (0-based) that drop-down lists cover.
@@ -158,7 +161,11 @@ pub fn write_template(path: &Path) -> Result<(), TemplateError> {
         std::fs::create_dir_all(dir)?;
     }
     let mut wb = template_workbook()?;
-    wb.save(path)?;
+    // Written beside the target and renamed when complete: never half-written.
+    crate::report::atomic::write_atomic(path, |w| {
+        wb.save_to_writer(w)?;
+        Ok(())
+    })?;
     Ok(())
 }
 
