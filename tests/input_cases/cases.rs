@@ -1066,3 +1066,21 @@ fn a_header_row_option_pointing_at_a_data_row_is_a_sheet_error() {
     );
     assert_counts(&inv);
 }
+
+#[test]
+fn ods_formulas_without_a_value_are_errors() {
+    let dir = tempfile::tempdir().unwrap();
+    let xml = [
+        ods_row(&["id", "storeys", "plan_area_m2", "column_area_m2"]),
+        r#"<table:table-row><table:table-cell office:value-type="string"><text:p>OF1</text:p></table:table-cell><table:table-cell office:value-type="float" office:value="3"><text:p>3</text:p></table:table-cell><table:table-cell table:formula="of:=20*20"/><table:table-cell office:value-type="float" office:value="2"><text:p>2</text:p></table:table-cell></table:table-row>"#.to_string(),
+        ods_row(&["OF2", "3", "200", "2"]),
+    ]
+    .concat();
+    let inv = read(&ods(dir.path(), "f.ods", &xml));
+    assert_eq!(rejected_rows(&inv), vec![2], "{:#?}", inv.problems);
+    let p = problems_at(&inv, 2, "plan_area_m2", Severity::Error);
+    assert!(
+        p[0].message.contains("formula without a cached value"),
+        "{p:?}"
+    );
+}
