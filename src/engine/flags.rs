@@ -1,6 +1,7 @@
 /*!
-Method §10: flag tests as small functions (soft / weak storey, boundary-element displacement
-check, thresholds). The engine in [`super`] assembles the flags of a building from them.
+Method §10: the flags. Each test is a small function (soft / weak storey, boundary-element
+displacement check, thresholds); [`raise`] applies them to one screened building and writes
+one flag per code and direction with its reason and triggering numbers (wall ids named).
 */
 
 use crate::model::{Dir, PerDir, YesNo};
