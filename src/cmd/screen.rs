@@ -93,8 +93,15 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
     progress.finish();
     let loaded = loaded?;
     if loaded.inventory.buildings.is_empty() {
-        for p in &loaded.inventory.problems {
+        const SHOWN: usize = 20;
+        for p in loaded.inventory.problems.iter().take(SHOWN) {
             eprintln!("{p}");
+        }
+        if loaded.inventory.problems.len() > SHOWN {
+            eprintln!(
+                "… and {} more problems (`seistriage check` lists them all)",
+                loaded.inventory.problems.len() - SHOWN
+            );
         }
         eprintln!(
             "seistriage: {}: no valid building row; nothing to screen",
@@ -106,12 +113,19 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
     let report = pipeline::screen(&loaded);
     progress.finish();
     if report.buildings.is_empty() {
-        for n in &report.not_screened {
+        const SHOWN: usize = 20;
+        for n in report.not_screened.iter().take(SHOWN) {
             eprintln!(
                 "buildings, row {}: {}: {}",
                 n.row,
                 n.id,
                 n.reasons.join("; ")
+            );
+        }
+        if report.not_screened.len() > SHOWN {
+            eprintln!(
+                "… and {} more rows not screened (`seistriage check` lists them all)",
+                report.not_screened.len() - SHOWN
             );
         }
         eprintln!(

@@ -56,7 +56,7 @@ pub fn summary(report: &Report, written: &[(String, PathBuf)]) -> String {
         let _ = writeln!(s, "Ten highest priorities");
         let _ = writeln!(
             s,
-            "  {:>5}  {:<14} {:<28} {:>5}  {:>6}  governing",
+            "  {:>5}  {:<14} {:<34} {:>5}  {:>6}  governing",
             "rank", "id", "name", "class", "score"
         );
         for b in report.buildings.iter().take(10) {
@@ -67,10 +67,10 @@ pub fn summary(report: &Report, written: &[(String, PathBuf)]) -> String {
             };
             let _ = writeln!(
                 s,
-                "  {:>5}  {:<14} {:<28} {:>5}  {:>6}  {} {} {}",
+                "  {:>5}  {:<14} {:<34} {:>5}  {:>6}  {} {} {}",
                 b.rank,
                 clean(&b.id, 14),
-                clean(&b.name, 28),
+                clean(&b.name, 34),
                 b.class,
                 score,
                 b.governing.direction.code(),
@@ -97,6 +97,14 @@ pub fn summary(report: &Report, written: &[(String, PathBuf)]) -> String {
     }
     if !written.is_empty() {
         let _ = writeln!(s);
+        if written.iter().any(|(what, _)| what.ends_with("(CSV)")) {
+            let _ = writeln!(
+                s,
+                "Some tables are too long for a spreadsheet sheet ({} rows): they were written \
+                 as CSV files beside the workbook (listed below).",
+                super::workbook::SHEET_ROWS
+            );
+        }
         let _ = writeln!(s, "Outputs");
         for (what, p) in written {
             let _ = writeln!(s, "  {what}: {}", clean(&p.display().to_string(), 4096));

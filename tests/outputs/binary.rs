@@ -40,7 +40,7 @@ pub fn fixture_rows() -> Vec<Vec<Option<String>>> {
             1 => "@SUM(1)".to_string(),
             _ => format!("Invented block {i}"),
         };
-        let walls = if i % 3 == 0 {
+        let walls = if i.is_multiple_of(3) {
             0.0
         } else {
             1.0 + i as f64 * 0.6
@@ -61,7 +61,7 @@ pub fn fixture_rows() -> Vec<Vec<Option<String>>> {
             s(&format!("{}", walls * 0.8)),
             s("6.0"),
             s("4.0"),
-            (i % 5 != 0).then(|| (30 + 7 * i).to_string()),
+            (!i.is_multiple_of(5)).then(|| (30 + 7 * i).to_string()),
             s("0.25"),
         ]);
     }

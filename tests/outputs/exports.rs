@@ -190,3 +190,23 @@ fn terminal_summary_does_not_pass_escape_sequences_through() {
     let s = report::terminal::summary(&report, &[]);
     assert!(!s.contains('\x1b') && !s.contains('\x07'));
 }
+
+#[test]
+fn every_table_row_has_one_cell_per_column() {
+    use seistriage::report::workbook::tables::Table;
+    let report = sample::report(24);
+    for t in Table::ALL {
+        let mut buf = Vec::new();
+        report::csv::write_table(&report, t, usize::MAX, &mut buf).unwrap();
+        let mut r = csv::Reader::from_reader(buf.as_slice());
+        let width = r.headers().unwrap().len();
+        assert_eq!(width, t.columns().len(), "{t:?}");
+        let mut n = 0;
+        for rec in r.records() {
+            let rec = rec.unwrap_or_else(|e| panic!("{t:?}: {e}"));
+            assert_eq!(rec.len(), width, "{t:?}");
+            n += 1;
+        }
+        assert!(n > 0, "{t:?} has no rows in the sample");
+    }
+}

@@ -27,11 +27,11 @@ fn direction(i: usize, d: Dir, class: u8) -> DirectionResult {
         period_s: 0.3 + 0.01 * k,
         roof_drift_demand: 0.004 + 0.0001 * k,
         drift_demand: Groups {
-            walls: (i % 3 != 0).then_some(0.004 + 0.0001 * k),
+            walls: (!i.is_multiple_of(3)).then_some(0.004 + 0.0001 * k),
             columns: Some(0.006 + 0.0001 * k),
         },
         capacity: Groups {
-            walls: (i % 3 != 0).then_some(Levels {
+            walls: (!i.is_multiple_of(3)).then_some(Levels {
                 io: 0.003,
                 ls: 0.006,
                 cp: 0.008,
@@ -56,7 +56,7 @@ fn direction(i: usize, d: Dir, class: u8) -> DirectionResult {
             alpha1: 0.7,
             strength_coefficient: 0.27,
             period_frame_s: 0.41,
-            period_wall_s: (i % 2 == 0).then_some(0.33),
+            period_wall_s: (i.is_multiple_of(2)).then_some(0.33),
             ac_m2: 1.2,
             period_source: "formula",
             se_g: 0.72,
@@ -90,10 +90,10 @@ pub fn building(i: usize, class: u8) -> BuildingResult {
         name,
         district: ["Northfield", "Riverside", ""][i % 3].to_string(),
         use_: [Use::Residential, Use::School, Use::Hospital, Use::Office][i % 4],
-        occupants: (i % 5 != 0).then_some(20 + i as u64),
+        occupants: (!i.is_multiple_of(5)).then_some(20 + i as u64),
         latitude: (i % 4 != 3).then_some(40.0 + 0.001 * i as f64),
         longitude: (i % 4 != 3).then_some(22.0 + 0.002 * i as f64),
-        fault: (i % 2 == 0).then(|| FaultDistance {
+        fault: (i.is_multiple_of(2)).then(|| FaultDistance {
             name: "Invented trace".into(),
             distance_m: 1234.5 + i as f64,
         }),
@@ -102,7 +102,7 @@ pub fn building(i: usize, class: u8) -> BuildingResult {
         score: direction(i, Dir::X, class).dcr.ls,
         governing: Governing {
             direction: Dir::X,
-            group: if i % 3 == 0 {
+            group: if i.is_multiple_of(3) {
                 Group::Columns
             } else {
                 Group::Walls
@@ -115,7 +115,7 @@ pub fn building(i: usize, class: u8) -> BuildingResult {
             x: direction(i, Dir::X, class),
             y: direction(i, Dir::Y, class),
         },
-        flags: if i % 2 == 0 {
+        flags: if i.is_multiple_of(2) {
             vec![
                 Flag {
                     code: "soft-storey".into(),
@@ -145,7 +145,7 @@ pub fn building(i: usize, class: u8) -> BuildingResult {
             cost: (i != 5).then_some(100_000.0 + 1000.0 * i as f64),
             replacement_cost: Some(900_000.0),
             replace: Some(i == 5),
-            flags_after: if i % 2 == 0 {
+            flags_after: if i.is_multiple_of(2) {
                 vec!["soft-storey".into()]
             } else {
                 Vec::new()

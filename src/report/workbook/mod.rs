@@ -38,9 +38,11 @@ pub const CONSTANT_MEMORY_FROM: usize = 100_000;
 pub const LARGE_PRIORITY_ROWS: usize = 10_000;
 /// Longest text a cell holds (UTF-16 code units).
 pub const CELL_TEXT_LIMIT: usize = 32_767;
-/// Zip compression level of the package. Level 1 saves the large sheets about twice as fast
-/// as the default 6 for files about 1.5 times as large (measured, see the report module's
-/// notes in DEVELOPERS.md).
+/// Zip compression level of the package. Measured on 20,000 buildings (about 3.5 million
+/// cells, debug build, shared 2-core machine): level 3 writes in about 0.6 of the time of the
+/// default level 6 for a file 1.35 times as large; level 1 is no faster than 3 within the
+/// noise and 1.4 times larger again. Level 3 is also what desktop spreadsheet applications
+/// use.
 pub const ZIP_LEVEL: u8 = 3;
 
 /// Where each table goes.
@@ -209,7 +211,7 @@ fn write_table_sheet(
         }
         r += 1;
         *done += 1;
-        if *done % 4096 == 0 {
+        if (*done).is_multiple_of(4096) {
             progress(*done);
         }
         Ok::<(), ReportError>(())

@@ -15,6 +15,9 @@ use super::tables::{CLASS_NAMES, Kind};
 /// Fill colours of classes 1–4 (most to least severe): one violet hue, dark to pale.
 /// Relative luminance about 0.03, 0.14, 0.45, 0.84, so greyscale keeps the order.
 pub const CLASS_FILL: [u32; 4] = [0x2A_1A_4A, 0x5B_47_8C, 0xB0_A4_D0, 0xEE_EA_F6];
+/// Chart fills of classes 1–4: the same hue ramp, the two pale shades a step darker so that
+/// markers and bars stay visible on a white plot area.
+pub const CLASS_CHART_FILL: [u32; 4] = [0x2A_1A_4A, 0x5B_47_8C, 0x9A_8C_C4, 0xCE_C6_E6];
 /// Font colours of classes 1–4 (white on the two dark shades).
 pub const CLASS_FONT: [u32; 4] = [0xFF_FF_FF, 0xFF_FF_FF, 0x1A_1A_1A, 0x1A_1A_1A];
 /// Header fill: a neutral grey, distinct from every class shade.
@@ -43,6 +46,8 @@ pub struct Styles {
     pub datetime: Format,
     /// Plain text with no special format.
     pub text: Format,
+    /// Whole number aligned left (ranks in the Summary's top ten).
+    pub int_left: Format,
 }
 
 fn kind_index(k: Kind) -> usize {
@@ -114,6 +119,7 @@ impl Styles {
                 .set_border(FormatBorder::Thin),
             datetime: num("yyyy-mm-dd hh:mm \"UTC\"").set_align(FormatAlign::Left),
             text: Format::new(),
+            int_left: num("0").set_align(FormatAlign::Left),
         }
     }
 
@@ -167,6 +173,15 @@ mod tests {
             assert!(luminance(pair[0]) < luminance(pair[1]));
             assert!(contrast(pair[0], pair[1]) > 1.6, "{pair:x?}");
         }
+    }
+
+    #[test]
+    fn chart_shades_keep_the_order_and_stand_off_a_white_plot() {
+        for pair in CLASS_CHART_FILL.windows(2) {
+            assert!(luminance(pair[0]) < luminance(pair[1]));
+        }
+        // Even the palest shade differs from white by more than 1.4:1 (WCAG contrast ratio).
+        assert!(contrast(CLASS_CHART_FILL[3], 0xFF_FF_FF) > 1.4);
     }
 
     #[test]

@@ -7,11 +7,11 @@ use std::collections::BTreeMap;
 use std::path::PathBuf;
 
 use rust_xlsxwriter::{
-    Chart, ChartFormat, ChartLine, ChartLineDashType, ChartMarker, ChartMarkerType, ChartPoint,
-    ChartSolidFill, ChartType, ExcelDateTime, Worksheet,
+    Chart, ChartFont, ChartFormat, ChartLine, ChartLineDashType, ChartMarker, ChartMarkerType,
+    ChartPoint, ChartSolidFill, ChartType, ExcelDateTime, Worksheet,
 };
 
-use super::style::{CLASS_FILL, Styles};
+use super::style::{CLASS_CHART_FILL, CLASS_FILL, Styles};
 use super::tables::{CLASS_NAMES, Kind, Table, class_name, funding_cost};
 use super::{Layout, ReportError, cut};
 use crate::results::Report;
@@ -193,7 +193,9 @@ fn scatter_chart(ranges: &ChartRanges) -> Option<Chart> {
                 ChartMarker::new()
                     .set_type(markers.get(k).copied().unwrap_or(ChartMarkerType::Circle))
                     .set_size(6)
-                    .set_format(&mut fill(CLASS_FILL.get(k).copied().unwrap_or(0x80_80_80))),
+                    .set_format(&mut fill(
+                        CLASS_CHART_FILL.get(k).copied().unwrap_or(0x80_80_80),
+                    )),
             );
     }
     chart
@@ -219,8 +221,9 @@ fn bar_chart(report: &Report, ranges: &ChartRanges) -> Option<Chart> {
         .take(ranges.bars)
         .map(|b| {
             let k = usize::from(b.class.clamp(1, 4) - 1);
-            ChartPoint::new()
-                .set_format(&mut fill(CLASS_FILL.get(k).copied().unwrap_or(0x80_80_80)))
+            ChartPoint::new().set_format(&mut fill(
+                CLASS_CHART_FILL.get(k).copied().unwrap_or(0x80_80_80),
+            ))
         })
         .collect();
     let mut chart = Chart::new(ChartType::Bar);
@@ -238,13 +241,18 @@ fn bar_chart(report: &Report, ranges: &ChartRanges) -> Option<Chart> {
     ));
     // In a bar chart the category axis is the vertical one (`y_axis` here); reversed so that
     // rank 1 is on top.
-    chart.y_axis().set_reverse().set_name("Rank and id");
+    chart
+        .y_axis()
+        .set_reverse()
+        .set_name("Rank and id")
+        .set_label_interval(1)
+        .set_font(ChartFont::new().set_size(8));
     chart
         .x_axis()
         .set_name("Governing DCR (1.0 = capacity reached)")
         .set_min(0);
     chart.legend().set_hidden();
-    chart.set_width(640).set_height(560);
+    chart.set_width(640).set_height(680);
     Some(chart)
 }
 
@@ -335,7 +343,7 @@ impl Rows<'_> {
         Ok(())
     }
     fn header(&mut self, names: &[&str], styles: &Styles) -> Result<(), ReportError> {
-        self.ws.set_row_height(self.r, 30)?;
+        self.ws.set_row_height(self.r, 45)?;
         for (i, n) in names.iter().enumerate() {
             self.ws
                 .write_string_with_format(self.r, i as u16, *n, &styles.header)?;
@@ -396,10 +404,10 @@ pub fn budget_line(report: &Report) -> String {
                 money(p.budget),
                 n(walk.funded.len()),
                 money(walk.cost),
-                walk.occupants_protected,
+                money(walk.occupants_protected as f64),
                 n(best.funded.len()),
                 money(best.cost),
-                best.occupants_protected
+                money(best.occupants_protected as f64)
             );
             if let Some(m) = &best.method {
                 s.push_str(&format!(" ({m})"));
@@ -436,7 +444,7 @@ pub fn write(
     now: &ExcelDateTime,
     charts: &ChartRanges,
 ) -> Result<(), ReportError> {
-    for (c, w) in [46.0, 22.0, 28.0, 16.0, 26.0, 12.0, 16.0, 12.0]
+    for (c, w) in [46.0, 22.0, 28.0, 16.0, 26.0, 14.0, 16.0, 12.0]
         .iter()
         .enumerate()
     {
@@ -514,8 +522,8 @@ pub fn write(
                 "Large stock: the Directions sheet would pass the spreadsheet row limit \
                  ({} rows), so the per-row tables are written as CSV files beside this \
                  workbook, and the Priority sheet here holds only the first {} rows.",
-                super::SHEET_ROWS,
-                super::LARGE_PRIORITY_ROWS
+                money(super::SHEET_ROWS as f64),
+                money(super::LARGE_PRIORITY_ROWS as f64)
             ));
         } else {
             note.push_str(
@@ -523,7 +531,11 @@ pub fn write(
             );
         }
         for (what, p) in extra {
-            note.push_str(&format!(" {what}: {}.", p.display()));
+            let name = p.file_name().map_or_else(
+                || p.display().to_string(),
+                |n| n.to_string_lossy().into_owned(),
+            );
+            note.push_str(&format!(" {what}: {name}."));
         }
         w.r += 1;
         w.ws.merge_range(w.r, 0, w.r + 2, 7, cut(&note), &styles.caution)?;
@@ -564,7 +576,7 @@ pub fn write(
     )?;
     for b in report.buildings.iter().take(10) {
         let r = w.r;
-        w.ws.write_number_with_format(r, 0, b.rank as f64, styles.kind(Kind::Int))?;
+        w.ws.write_number_with_format(r, 0, b.rank as f64, &styles.int_left)?;
         w.ws.write_string(r, 1, cut(&b.id))?;
         w.ws.write_string(r, 2, cut(&b.name))?;
         w.ws.write_string(r, 3, cut(&b.district))?;
@@ -657,7 +669,7 @@ pub fn write(
     }
     if let Some(ch) = bar_chart(report, charts) {
         w.ws.insert_chart(at, 9, &ch)?;
-        at += 29;
+        at += 35;
     }
     if let Some(ch) = cost_chart(charts) {
         w.ws.insert_chart(at, 9, &ch)?;
