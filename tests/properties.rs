@@ -257,3 +257,76 @@ proptest! {
         prop_assert_eq!(a, b);
     }
 }
+
+prop_compose! {
+    fn listed_walls()(
+        ws in proptest::collection::vec((any::<bool>(), 0.5f64..10.0, 0.12f64..0.4, -15.0f64..15.0, -10.0f64..10.0, 1u32..3, 0usize..3), 0..8)
+    ) -> Vec<seistriage::model::WallRecord> {
+        ws.into_iter().enumerate().map(|(i, (x_dir, lw, tw, x, y, start, be))| seistriage::model::WallRecord {
+            row: i + 2,
+            building_id: "P".into(),
+            wall_id: format!("W{i}"),
+            direction: Some(if x_dir { Dir::X } else { Dir::Y }),
+            length_m: lw,
+            thickness_m: Some(tw),
+            x_m: Some(x),
+            y_m: Some(y),
+            boundary_elements: Some([YesNo::Yes, YesNo::No, YesNo::Unknown][be]),
+            start_storey: Some(start),
+            ..Default::default()
+        }).collect()
+    }
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 64, failure_persistence: None, .. ProptestConfig::default() })]
+
+    /// Listed walls with positions, a storeys sheet and a footprint (torsion, soft/weak
+    /// storey and discontinuity paths): every number finite, levels ordered, retrofit walls
+    /// never raise κ below the index step.
+    #[test]
+    fn listed_walls_storeys_and_footprint_stay_finite(
+        b in building(),
+        walls in listed_walls(),
+        hs in proptest::collection::vec((2.5f64..5.0, 0.0f64..0.03, 0.0f64..0.02, 0.0f64..0.02), 1..6),
+        added in 0.0f64..30.0,
+    ) {
+        let mut b = b;
+        b.column_area_m2 = b.column_area_m2.max(0.002 * b.plan_area_m2);
+        b.plan_length_x_m = Some(30.0);
+        b.plan_length_y_m = Some(20.0);
+        let storeys: Vec<seistriage::model::StoreyRecord> = hs.iter().enumerate().map(|(i, &(h, c, wx, wy))| seistriage::model::StoreyRecord {
+            row: i + 2,
+            building_id: "P".into(),
+            storey: i as u32 + 1,
+            height_m: Some(h),
+            column_area_m2: Some(c * b.plan_area_m2),
+            rc_wall_area_x_m2: Some(wx * b.plan_area_m2),
+            rc_wall_area_y_m2: Some(wy * b.plan_area_m2),
+            infill_area_x_m2: None,
+            infill_area_y_m2: Some(0.0),
+        }).collect();
+        let inp = BuildingInput {
+            record: &b,
+            walls: walls.iter().collect(),
+            storeys: storeys.iter().collect(),
+            footprint: vec![],
+            site: None,
+        };
+        let s = settings_for(0, 0);
+        let r = screen_building(&inp, &s).unwrap();
+        assert_finite(&r);
+        for l in &capacity_levels(&r) {
+            prop_assert!(l.io <= l.ls && l.ls <= l.cp);
+        }
+        let mut nw = seistriage::engine::NewWalls::default();
+        nw.area_m2.y = added;
+        let rw = seistriage::engine::screen_building_with(&inp, &s, &nw).unwrap();
+        assert_finite(&rw);
+        let below = added / r.detail.floor_area_m2 * 100.0 < s.min_new_wall_index_pct;
+        if below {
+            prop_assert!(rw.directions.y.detail.kappa <= r.directions.y.detail.kappa + 1e-12);
+        }
+        prop_assert_eq!(&rw.directions.x, &r.directions.x);
+    }
+}

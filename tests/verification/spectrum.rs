@@ -131,3 +131,32 @@ fn importance_factor_and_type_2_in_screening() {
     let r2 = Case::new(record("S2")).screen(&s2);
     assert_abs_diff_eq!(r2.directions.x.detail.tc_s, 0.25, epsilon = TOL);
 }
+
+#[test]
+fn two_parameter_spectrum_in_screening() {
+    // Method §5: γI multiplies the ASCE 7-16 §11.4.6 shape, Ts = SD1/SDS plays TC in §6,
+    // no damping correction; the row's sds_g/sd1_g override the settings.
+    use super::bldg::{Case, record};
+    use seistriage::settings::{Settings, Spectrum};
+    let s = Settings {
+        spectrum: Spectrum::TwoParameter,
+        sds_g: Some(0.9),
+        sd1_g: Some(0.45),
+        damping_pct: 10.0,
+        ..Settings::default()
+    };
+    let r = Case::new(record("TP")).screen(&s);
+    let y = &r.directions.y;
+    assert_abs_diff_eq!(y.detail.tc_s, 0.5, epsilon = TOL);
+    assert_abs_diff_eq!(r.detail.eta, 1.0, epsilon = TOL);
+    // T_y = 0.075·12^0.75 = 0.4836 s in [T0 0.1, Ts 0.5] → Sa = SDS = 0.9 g.
+    assert_abs_diff_eq!(y.detail.se_g, 0.9, epsilon = TOL);
+    let mut rec = record("TP2");
+    rec.sds_g = Some(1.2);
+    rec.sd1_g = Some(0.3);
+    let r = Case::new(rec).screen(&s);
+    assert_abs_diff_eq!(r.directions.y.detail.tc_s, 0.25, epsilon = TOL);
+    // T 0.4836 > Ts 0.25 → SD1/T.
+    let t = 0.075 * 12.0f64.powf(0.75);
+    assert_abs_diff_eq!(r.directions.y.detail.se_g, 0.3 / t, epsilon = TOL);
+}
