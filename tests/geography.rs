@@ -482,3 +482,69 @@ fn many_buildings_many_districts_give_the_same_answer_as_a_linear_scan() {
         assert_eq!(indexed, linear, "{lat} {lon}");
     }
 }
+
+#[test]
+fn pruned_fault_search_agrees_with_measuring_every_trace() {
+    use seistriage::geography::near_fault_limit_km;
+    use seistriage::geography::sphere::point_polyline_distance_m;
+    let mut state = 99_u64;
+    let mut next = || {
+        state = state.wrapping_mul(6364136223846793005).wrapping_add(1442695040888963407);
+        (state >> 11) as f64 / (1u64 << 53) as f64
+    };
+    let mut feats = Vec::new();
+    for t in 0..25 {
+        let (mut x, mut y) = (20.0 + next() * 1.0, 40.0 + next() * 0.8);
+        let mut coords = Vec::new();
+        for _ in 0..(2 + t % 11) {
+            coords.push(format!("[{x},{y}]"));
+            x += (next() - 0.5) * 0.08;
+            y += (next() - 0.5) * 0.08;
+        }
+        let mw = if t % 4 == 0 {
+            String::new()
+        } else {
+            format!(r#","mw":{}"#, 5.5 + next() * 2.0)
+        };
+        feats.push(feature(
+            &format!(r#""name":"F{t}"{mw}"#),
+            &format!(r#"{{"type":"LineString","coordinates":[{}]}}"#, coords.join(",")),
+        ));
+    }
+    let (g, problems) = Geography::from_geojson_str(None, Some(&collection(&feats))).unwrap();
+    assert!(problems.is_empty());
+    let s = Settings::default();
+    let traces: Vec<_> = g.faults().cloned().collect();
+    let mut triggered = 0;
+    for _ in 0..400 {
+        let p = LatLon::new(39.8 + next() * 1.2, 19.8 + next() * 1.4);
+        let dist = |t: &seistriage::geography::FaultTrace| {
+            t.parts
+                .iter()
+                .map(|part| point_polyline_distance_m(p, part, MEAN_EARTH_RADIUS_M))
+                .fold(f64::INFINITY, f64::min)
+        };
+        let brute_nearest = traces
+            .iter()
+            .map(|t| (dist(t), t.name.clone()))
+            .min_by(|a, b| a.0.total_cmp(&b.0))
+            .unwrap();
+        let brute_trigger = traces
+            .iter()
+            .filter_map(|t| {
+                let d = dist(t);
+                near_fault_limit_km(t.mw, &s)
+                    .filter(|l| d <= l * 1000.0)
+                    .map(|_| (d, t.name.clone()))
+            })
+            .min_by(|a, b| a.0.total_cmp(&b.0));
+        let (fault, near) = g.faults_near(p, &s);
+        let fault = fault.unwrap();
+        assert_eq!(fault.name, brute_nearest.1);
+        assert!((fault.distance_m - brute_nearest.0).abs() < 1e-3);
+        triggered += usize::from(near.is_some());
+        assert_eq!(near.map(|n| n.name), brute_trigger.map(|t| t.1));
+    }
+    // Both outcomes were exercised.
+    assert!(triggered > 20 && triggered < 380, "{triggered}");
+}

@@ -39,11 +39,102 @@ pub use sphere::{BoundingCap, LatLon, MEAN_EARTH_RADIUS_M};
 use crate::model::{BuildingRecord, FaultDistance, NearFault, Problem, Severity, SiteInfo};
 use crate::settings::Settings;
 
-/// A fault trace with its bounding cap (for the distance lower bound).
+/// Segments per piece of a trace (each piece has its own bounding cap).
+const PIECE_SEGMENTS: usize = 4;
+
+/// A run of consecutive segments of one polyline of a trace, with its bounding cap.
+#[derive(Debug, Clone)]
+struct Piece {
+    /// Polyline index within the trace.
+    part: usize,
+    /// First vertex index.
+    first: usize,
+    /// Last vertex index (inclusive).
+    last: usize,
+    /// Cap around the piece's vertices (`None`: no bound, always measured).
+    cap: Option<BoundingCap>,
+}
+
+/// A fault trace with its vertices as unit vectors and the bounding caps that give lower
+/// bounds of the distance to the whole trace and to each piece of it.
 #[derive(Debug, Clone)]
 struct IndexedTrace {
     trace: FaultTrace,
     cap: Option<BoundingCap>,
+    vectors: Vec<Vec<sphere::Vec3>>,
+    pieces: Vec<Piece>,
+}
+
+impl IndexedTrace {
+    fn new(trace: FaultTrace) -> Self {
+        let cap = BoundingCap::around(trace.parts.iter().flatten());
+        let vectors = trace
+            .parts
+            .iter()
+            .map(|part| part.iter().map(|p| sphere::unit(*p)).collect())
+            .collect();
+        let mut pieces = Vec::new();
+        for (k, part) in trace.parts.iter().enumerate() {
+            let mut first = 0;
+            loop {
+                let last = (first + PIECE_SEGMENTS).min(part.len().saturating_sub(1));
+                let cap = part
+                    .get(first..=last)
+                    .and_then(|v| BoundingCap::around(v.iter()));
+                pieces.push(Piece {
+                    part: k,
+                    first,
+                    last,
+                    cap,
+                });
+                if last + 1 >= part.len() {
+                    break;
+                }
+                first = last;
+            }
+        }
+        Self {
+            trace,
+            cap,
+            vectors,
+            pieces,
+        }
+    }
+
+    /// The closest point of the trace to `p` and its angular distance (rad), looking only
+    /// at pieces whose lower bound does not exceed `cutoff` (rad); `None` when every piece
+    /// is farther than `cutoff` (then the exact distance does not matter).
+    fn closest(&self, p: sphere::Vec3, cutoff: f64) -> Option<(sphere::Vec3, f64)> {
+        let mut best: Option<(sphere::Vec3, f64)> = None;
+        for piece in &self.pieces {
+            let bound = piece.cap.map_or(0.0, |c| c.lower_bound_rad(p));
+            if bound > cutoff || best.is_some_and(|(_, d)| bound >= d) {
+                continue;
+            }
+            let Some(vs) = self
+                .vectors
+                .get(piece.part)
+                .and_then(|v| v.get(piece.first..=piece.last))
+            else {
+                continue;
+            };
+            let mut consider = |foot: sphere::Vec3, d: f64| {
+                if best.is_none_or(|(_, b)| d < b) {
+                    best = Some((foot, d));
+                }
+            };
+            if let [only] = vs {
+                consider(*only, sphere::angle(p, *only));
+            }
+            for w in vs.windows(2) {
+                if let [a, b] = w {
+                    let (foot, d) = sphere::segment_foot(p, *a, *b);
+                    consider(foot, d);
+                }
+            }
+        }
+        best
+    }
 }
 
 type BoxEntry = GeomWithData<Rectangle<[f64; 2]>, usize>;
@@ -191,13 +282,7 @@ impl Geography {
             by_name.entry(d.name.clone()).or_insert(i);
             by_lower_name.entry(d.name.to_lowercase()).or_insert(i);
         }
-        let traces = traces
-            .into_iter()
-            .map(|trace| {
-                let cap = BoundingCap::around(trace.parts.iter().flatten());
-                IndexedTrace { trace, cap }
-            })
-            .collect();
+        let traces = traces.into_iter().map(IndexedTrace::new).collect();
         Geography {
             districts,
             district_boxes: RTree::bulk_load(boxes),
@@ -247,45 +332,52 @@ impl Geography {
 
     /// The nearest trace (ties: first in file order) and the trace that triggers the
     /// near-fault flag (the nearest among those within their limit), for a point.
+    ///
+    /// Traces are visited in order of their cap's lower bound; a trace is measured only if
+    /// the bound could beat the nearest so far or lies within the trace's near-fault limit,
+    /// and within a trace only the pieces whose bound passes the same test. Distances are
+    /// compared as angles; the reported distance is the Haversine distance from the point
+    /// to the closest point found.
     pub fn faults_near(
         &self,
         p: LatLon,
         settings: &Settings,
     ) -> (Option<FaultDistance>, Option<NearFault>) {
         let r = MEAN_EARTH_RADIUS_M;
+        let vp = sphere::unit(p);
         let mut order: Vec<(f64, usize)> = self
             .traces
             .iter()
             .enumerate()
-            .map(|(i, t)| (t.cap.map_or(0.0, |c| c.lower_bound_m(p, r)), i))
+            .map(|(i, t)| (t.cap.map_or(0.0, |c| c.lower_bound_rad(vp)), i))
             .collect();
         order.sort_by(|a, b| a.0.total_cmp(&b.0).then(a.1.cmp(&b.1)));
-        let mut nearest: Option<(f64, usize)> = None;
-        let mut trigger: Option<(f64, usize, f64)> = None;
+        // (angle, trace index, closest point)
+        let mut nearest: Option<(f64, usize, sphere::Vec3)> = None;
+        // (angle, trace index, closest point, limit in m)
+        let mut trigger: Option<(f64, usize, sphere::Vec3, f64)> = None;
         for (bound, i) in order {
             let Some(t) = self.traces.get(i) else {
                 continue;
             };
             let limit_m = near_fault_limit_km(t.trace.mw, settings).map(|km| km * 1000.0);
-            let could_be_nearest = nearest.is_none_or(|(d, _)| bound <= d);
-            let could_trigger = limit_m.is_some_and(|l| bound <= l);
-            if !could_be_nearest && !could_trigger {
+            let best_so_far = nearest.map_or(f64::INFINITY, |(d, _, _)| d);
+            // Beyond this angle the trace can neither be the nearest nor trigger.
+            let cutoff = best_so_far.max(limit_m.map_or(f64::NEG_INFINITY, |l| l / r));
+            if bound > cutoff {
                 continue;
             }
-            let d = t
-                .trace
-                .parts
-                .iter()
-                .map(|part| sphere::point_polyline_distance_m(p, part, r))
-                .fold(f64::INFINITY, f64::min);
-            if nearest.is_none_or(|(best, j)| (d, i) < (best, j)) {
-                nearest = Some((d, i));
+            let Some((foot, d)) = t.closest(vp, cutoff) else {
+                continue;
+            };
+            if nearest.is_none_or(|(best, j, _)| (d, i) < (best, j)) {
+                nearest = Some((d, i, foot));
             }
             if let Some(l) = limit_m
-                && d <= l
-                && trigger.is_none_or(|(best, j, _)| (d, i) < (best, j))
+                && d * r <= l
+                && trigger.is_none_or(|(best, j, _, _)| (d, i) < (best, j))
             {
-                trigger = Some((d, i, l));
+                trigger = Some((d, i, foot, l));
             }
         }
         let name_of = |i: usize| {
@@ -294,13 +386,14 @@ impl Geography {
                 .map(|t| t.trace.name.clone())
                 .unwrap_or_default()
         };
-        let fault = nearest.map(|(d, i)| FaultDistance {
+        let distance = |foot: sphere::Vec3| sphere::haversine_m(p, sphere::position(foot), r);
+        let fault = nearest.map(|(_, i, foot)| FaultDistance {
             name: name_of(i),
-            distance_m: d,
+            distance_m: distance(foot),
         });
-        let near = trigger.map(|(d, i, l)| NearFault {
+        let near = trigger.map(|(_, i, foot, l)| NearFault {
             name: name_of(i),
-            distance_m: d,
+            distance_m: distance(foot),
             mw: self.traces.get(i).and_then(|t| t.trace.mw),
             limit_km: l / 1000.0,
         });

@@ -29,7 +29,8 @@ impl LatLon {
     }
 }
 
-type Vec3 = [f64; 3];
+/// An earth-centred vector (unit length for positions).
+pub type Vec3 = [f64; 3];
 
 fn dot(a: Vec3, b: Vec3) -> f64 {
     a[0] * b[0] + a[1] * b[1] + a[2] * b[2]
@@ -56,13 +57,13 @@ fn sub(a: Vec3, b: Vec3) -> Vec3 {
 }
 
 /// Unit vector (earth-centred, x towards 0°/0°, z towards the north pole) of a position.
-fn unit(p: LatLon) -> Vec3 {
+pub fn unit(p: LatLon) -> Vec3 {
     let (phi, lam) = (p.lat.to_radians(), p.lon.to_radians());
     [phi.cos() * lam.cos(), phi.cos() * lam.sin(), phi.sin()]
 }
 
 /// Position of a (not necessarily unit) earth-centred vector.
-fn position(v: Vec3) -> LatLon {
+pub fn position(v: Vec3) -> LatLon {
     LatLon {
         lat: v[2].atan2(v[0].hypot(v[1])).to_degrees(),
         lon: v[1].atan2(v[0]).to_degrees(),
@@ -70,7 +71,7 @@ fn position(v: Vec3) -> LatLon {
 }
 
 /// Angle between two vectors (rad), by atan2 of |a×b| and a·b: accurate at every angle.
-fn angle(a: Vec3, b: Vec3) -> f64 {
+pub fn angle(a: Vec3, b: Vec3) -> f64 {
     norm(cross(a, b)).atan2(dot(a, b))
 }
 
@@ -91,28 +92,42 @@ pub fn haversine_m(p: LatLon, q: LatLon, radius_m: f64) -> f64 {
 ///
 /// The foot of the perpendicular from `p` to the arc's great circle (the cross-track point
 /// of the Aviation Formulary, E. Williams) is the answer when it lies between `a` and `b`
-/// (its along-track position is inside the arc); otherwise the nearer end point is. Done
-/// with earth-centred unit vectors: n = a × b is the circle's pole, the foot is p minus
-/// its component along n, and it lies on the arc when (a × foot)·n ≥ 0 and (foot × b)·n ≥ 0.
+/// (its along-track position is inside the arc); otherwise the nearer end point is. See
+/// [`segment_foot`] for the vector form.
+pub fn closest_point_on_segment(p: LatLon, a: LatLon, b: LatLon) -> LatLon {
+    let (foot, _) = segment_foot(unit(p), unit(a), unit(b));
+    position(foot)
+}
+
+/// Vector form of [`closest_point_on_segment`] on unit vectors: returns the closest point
+/// of the arc `a`–`b` to `p` (a vector, not necessarily of unit length) and its angular
+/// distance from `p` (rad). n = a × b is the circle's pole; the foot is p minus its
+/// component along n; it lies on the arc when (a × foot)·n ≥ 0 and (foot × b)·n ≥ 0.
 /// Degenerate arcs (a = b, or a and b antipodal so that the arc is undefined) and a point at
 /// the circle's pole fall back to the nearer end point.
-pub fn closest_point_on_segment(p: LatLon, a: LatLon, b: LatLon) -> LatLon {
-    let (va, vb, vp) = (unit(a), unit(b), unit(p));
-    let n = cross(va, vb);
-    let nn = norm(n);
+pub fn segment_foot(p: Vec3, a: Vec3, b: Vec3) -> (Vec3, f64) {
     let nearer_end = || {
-        if angle(vp, va) <= angle(vp, vb) { a } else { b }
+        let (da, db) = (angle(p, a), angle(p, b));
+        if da <= db { (a, da) } else { (b, db) }
     };
+    let n = cross(a, b);
+    let nn = norm(n);
     if nn < 1e-15 {
         return nearer_end();
     }
     let n_hat = scale(n, 1.0 / nn);
-    let foot = sub(vp, scale(n_hat, dot(vp, n_hat)));
-    if norm(foot) < 1e-15 {
+    let s = dot(p, n_hat);
+    let foot = sub(p, scale(n_hat, s));
+    let foot_len = norm(foot);
+    if foot_len < 1e-15 {
         return nearer_end();
     }
-    let within = dot(cross(va, foot), n) >= 0.0 && dot(cross(foot, vb), n) >= 0.0;
-    if within { position(foot) } else { nearer_end() }
+    if dot(cross(a, foot), n) >= 0.0 && dot(cross(foot, b), n) >= 0.0 {
+        // Cross-track angle: atan2(|p·n̂|, |foot|).
+        (foot, s.abs().atan2(foot_len))
+    } else {
+        nearer_end()
+    }
 }
 
 /// Distance (m) from `p` to the closest point of the great-circle segment `a`–`b`: the
@@ -178,7 +193,12 @@ impl BoundingCap {
     /// A lower bound of the distance (m) from `p` to anything inside the cap:
     /// R · max(0, angle(p, centre) − cap radius).
     pub fn lower_bound_m(&self, p: LatLon, radius_m: f64) -> f64 {
-        radius_m * (angle(unit(p), self.centre) - self.radius_rad).max(0.0)
+        radius_m * self.lower_bound_rad(unit(p))
+    }
+
+    /// The same lower bound as an angle (rad), for a unit vector.
+    pub fn lower_bound_rad(&self, p: Vec3) -> f64 {
+        (angle(p, self.centre) - self.radius_rad).max(0.0)
     }
 }
 
