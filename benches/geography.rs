@@ -69,7 +69,12 @@ fn geography(with_districts: bool, with_faults: bool) -> Geography {
             coords.join(",")
         ));
     }
-    let fc = |f: &[String]| format!(r#"{{"type":"FeatureCollection","features":[{}]}}"#, f.join(","));
+    let fc = |f: &[String]| {
+        format!(
+            r#"{{"type":"FeatureCollection","features":[{}]}}"#,
+            f.join(",")
+        )
+    };
     let d = fc(&feats);
     let f = fc(&traces);
     let (g, problems) = Geography::from_geojson_str(

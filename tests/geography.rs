@@ -489,7 +489,9 @@ fn pruned_fault_search_agrees_with_measuring_every_trace() {
     use seistriage::geography::sphere::point_polyline_distance_m;
     let mut state = 99_u64;
     let mut next = || {
-        state = state.wrapping_mul(6364136223846793005).wrapping_add(1442695040888963407);
+        state = state
+            .wrapping_mul(6364136223846793005)
+            .wrapping_add(1442695040888963407);
         (state >> 11) as f64 / (1u64 << 53) as f64
     };
     let mut feats = Vec::new();
@@ -508,7 +510,10 @@ fn pruned_fault_search_agrees_with_measuring_every_trace() {
         };
         feats.push(feature(
             &format!(r#""name":"F{t}"{mw}"#),
-            &format!(r#"{{"type":"LineString","coordinates":[{}]}}"#, coords.join(",")),
+            &format!(
+                r#"{{"type":"LineString","coordinates":[{}]}}"#,
+                coords.join(",")
+            ),
         ));
     }
     let (g, problems) = Geography::from_geojson_str(None, Some(&collection(&feats))).unwrap();
@@ -547,4 +552,42 @@ fn pruned_fault_search_agrees_with_measuring_every_trace() {
     }
     // Both outcomes were exercised.
     assert!(triggered > 20 && triggered < 380, "{triggered}");
+}
+
+#[test]
+fn a_trace_bulging_past_its_vertices_is_still_found_nearest() {
+    // Trace A runs along the great circle from (70 N, 20 W) to (70 N, 20 E); its middle
+    // reaches 71.1° N (tan φ = tan 70° / cos 20°, Napier's rules), north of both vertices.
+    // A building on that middle point is 0 km from A, while a short trace B lies 5 km
+    // north of it. An index built on the vertices' boxes alone would answer B.
+    let top = (70f64.to_radians().tan() / 20f64.to_radians().cos())
+        .atan()
+        .to_degrees();
+    let b_lat = top + 5000.0 / m_per_deg();
+    let a = feature(
+        r#""name":"A","mw":6.5"#,
+        r#"{"type":"LineString","coordinates":[[-20,70],[20,70]]}"#,
+    );
+    let b = feature(
+        r#""name":"B","mw":6.5"#,
+        &format!(r#"{{"type":"LineString","coordinates":[[-0.01,{b_lat}],[0.01,{b_lat}]]}}"#),
+    );
+    let (g, _) = Geography::from_geojson_str(None, Some(&collection(&[b, a]))).unwrap();
+    let (fault, near) = g.faults_near(LatLon::new(top, 0.0), &Settings::default());
+    let fault = fault.unwrap();
+    assert_eq!(fault.name, "A");
+    assert!(fault.distance_m < 1.0, "{}", fault.distance_m);
+    assert_eq!(near.unwrap().name, "A");
+}
+
+#[test]
+fn far_from_every_trace_the_nearest_is_still_reported() {
+    // 2,000 km away: no near-fault, but the nearest trace and its distance are given.
+    let (g, _) =
+        Geography::from_geojson_str(None, Some(&collection(&[ew_trace("T", "7.5")]))).unwrap();
+    let (fault, near) = g.faults_near(LatLon::new(20.0, 0.0), &Settings::default());
+    let fault = fault.unwrap();
+    assert_eq!(fault.name, "T");
+    assert!((fault.distance_m - 20.0 * m_per_deg()).abs() < 1.0);
+    assert!(near.is_none());
 }

@@ -13,10 +13,10 @@ district hazard overrides and its distance to the nearest fault trace (inventory
   lends its `agr_g`, `ground_type`, `sds_g`, `sd1_g`; the engine applies them where the row
   gives none. Names are compared trimmed; an exact match wins, else a case-insensitive one.
 - Faults: the Haversine distance (mean Earth radius 6 371 008.8 m) to the closest point of
-  the trace's great-circle segments ([`sphere`]); traces are visited in order of a lower
-  bound from a bounding spherical cap and skipped once the bound exceeds both the best
-  distance so far and the trace's near-fault limit, so a building usually measures one or
-  two traces exactly.
+  the trace's great-circle segments ([`sphere`]). Traces are cut into pieces of a few
+  segments whose longitude/latitude boxes (poleward bulge of the arcs included) form an
+  R-tree; a building measures only the pieces whose box meets the box around a spherical
+  cap about it, so the cost per building does not grow with the number of traces.
 - Bad input never stops the screening: bad features are reported (feature number and what
   is wrong) and skipped; buildings outside every district or without coordinates are
   reported and still screened.
@@ -34,107 +34,85 @@ use rstar::RTree;
 use rstar::primitives::{GeomWithData, Rectangle};
 
 pub use features::{District, DistrictHazard, FaultTrace};
-pub use sphere::{BoundingCap, LatLon, MEAN_EARTH_RADIUS_M};
+pub use sphere::{LatLon, MEAN_EARTH_RADIUS_M};
 
 use crate::model::{BuildingRecord, FaultDistance, NearFault, Problem, Severity, SiteInfo};
 use crate::settings::Settings;
 
-/// Segments per piece of a trace (each piece has its own bounding cap).
+/// Segments per piece of a trace (each piece is one entry of the trace R-tree).
 const PIECE_SEGMENTS: usize = 4;
 
-/// A run of consecutive segments of one polyline of a trace, with its bounding cap.
+/// A run of consecutive segments of one polyline of a trace.
 #[derive(Debug, Clone)]
 struct Piece {
+    /// Trace index.
+    trace: usize,
     /// Polyline index within the trace.
     part: usize,
     /// First vertex index.
     first: usize,
     /// Last vertex index (inclusive).
     last: usize,
-    /// Cap around the piece's vertices (`None`: no bound, always measured).
-    cap: Option<BoundingCap>,
 }
 
-/// A fault trace with its vertices as unit vectors and the bounding caps that give lower
-/// bounds of the distance to the whole trace and to each piece of it.
+/// A fault trace with its vertices as unit vectors.
 #[derive(Debug, Clone)]
 struct IndexedTrace {
     trace: FaultTrace,
-    cap: Option<BoundingCap>,
     vectors: Vec<Vec<sphere::Vec3>>,
-    pieces: Vec<Piece>,
 }
 
-impl IndexedTrace {
-    fn new(trace: FaultTrace) -> Self {
-        let cap = BoundingCap::around(trace.parts.iter().flatten());
-        let vectors = trace
-            .parts
-            .iter()
-            .map(|part| part.iter().map(|p| sphere::unit(*p)).collect())
-            .collect();
-        let mut pieces = Vec::new();
-        for (k, part) in trace.parts.iter().enumerate() {
-            let mut first = 0;
-            loop {
-                let last = (first + PIECE_SEGMENTS).min(part.len().saturating_sub(1));
-                let cap = part
-                    .get(first..=last)
-                    .and_then(|v| BoundingCap::around(v.iter()));
-                pieces.push(Piece {
+/// Splits a trace into pieces of at most [`PIECE_SEGMENTS`] segments, each with its
+/// longitude/latitude box (holding the great-circle arcs, poleward bulge included; the
+/// whole longitude range for a piece crossing the antimeridian).
+fn trace_pieces(index: usize, t: &IndexedTrace) -> Vec<(Piece, [f64; 4])> {
+    let mut out = Vec::new();
+    for (k, (part, vecs)) in t.trace.parts.iter().zip(&t.vectors).enumerate() {
+        if part.is_empty() {
+            continue;
+        }
+        let mut first = 0;
+        loop {
+            let last = (first + PIECE_SEGMENTS).min(part.len() - 1);
+            let (mut lo_lon, mut lo_lat, mut hi_lon, mut hi_lat) =
+                (f64::MAX, f64::MAX, f64::MIN, f64::MIN);
+            for p in part.get(first..=last).unwrap_or_default() {
+                lo_lon = lo_lon.min(p.lon);
+                hi_lon = hi_lon.max(p.lon);
+                lo_lat = lo_lat.min(p.lat);
+                hi_lat = hi_lat.max(p.lat);
+            }
+            for w in vecs.get(first..=last).unwrap_or_default().windows(2) {
+                if let [a, b] = w {
+                    let (lo, hi) = sphere::arc_lat_range(*a, *b);
+                    lo_lat = lo_lat.min(lo);
+                    hi_lat = hi_lat.max(hi);
+                }
+            }
+            let crosses_antimeridian = part
+                .get(first..=last)
+                .unwrap_or_default()
+                .windows(2)
+                .any(|w| matches!(w, [a, b] if (a.lon - b.lon).abs() > 180.0));
+            if crosses_antimeridian {
+                (lo_lon, hi_lon) = (-180.0, 180.0);
+            }
+            out.push((
+                Piece {
+                    trace: index,
                     part: k,
                     first,
                     last,
-                    cap,
-                });
-                if last + 1 >= part.len() {
-                    break;
-                }
-                first = last;
+                },
+                [lo_lon, lo_lat, hi_lon, hi_lat],
+            ));
+            if last + 1 >= part.len() {
+                break;
             }
-        }
-        Self {
-            trace,
-            cap,
-            vectors,
-            pieces,
+            first = last;
         }
     }
-
-    /// The closest point of the trace to `p` and its angular distance (rad), looking only
-    /// at pieces whose lower bound does not exceed `cutoff` (rad); `None` when every piece
-    /// is farther than `cutoff` (then the exact distance does not matter).
-    fn closest(&self, p: sphere::Vec3, cutoff: f64) -> Option<(sphere::Vec3, f64)> {
-        let mut best: Option<(sphere::Vec3, f64)> = None;
-        for piece in &self.pieces {
-            let bound = piece.cap.map_or(0.0, |c| c.lower_bound_rad(p));
-            if bound > cutoff || best.is_some_and(|(_, d)| bound >= d) {
-                continue;
-            }
-            let Some(vs) = self
-                .vectors
-                .get(piece.part)
-                .and_then(|v| v.get(piece.first..=piece.last))
-            else {
-                continue;
-            };
-            let mut consider = |foot: sphere::Vec3, d: f64| {
-                if best.is_none_or(|(_, b)| d < b) {
-                    best = Some((foot, d));
-                }
-            };
-            if let [only] = vs {
-                consider(*only, sphere::angle(p, *only));
-            }
-            for w in vs.windows(2) {
-                if let [a, b] = w {
-                    let (foot, d) = sphere::segment_foot(p, *a, *b);
-                    consider(foot, d);
-                }
-            }
-        }
-        best
-    }
+    out
 }
 
 type BoxEntry = GeomWithData<Rectangle<[f64; 2]>, usize>;
@@ -147,6 +125,8 @@ pub struct Geography {
     by_name: HashMap<String, usize>,
     by_lower_name: HashMap<String, usize>,
     traces: Vec<IndexedTrace>,
+    pieces: Vec<Piece>,
+    piece_boxes: RTree<BoxEntry>,
     /// A districts file was given (even if none of its features was usable).
     districts_given: bool,
     /// A faults file was given.
@@ -160,9 +140,10 @@ pub fn locate(
     geo: &Geography,
     settings: &Settings,
 ) -> (HashMap<String, SiteInfo>, Vec<Problem>) {
+    let max_limit_m = geo.max_limit_m(settings);
     let placed: Vec<(SiteInfo, Vec<Problem>)> = buildings
         .par_iter()
-        .map(|b| geo.place(b, settings))
+        .map(|b| geo.place(b, settings, max_limit_m))
         .collect();
     let mut sites = HashMap::with_capacity(buildings.len());
     let mut problems = Vec::new();
@@ -282,13 +263,36 @@ impl Geography {
             by_name.entry(d.name.clone()).or_insert(i);
             by_lower_name.entry(d.name.to_lowercase()).or_insert(i);
         }
-        let traces = traces.into_iter().map(IndexedTrace::new).collect();
+        let traces: Vec<IndexedTrace> = traces
+            .into_iter()
+            .map(|trace| {
+                let vectors = trace
+                    .parts
+                    .iter()
+                    .map(|part| part.iter().map(|p| sphere::unit(*p)).collect())
+                    .collect();
+                IndexedTrace { trace, vectors }
+            })
+            .collect();
+        let mut pieces = Vec::new();
+        let mut piece_boxes = Vec::new();
+        for (i, t) in traces.iter().enumerate() {
+            for (piece, [x0, y0, x1, y1]) in trace_pieces(i, t) {
+                piece_boxes.push(GeomWithData::new(
+                    Rectangle::from_corners([x0, y0], [x1, y1]),
+                    pieces.len(),
+                ));
+                pieces.push(piece);
+            }
+        }
         Geography {
             districts,
             district_boxes: RTree::bulk_load(boxes),
             by_name,
             by_lower_name,
             traces,
+            pieces,
+            piece_boxes: RTree::bulk_load(piece_boxes),
             districts_given: true,
             faults_given: true,
         }
@@ -330,56 +334,93 @@ impl Geography {
             .and_then(|&i| self.districts.get(i))
     }
 
+    /// The largest near-fault limit (m) of any trace under these settings (0 when none).
+    fn max_limit_m(&self, settings: &Settings) -> f64 {
+        self.traces
+            .iter()
+            .filter_map(|t| near_fault_limit_km(t.trace.mw, settings))
+            .fold(0.0, f64::max)
+            * 1000.0
+    }
+
     /// The nearest trace (ties: first in file order) and the trace that triggers the
     /// near-fault flag (the nearest among those within their limit), for a point.
-    ///
-    /// Traces are visited in order of their cap's lower bound; a trace is measured only if
-    /// the bound could beat the nearest so far or lies within the trace's near-fault limit,
-    /// and within a trace only the pieces whose bound passes the same test. Distances are
-    /// compared as angles; the reported distance is the Haversine distance from the point
-    /// to the closest point found.
     pub fn faults_near(
         &self,
         p: LatLon,
         settings: &Settings,
     ) -> (Option<FaultDistance>, Option<NearFault>) {
+        self.faults_near_within(p, settings, self.max_limit_m(settings))
+    }
+
+    /// [`Self::faults_near`] with the largest near-fault limit precomputed.
+    ///
+    /// Search: the R-tree of trace pieces is asked for every piece whose box meets the box
+    /// around the cap of radius D about the point ([`sphere::cap_box`]); that set holds every
+    /// piece within D. Starting from D = the largest near-fault limit, the triggering trace is
+    /// settled in the first round; D grows fourfold until the nearest piece found lies within
+    /// D, which proves it the nearest of all. Distances are compared as angles; the reported
+    /// distance is the Haversine distance from the point to the closest point found.
+    fn faults_near_within(
+        &self,
+        p: LatLon,
+        settings: &Settings,
+        max_limit_m: f64,
+    ) -> (Option<FaultDistance>, Option<NearFault>) {
         let r = MEAN_EARTH_RADIUS_M;
-        let vp = sphere::unit(p);
-        let mut order: Vec<(f64, usize)> = self
-            .traces
-            .iter()
-            .enumerate()
-            .map(|(i, t)| (t.cap.map_or(0.0, |c| c.lower_bound_rad(vp)), i))
-            .collect();
-        order.sort_by(|a, b| a.0.total_cmp(&b.0).then(a.1.cmp(&b.1)));
-        // (angle, trace index, closest point)
-        let mut nearest: Option<(f64, usize, sphere::Vec3)> = None;
-        // (angle, trace index, closest point, limit in m)
-        let mut trigger: Option<(f64, usize, sphere::Vec3, f64)> = None;
-        for (bound, i) in order {
-            let Some(t) = self.traces.get(i) else {
-                continue;
-            };
-            let limit_m = near_fault_limit_km(t.trace.mw, settings).map(|km| km * 1000.0);
-            let best_so_far = nearest.map_or(f64::INFINITY, |(d, _, _)| d);
-            // Beyond this angle the trace can neither be the nearest nor trigger.
-            let cutoff = best_so_far.max(limit_m.map_or(f64::NEG_INFINITY, |l| l / r));
-            if bound > cutoff {
-                continue;
-            }
-            let Some((foot, d)) = t.closest(vp, cutoff) else {
-                continue;
-            };
-            if nearest.is_none_or(|(best, j, _)| (d, i) < (best, j)) {
-                nearest = Some((d, i, foot));
-            }
-            if let Some(l) = limit_m
-                && d * r <= l
-                && trigger.is_none_or(|(best, j, _, _)| (d, i) < (best, j))
-            {
-                trigger = Some((d, i, foot, l));
-            }
+        if self.traces.is_empty() {
+            return (None, None);
         }
+        let vp = sphere::unit(p);
+        // Per trace: (angle, closest point), for the traces met in the current round.
+        let mut per_trace: Vec<(usize, f64, sphere::Vec3)> = Vec::new();
+        let mut radius_m = max_limit_m.max(1000.0);
+        let mut trigger: Option<(f64, usize, sphere::Vec3, f64)> = None;
+        let mut first_round = true;
+        let nearest = loop {
+            per_trace.clear();
+            let [x0, y0, x1, y1] = sphere::cap_box(p, radius_m / r);
+            let query = rstar::AABB::from_corners([x0, y0], [x1, y1]);
+            for entry in self.piece_boxes.locate_in_envelope_intersecting(&query) {
+                let Some(piece) = self.pieces.get(entry.data) else {
+                    continue;
+                };
+                let Some((foot, d)) = self.piece_closest(piece, vp) else {
+                    continue;
+                };
+                match per_trace.iter_mut().find(|(t, _, _)| *t == piece.trace) {
+                    Some(slot) if d < slot.1 => *slot = (piece.trace, d, foot),
+                    Some(_) => {}
+                    None => per_trace.push((piece.trace, d, foot)),
+                }
+            }
+            if first_round {
+                for &(i, d, foot) in &per_trace {
+                    let limit = self
+                        .traces
+                        .get(i)
+                        .and_then(|t| near_fault_limit_km(t.trace.mw, settings))
+                        .map(|km| km * 1000.0);
+                    if let Some(l) = limit
+                        && d * r <= l
+                        && trigger.is_none_or(|(best, j, _, _)| (d, i) < (best, j))
+                    {
+                        trigger = Some((d, i, foot, l));
+                    }
+                }
+                first_round = false;
+            }
+            let best = per_trace
+                .iter()
+                .copied()
+                .min_by(|a, b| a.1.total_cmp(&b.1).then(a.0.cmp(&b.0)));
+            let whole_world = radius_m >= std::f64::consts::PI * r;
+            match best {
+                Some((i, d, foot)) if d * r <= radius_m || whole_world => break Some((d, i, foot)),
+                None if whole_world => break None,
+                _ => radius_m *= 4.0,
+            }
+        };
         let name_of = |i: usize| {
             self.traces
                 .get(i)
@@ -400,8 +441,32 @@ impl Geography {
         (fault, near)
     }
 
+    /// The closest point of one piece to the unit vector `p`, with its angle (rad).
+    fn piece_closest(&self, piece: &Piece, p: sphere::Vec3) -> Option<(sphere::Vec3, f64)> {
+        let vs = self
+            .traces
+            .get(piece.trace)?
+            .vectors
+            .get(piece.part)?
+            .get(piece.first..=piece.last)?;
+        if let [only] = vs {
+            return Some((*only, sphere::angle(p, *only)));
+        }
+        vs.windows(2)
+            .filter_map(|w| match w {
+                [a, b] => Some(sphere::segment_foot(p, *a, *b)),
+                _ => None,
+            })
+            .min_by(|a, b| a.1.total_cmp(&b.1))
+    }
+
     /// District, hazard and fault data of one building, with the problems found.
-    fn place(&self, b: &BuildingRecord, settings: &Settings) -> (SiteInfo, Vec<Problem>) {
+    fn place(
+        &self,
+        b: &BuildingRecord,
+        settings: &Settings,
+        max_limit_m: f64,
+    ) -> (SiteInfo, Vec<Problem>) {
         let mut problems = Vec::new();
         let warn = |column: &str, message: String| Problem {
             sheet: "buildings".into(),
@@ -480,7 +545,7 @@ impl Geography {
         if self.faults_given {
             match point {
                 Some(p) => {
-                    let (fault, near) = self.faults_near(p, settings);
+                    let (fault, near) = self.faults_near_within(p, settings, max_limit_m);
                     site.fault = fault;
                     site.near_fault = near;
                 }
