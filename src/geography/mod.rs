@@ -357,10 +357,12 @@ impl Geography {
     ///
     /// Search: the R-tree of trace pieces is asked for every piece whose box meets the box
     /// around the cap of radius D about the point ([`sphere::cap_box`]); that set holds every
-    /// piece within D. Starting from D = the largest near-fault limit, the triggering trace is
-    /// settled in the first round; D grows fourfold until the nearest piece found lies within
-    /// D, which proves it the nearest of all. Distances are compared as angles; the reported
-    /// distance is the Haversine distance from the point to the closest point found.
+    /// piece within D. Round 1 uses D = the largest near-fault limit: it settles the
+    /// triggering trace, and the nearest trace when one lies within D. Otherwise the piece
+    /// nearest in plain degrees (R-tree nearest neighbour) is measured; its distance bounds
+    /// the true nearest distance from above, and round 2 with D = that bound finds the
+    /// nearest. Distances are compared as angles; the reported distance is the Haversine
+    /// distance from the point to the closest point found.
     fn faults_near_within(
         &self,
         p: LatLon,
@@ -372,55 +374,43 @@ impl Geography {
             return (None, None);
         }
         let vp = sphere::unit(p);
-        // Per trace: (angle, closest point), for the traces met in the current round.
-        let mut per_trace: Vec<(usize, f64, sphere::Vec3)> = Vec::new();
-        let mut radius_m = max_limit_m.max(1000.0);
+        // Round 1: every piece within the largest near-fault limit.
+        let radius_m = max_limit_m.max(1000.0);
+        let per_trace = self.traces_within(p, vp, radius_m);
         let mut trigger: Option<(f64, usize, sphere::Vec3, f64)> = None;
-        let mut first_round = true;
-        let nearest = loop {
-            per_trace.clear();
-            let [x0, y0, x1, y1] = sphere::cap_box(p, radius_m / r);
-            let query = rstar::AABB::from_corners([x0, y0], [x1, y1]);
-            for entry in self.piece_boxes.locate_in_envelope_intersecting(&query) {
-                let Some(piece) = self.pieces.get(entry.data) else {
-                    continue;
-                };
-                let Some((foot, d)) = self.piece_closest(piece, vp) else {
-                    continue;
-                };
-                match per_trace.iter_mut().find(|(t, _, _)| *t == piece.trace) {
-                    Some(slot) if d < slot.1 => *slot = (piece.trace, d, foot),
-                    Some(_) => {}
-                    None => per_trace.push((piece.trace, d, foot)),
-                }
+        for &(i, d, foot) in &per_trace {
+            let limit = self
+                .traces
+                .get(i)
+                .and_then(|t| near_fault_limit_km(t.trace.mw, settings))
+                .map(|km| km * 1000.0);
+            if let Some(l) = limit
+                && d * r <= l
+                && trigger.is_none_or(|(best, j, _, _)| (d, i) < (best, j))
+            {
+                trigger = Some((d, i, foot, l));
             }
-            if first_round {
-                for &(i, d, foot) in &per_trace {
-                    let limit = self
-                        .traces
-                        .get(i)
-                        .and_then(|t| near_fault_limit_km(t.trace.mw, settings))
-                        .map(|km| km * 1000.0);
-                    if let Some(l) = limit
-                        && d * r <= l
-                        && trigger.is_none_or(|(best, j, _, _)| (d, i) < (best, j))
-                    {
-                        trigger = Some((d, i, foot, l));
-                    }
-                }
-                first_round = false;
-            }
-            let best = per_trace
-                .iter()
+        }
+        let best_of = |v: &[(usize, f64, sphere::Vec3)]| {
+            v.iter()
                 .copied()
-                .min_by(|a, b| a.1.total_cmp(&b.1).then(a.0.cmp(&b.0)));
-            let whole_world = radius_m >= std::f64::consts::PI * r;
-            match best {
-                Some((i, d, foot)) if d * r <= radius_m || whole_world => break Some((d, i, foot)),
-                None if whole_world => break None,
-                _ => radius_m *= 4.0,
-            }
+                .min_by(|a, b| a.1.total_cmp(&b.1).then(a.0.cmp(&b.0)))
         };
+        let mut nearest = best_of(&per_trace).filter(|&(_, d, _)| d * r <= radius_m);
+        if nearest.is_none() {
+            // Round 2: the piece nearest in plain degrees gives an upper bound of the true
+            // nearest distance; every piece within that bound is then measured.
+            let upper = self
+                .piece_boxes
+                .nearest_neighbor(&[p.lon, p.lat])
+                .and_then(|e| self.pieces.get(e.data))
+                .and_then(|piece| self.piece_closest(piece, vp))
+                .map(|(_, d)| d * r);
+            if let Some(upper) = upper {
+                nearest = best_of(&self.traces_within(p, vp, upper * (1.0 + 1e-9) + 1e-6));
+            }
+        }
+        let nearest = nearest.map(|(i, d, foot)| (d, i, foot));
         let name_of = |i: usize| {
             self.traces
                 .get(i)
@@ -439,6 +429,34 @@ impl Geography {
             limit_km: l / 1000.0,
         });
         (fault, near)
+    }
+
+    /// Per trace met: (trace index, angle in rad, closest point), over every piece whose box
+    /// meets the box around the cap of radius `radius_m` about `p` — which includes every
+    /// piece within `radius_m` of `p`.
+    fn traces_within(
+        &self,
+        p: LatLon,
+        vp: sphere::Vec3,
+        radius_m: f64,
+    ) -> Vec<(usize, f64, sphere::Vec3)> {
+        let mut per_trace: Vec<(usize, f64, sphere::Vec3)> = Vec::new();
+        let [x0, y0, x1, y1] = sphere::cap_box(p, radius_m / MEAN_EARTH_RADIUS_M);
+        let query = rstar::AABB::from_corners([x0, y0], [x1, y1]);
+        for entry in self.piece_boxes.locate_in_envelope_intersecting(&query) {
+            let Some(piece) = self.pieces.get(entry.data) else {
+                continue;
+            };
+            let Some((foot, d)) = self.piece_closest(piece, vp) else {
+                continue;
+            };
+            match per_trace.iter_mut().find(|(t, _, _)| *t == piece.trace) {
+                Some(slot) if d < slot.1 => *slot = (piece.trace, d, foot),
+                Some(_) => {}
+                None => per_trace.push((piece.trace, d, foot)),
+            }
+        }
+        per_trace
     }
 
     /// The closest point of one piece to the unit vector `p`, with its angle (rad).
