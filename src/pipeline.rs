@@ -168,6 +168,16 @@ pub fn screen(loaded: &Loaded) -> Report {
         not_screened.len(),
         &buildings,
     );
+    let mut problems = loaded.inventory.problems.clone();
+    if let Some(message) = retrofit::budget_plan_unavailable(&loaded.settings) {
+        problems.push(Problem {
+            sheet: "settings".into(),
+            row: None,
+            column: "budget".into(),
+            message,
+            severity: Severity::Warning,
+        });
+    }
     Report {
         tool: "seistriage",
         version: env!("CARGO_PKG_VERSION"),
@@ -177,6 +187,6 @@ pub fn screen(loaded: &Loaded) -> Report {
         buildings,
         budget_plan,
         not_screened,
-        problems: loaded.inventory.problems.clone(),
+        problems,
     }
 }

@@ -120,6 +120,12 @@ pub struct DirectionDetail {
     pub kappa: f64,
     /// Corner period TC (or Ts for the two-parameter spectrum) (s).
     pub tc_s: f64,
+    /// Retrofit wall area added in this direction ΔA_d (m²; 0 without retrofit).
+    pub added_wall_area_m2: f64,
+    /// Formula period before `period_factor` and any input period (s), existing walls.
+    pub period_formula_s: f64,
+    /// Soft, extreme-soft or weak storey flag in this direction (drives κ).
+    pub soft_or_weak: bool,
 }
 
 /// Building-wide intermediate numbers (for `explain` and the Directions sheet).
@@ -163,6 +169,16 @@ pub struct BuildingDetail {
     pub columns_detailed: bool,
     /// Wall shear span Lv (m).
     pub wall_shear_span_m: f64,
+    /// Column shear span Lv = h1/2 (m).
+    pub column_shear_span_m: f64,
+    /// Column yield rotation θy (None without columns).
+    pub column_theta_y: Option<f64>,
+    /// Column ultimate rotation θum after factors (None without columns).
+    pub column_theta_um: Option<f64>,
+    /// Factor applied to the spectrum (near-fault demand factor, else 1).
+    pub spectrum_factor: f64,
+    /// Governing DCR at each level (maximum over directions).
+    pub dcr_max: Levels,
 }
 
 /// Capacity of one wall (Walls sheet).

@@ -1,1 +1,117 @@
-//! Tests: regression (see DEVELOPERS.md).
+//! One test per bug found, named after it.
+
+use seistriage::input::{ReadOptions, read_inventory};
+
+fn read_csv_text(text: &str) -> seistriage::model::Inventory {
+    let dir = tempfile::tempdir().unwrap();
+    let p = dir.path().join("r.csv");
+    std::fs::write(&p, text).unwrap();
+    read_inventory(&p, &ReadOptions::default()).unwrap()
+}
+
+/// The csv crate skips blank lines and gives the next record the position where reading
+/// started (the blank line), so row numbers came out one short after each blank line.
+#[test]
+fn csv_record_after_a_blank_line_keeps_its_own_row_number() {
+    let inv = read_csv_text("id,storeys,plan_area_m2,column_area_m2\nA,3,200,2\n\n\nB,3,200,2\n");
+    let rows: Vec<_> = inv.buildings.iter().map(|b| b.row).collect();
+    assert_eq!(rows, vec![2, 5]);
+    assert_eq!(inv.blank_rows, 2);
+}
+
+/// Same with CRLF line ends: the LF of a CRLF pair must not be counted as a blank line.
+#[test]
+fn csv_crlf_line_ends_are_not_counted_as_blank_lines() {
+    let inv = read_csv_text(
+        "id,storeys,plan_area_m2,column_area_m2\r\nA,3,200,2\r\nB,3,200,2\r\n\r\nC,3,200,2\r\n",
+    );
+    let rows: Vec<_> = inv.buildings.iter().map(|b| b.row).collect();
+    assert_eq!(rows, vec![2, 3, 5]);
+    assert_eq!(inv.blank_rows, 1);
+}
+
+/// A quoted field spanning two lines is one record: the next record is the next row.
+#[test]
+fn csv_multi_line_quoted_field_is_one_row() {
+    let inv = read_csv_text(
+        "id,name,storeys,plan_area_m2,column_area_m2\nA,\"two\nlines\",3,200,2\nB,x,3,200,2\n",
+    );
+    let rows: Vec<_> = inv.buildings.iter().map(|b| b.row).collect();
+    assert_eq!(rows, vec![2, 3]);
+    assert_eq!(inv.blank_rows, 0);
+}
+
+/// Found by the hostile-input property test (corpus in
+/// tests/input_cases/hostile.proptest-regressions): calamine subtracts the start of an .xlsx
+/// `<dimension ref>` from its end and panicked on `A9:D3`. Now one "cannot read" error.
+#[test]
+fn xlsx_dimension_ending_before_it_starts_is_unreadable_not_a_panic() {
+    use std::io::{Read, Write};
+    let dir = tempfile::tempdir().unwrap();
+    let src = dir.path().join("ok.xlsx");
+    let mut wb = rust_xlsxwriter::Workbook::new();
+    let ws = wb.add_worksheet();
+    ws.set_name("buildings").unwrap();
+    for (c, h) in ["id", "storeys", "plan_area_m2", "column_area_m2"]
+        .iter()
+        .enumerate()
+    {
+        ws.write_string(0, c as u16, *h).unwrap();
+    }
+    ws.write_string(1, 0, "A").unwrap();
+    ws.write_number(1, 1, 3.0).unwrap();
+    ws.write_number(1, 2, 200.0).unwrap();
+    ws.write_number(1, 3, 2.0).unwrap();
+    wb.save(&src).unwrap();
+    let mut z = zip::ZipArchive::new(std::fs::File::open(&src).unwrap()).unwrap();
+    let bad = dir.path().join("bad.xlsx");
+    let mut out = zip::ZipWriter::new(std::fs::File::create(&bad).unwrap());
+    for i in 0..z.len() {
+        let mut f = z.by_index(i).unwrap();
+        let name = f.name().unwrap().to_string();
+        let mut b = Vec::new();
+        f.read_to_end(&mut b).unwrap();
+        if name == "xl/worksheets/sheet1.xml" {
+            let t = String::from_utf8(b).unwrap();
+            assert!(t.contains(r#"<dimension ref="A1:D2"/>"#), "{t}");
+            b = t
+                .replace(r#"<dimension ref="A1:D2"/>"#, r#"<dimension ref="A9:D3"/>"#)
+                .into_bytes();
+        }
+        out.start_file(name.as_str(), zip::write::SimpleFileOptions::default())
+            .unwrap();
+        out.write_all(&b).unwrap();
+    }
+    out.finish().unwrap();
+    let e = read_inventory(&bad, &ReadOptions::default());
+    // Either calamine reads it (release builds wrap the subtraction) or it is one clear error.
+    if let Err(e) = e {
+        assert!(e.to_string().contains("cannot read the file"), "{e}");
+    }
+}
+
+/// Found by the hostile-input property test: a compound file (.xls) cut inside a sector made
+/// calamine panic on a sector whose length is not a multiple of 4.
+#[test]
+fn truncated_compound_file_is_unreadable_not_a_panic() {
+    let wb = crate::input_cases::cases::biff_workbook(&[(0, 0), (3, 2)]);
+    let mut b = crate::input_cases::cases::compound_file(&[("Workbook", wb)]);
+    b.truncate(512 + 301); // inside the FAT sector
+    let dir = tempfile::tempdir().unwrap();
+    let p = dir.path().join("cut.xls");
+    std::fs::write(&p, &b).unwrap();
+    let e = read_inventory(&p, &ReadOptions::default()).unwrap_err();
+    assert!(e.to_string().contains("cannot read the file"), "{e}");
+}
+
+/// The delimiter was sniffed from the first non-blank line only: a title line above a
+/// `;`-separated header made the whole file read as one column (no header found).
+#[test]
+fn csv_title_line_above_a_semicolon_header_does_not_hide_the_delimiter() {
+    let inv = read_csv_text(
+        "Invented district inventory\n\nid;storeys;plan_area_m2;column_area_m2\nA;3;212,5;2\n",
+    );
+    assert_eq!(inv.buildings.len(), 1, "{:#?}", inv.problems);
+    assert_eq!(inv.buildings[0].plan_area_m2, 212.5);
+    assert_eq!(inv.buildings[0].row, 4);
+}

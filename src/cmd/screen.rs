@@ -6,6 +6,8 @@ use std::process::ExitCode;
 use anyhow::{Context, bail};
 use seistriage::pipeline::{self, RunOptions};
 use seistriage::report;
+use seistriage::report::terminal::Progress;
+use std::io::Write;
 
 /// Options of `screen` (and of `demo`, which calls it).
 #[derive(Debug, Clone)]
@@ -46,7 +48,7 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
         .out
         .clone()
         .unwrap_or_else(|| PathBuf::from("output").join(format!("{stem}-screening.xlsx")));
-    for p in [
+    let outputs: Vec<&PathBuf> = [
         Some(&out),
         o.json.as_ref(),
         o.csv.as_ref(),
@@ -54,11 +56,29 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
     ]
     .into_iter()
     .flatten()
-    {
+    .collect();
+    for (i, p) in outputs.iter().enumerate() {
         if same_file(p, &o.inventory) {
             bail!(
                 "refusing to write an output over the input file {}",
                 o.inventory.display()
+            );
+        }
+        if i == 0
+            && report::workbook::tables::Table::ALL
+                .iter()
+                .any(|t| same_file(&report::workbook::csv_path(p, *t), &o.inventory))
+        {
+            bail!(
+                "refusing to write an output over the input file {} (a large-stock CSV of {} would take its name)",
+                o.inventory.display(),
+                p.display()
+            );
+        }
+        if outputs.iter().skip(i + 1).any(|q| same_file(p, q)) {
+            bail!(
+                "two outputs would be written to the same file {}",
+                p.display()
             );
         }
     }
@@ -68,10 +88,20 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
             .num_threads(n)
             .build_global();
     }
-    let loaded = pipeline::load(&o.inventory, &o.run)?;
+    let progress = Progress::spinner(o.quiet, "reading the inventory");
+    let loaded = pipeline::load(&o.inventory, &o.run);
+    progress.finish();
+    let loaded = loaded?;
     if loaded.inventory.buildings.is_empty() {
-        for p in &loaded.inventory.problems {
+        const SHOWN: usize = 20;
+        for p in loaded.inventory.problems.iter().take(SHOWN) {
             eprintln!("{p}");
+        }
+        if loaded.inventory.problems.len() > SHOWN {
+            eprintln!(
+                "… and {} more problems (`seistriage check` lists them all)",
+                loaded.inventory.problems.len() - SHOWN
+            );
         }
         eprintln!(
             "seistriage: {}: no valid building row; nothing to screen",
@@ -79,14 +109,23 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
         );
         return Ok(ExitCode::from(1));
     }
+    let progress = Progress::spinner(o.quiet, "screening");
     let report = pipeline::screen(&loaded);
+    progress.finish();
     if report.buildings.is_empty() {
-        for n in &report.not_screened {
+        const SHOWN: usize = 20;
+        for n in report.not_screened.iter().take(SHOWN) {
             eprintln!(
                 "buildings, row {}: {}: {}",
                 n.row,
                 n.id,
                 n.reasons.join("; ")
+            );
+        }
+        if report.not_screened.len() > SHOWN {
+            eprintln!(
+                "… and {} more rows not screened (`seistriage check` lists them all)",
+                report.not_screened.len() - SHOWN
             );
         }
         eprintln!(
@@ -100,10 +139,32 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
         std::fs::create_dir_all(parent)
             .with_context(|| format!("creating {}", parent.display()))?;
     }
-    let extra = report::workbook::write(&report, &out)
-        .with_context(|| format!("writing {}", out.display()))?;
+    let progress = Progress::spinner(o.quiet, "writing the workbook");
+    let total = report::workbook::tables::RowCounts::of(&report);
+    progress.rows(
+        (total.priority
+            + total.retrofit
+            + total.directions
+            + total.walls
+            + total.flags
+            + total.not_screened
+            + total.problems) as u64,
+        "writing the workbook",
+    );
+    let extra = report::workbook::write_with_progress(&report, &out, &|n| progress.set(n));
+    progress.finish();
+    let extra = extra.with_context(|| format!("writing {}", out.display()))?;
     written.push(("workbook".into(), out.clone()));
     written.extend(extra);
+    for p in [o.json.as_ref(), o.csv.as_ref(), o.geojson.as_ref()]
+        .into_iter()
+        .flatten()
+    {
+        if let Some(parent) = p.parent().filter(|p| !p.as_os_str().is_empty()) {
+            std::fs::create_dir_all(parent)
+                .with_context(|| format!("creating {}", parent.display()))?;
+        }
+    }
     if let Some(p) = &o.json {
         report::json::write(&report, p).with_context(|| format!("writing {}", p.display()))?;
         written.push(("JSON".into(), p.clone()));
@@ -111,14 +172,20 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
     if let Some(p) = &o.csv {
         report::csv::write_priority(&report, p)
             .with_context(|| format!("writing {}", p.display()))?;
-        written.push(("CSV".into(), p.clone()));
+        written.push(("CSV (Priority)".into(), p.clone()));
     }
     if let Some(p) = &o.geojson {
         report::geojson::write(&report, p).with_context(|| format!("writing {}", p.display()))?;
         written.push(("GeoJSON".into(), p.clone()));
     }
     if !o.quiet {
-        print!("{}", report::terminal::summary(&report, &written));
+        let text = report::terminal::summary(&report, &written);
+        let mut stdout = std::io::stdout().lock();
+        // A closed stdout (`| head`) is a broken pipe: main maps it to exit 0.
+        stdout
+            .write_all(text.as_bytes())
+            .and_then(|()| stdout.flush())
+            .context("writing the summary to stdout")?;
     }
     Ok(ExitCode::SUCCESS)
 }

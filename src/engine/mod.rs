@@ -8,8 +8,25 @@ use crate::model::{
     BuildingRecord, FootprintVertex, Inventory, NotScreened, PerDir, SiteInfo, StoreyRecord,
     WallRecord,
 };
+use rayon::prelude::*;
+
 use crate::results::BuildingResult;
 use crate::settings::Settings;
+
+pub mod asce41;
+pub mod building;
+pub mod capacity;
+pub mod dcr;
+pub mod demand;
+pub mod flags;
+pub mod indices;
+pub mod n2;
+pub mod period;
+pub mod rank;
+pub mod resolve;
+pub mod spectrum;
+pub mod strength;
+pub mod torsion;
 
 /// Everything the engine needs about one building.
 #[derive(Debug, Clone)]
@@ -35,19 +52,24 @@ pub struct NewWalls {
 
 /// Screens one building; `Err` holds the reasons it cannot be screened.
 pub fn screen_building(
-    _input: &BuildingInput<'_>,
-    _settings: &Settings,
+    input: &BuildingInput<'_>,
+    settings: &Settings,
 ) -> Result<BuildingResult, Vec<String>> {
-    Err(vec!["engine not implemented yet".into()])
+    building::screen(input, settings, &NewWalls::default())
 }
 
-/// Screens one building with retrofit walls added (method §12).
+/// Screens one building with retrofit walls added (method §12): the new walls form their
+/// own element group (new_wall_* settings, ν_new, boundary elements and seismic detailing,
+/// no confidence factor), add β(fc_new)·τ_w·ΔA_d to the strength (α1 = 0.7), shorten the
+/// period by the ratio of the formula periods with and without them, and enter κ by the
+/// `min_new_wall_index_pct` rule. The soft/weak storey flags of the result are re-evaluated
+/// with the new walls.
 pub fn screen_building_with(
-    _input: &BuildingInput<'_>,
-    _settings: &Settings,
-    _new: &NewWalls,
+    input: &BuildingInput<'_>,
+    settings: &Settings,
+    new: &NewWalls,
 ) -> Result<BuildingResult, Vec<String>> {
-    Err(vec!["engine not implemented yet".into()])
+    building::screen(input, settings, new)
 }
 
 /// Groups an inventory's rows per building, in file order.
@@ -94,11 +116,17 @@ pub struct Screening {
     pub not_screened: Vec<NotScreened>,
 }
 
-/// Screens every building in parallel and ranks them (method §11).
+/// Screens every building in parallel (rayon) and ranks them (method §11). The result does
+/// not depend on row order or thread count: each building is screened independently and the
+/// order is the total order of [`rank::priority_order`].
 pub fn screen_all(inputs: &[BuildingInput<'_>], settings: &Settings) -> Screening {
+    let results: Vec<Result<BuildingResult, Vec<String>>> = inputs
+        .par_iter()
+        .map(|i| screen_building(i, settings))
+        .collect();
     let mut out = Screening::default();
-    for i in inputs {
-        match screen_building(i, settings) {
+    for (i, r) in inputs.iter().zip(results) {
+        match r {
             Ok(r) => out.buildings.push(r),
             Err(reasons) => out.not_screened.push(NotScreened {
                 sheet: "buildings".into(),
@@ -108,5 +136,7 @@ pub fn screen_all(inputs: &[BuildingInput<'_>], settings: &Settings) -> Screenin
             }),
         }
     }
+    rank::rank(&mut out.buildings);
+    out.not_screened.sort_by_key(|n| n.row);
     out
 }

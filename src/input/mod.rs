@@ -1,29 +1,50 @@
 /*!
 Reading inventories: workbooks (.xlsx, .xlsm, .xls, .ods via calamine) and CSV files into
-typed records ([`crate::model::Inventory`]) and problems. No engineering happens here.
+typed records ([`crate::model::Inventory`]) and problems. No engineering happens here:
+optional cells that are blank stay `None` and the engine resolves their defaults.
+
+Layout: [`columns`] is the one table of canonical columns, [`header`] the header-matching
+rule, [`raw`] untyped cells, budgets and the per-sheet state machine, [`xlsx`] and [`csv`]
+the sources, [`parse`] typed records per row, [`validate`] checks across rows and sheets.
 */
 
+pub mod columns;
+pub mod csv;
+pub mod guard;
+pub mod header;
+pub mod parse;
+pub mod raw;
+pub mod validate;
+pub mod xls_scan;
+pub mod xlsx;
+
+use std::cell::RefCell;
 use std::path::Path;
 
-use crate::model::Inventory;
+use crate::model::{Inventory, Problem, Severity};
+use columns::{BUILDINGS, FOOTPRINTS, SETTINGS, STOREYS, SheetSpec, WALLS};
+pub use parse::Limits;
+pub use raw::Budget;
+use raw::{CellCounter, DataRow, RawRow, SheetReader, column_letters};
+use validate::Collected;
+use xlsx::{Workbook, WorkbookKind};
 
 /// Options of the reading layer.
-#[derive(Debug, Clone)]
+#[derive(Debug, Clone, Default)]
 pub struct ReadOptions {
-    /// 1-based header row of every sheet; `None` = find it by the required names.
+    /// 1-based header row of the buildings sheet (or the CSV file); `None` = find it by the
+    /// required names. The optional sheets always find theirs.
     pub header_row: Option<usize>,
-}
-
-impl Default for ReadOptions {
-    fn default() -> Self {
-        Self { header_row: None }
-    }
+    /// Size limits enforced before allocation.
+    pub budget: Budget,
+    /// Plausibility limits of single values.
+    pub limits: Limits,
 }
 
 /// Failures that stop the whole file from being read.
 #[derive(Debug, thiserror::Error)]
 pub enum InputError {
-    /// The file cannot be opened or read.
+    /// The file cannot be opened or read, or is not a spreadsheet.
     #[error("{path}: cannot read the file: {message}")]
     Unreadable {
         /// Path.
@@ -31,18 +52,414 @@ pub enum InputError {
         /// Why.
         message: String,
     },
+    /// Password-protected (encrypted) workbook.
+    #[error(
+        "{path}: the workbook is password-protected; save a copy without a password and read that"
+    )]
+    Protected {
+        /// Path.
+        path: String,
+    },
+    /// Above a reading budget (or a zip bomb).
+    #[error("{path}: refused: {message}")]
+    TooLarge {
+        /// Path.
+        path: String,
+        /// The numbers.
+        message: String,
+    },
 }
 
-/// Reads an inventory file (workbook or CSV, by extension) into typed records and problems.
-pub fn read_inventory(path: &Path, _opts: &ReadOptions) -> Result<Inventory, InputError> {
-    Err(InputError::Unreadable {
-        path: path.display().to_string(),
-        message: "not implemented yet".into(),
+const ZIP_MAGIC: [u8; 4] = [0x50, 0x4B, 0x03, 0x04];
+const CFB_MAGIC: [u8; 8] = [0xD0, 0xCF, 0x11, 0xE0, 0xA1, 0xB1, 0x1A, 0xE1];
+
+fn unreadable(path: &str, message: impl std::fmt::Display) -> InputError {
+    InputError::Unreadable {
+        path: path.to_string(),
+        message: message.to_string(),
+    }
+}
+
+/// Everything one sheet contributes.
+struct SheetRun<'c> {
+    spec: &'static SheetSpec,
+    decimal_comma: bool,
+    limits: Limits,
+    collected: &'c RefCell<Collected>,
+}
+
+impl SheetRun<'_> {
+    fn consume(&self, row: DataRow) {
+        let mut c = self.collected.borrow_mut();
+        match self.spec.name {
+            "buildings" => {
+                let (b, problems) = parse::building(&row, self.decimal_comma, &self.limits);
+                c.buildings.push(b);
+                c.building_problems.extend(problems);
+            }
+            "walls" => {
+                let r = parse::wall(&row, self.decimal_comma);
+                c.walls.push(r);
+            }
+            "storeys" => {
+                let r = parse::storey(&row, self.decimal_comma);
+                c.storeys.push(r);
+            }
+            "footprints" => {
+                let r = parse::footprint(&row, self.decimal_comma);
+                c.footprints.push(r);
+            }
+            _ => {
+                let key = row.cells.first().map(|c| c.as_text()).unwrap_or_default();
+                let value = row.cells.get(1).map(|c| c.as_text()).unwrap_or_default();
+                // Keys are matched like headers: "Floor Weight kPa" is floor_weight_kpa.
+                let key = header::normalise(&key);
+                if !key.is_empty() {
+                    c.settings_rows.push((key, value.trim().to_string()));
+                }
+            }
+        }
+    }
+}
+
+fn truncation_problems(spec: &SheetSpec, row: &RawRow, cols: &[usize]) -> Vec<Problem> {
+    cols.iter()
+        .map(|col| Problem {
+            sheet: spec.name.into(),
+            row: Some(row.row),
+            column: column_letters(*col),
+            message: format!(
+                "expected at most {} characters in a cell, found more; the text is cut",
+                raw::MAX_CELL_CHARS
+            ),
+            severity: Severity::Warning,
+        })
+        .collect()
+}
+
+/// Runs one sheet through the state machine, given a function that streams its rows.
+#[allow(clippy::too_many_arguments)]
+fn run_sheet(
+    spec: &'static SheetSpec,
+    sheet_name: &str,
+    header_row: Option<usize>,
+    decimal_comma: bool,
+    opts: &ReadOptions,
+    path: &str,
+    collected: &RefCell<Collected>,
+    stream: impl FnOnce(
+        &mut dyn FnMut(RawRow, &[usize]) -> Result<(), InputError>,
+    ) -> Result<(), InputError>,
+) -> Result<(), InputError> {
+    let run = SheetRun {
+        spec,
+        decimal_comma,
+        limits: opts.limits,
+        collected,
+    };
+    let mut cut = Vec::new();
+    let mut reader = SheetReader::new(spec, sheet_name, header_row, &opts.budget, path, |row| {
+        run.consume(row)
+    });
+    stream(&mut |row: RawRow, truncated: &[usize]| {
+        if !truncated.is_empty() {
+            cut.extend(truncation_problems(spec, &row, truncated));
+        }
+        reader.push(row)
+    })?;
+    let summary = reader.finish()?;
+    let mut c = collected.borrow_mut();
+    c.sheet_problems.extend(summary.problems);
+    c.sheet_problems.extend(cut);
+    if spec.name == "buildings" {
+        c.blank_rows = summary.blank_rows;
+    }
+    Ok(())
+}
+
+/// Reads an inventory file (workbook or CSV) into typed records and problems.
+///
+/// The kind is decided by the file's content (zip → .xlsx/.ods, compound file → .xls or an
+/// encrypted workbook), else a `.csv`/`.txt`/`.tsv` extension means CSV; anything else is
+/// refused as not a spreadsheet.
+pub fn read_inventory(path: &Path, opts: &ReadOptions) -> Result<Inventory, InputError> {
+    let p = path.display().to_string();
+    let meta = std::fs::metadata(path).map_err(|e| unreadable(&p, e))?;
+    if meta.is_dir() {
+        return Err(unreadable(&p, "a folder, not an inventory file"));
+    }
+    if meta.len() > opts.budget.max_file_bytes {
+        return Err(InputError::TooLarge {
+            path: p,
+            message: format!(
+                "the file has {} bytes, more than the budget of {} bytes",
+                meta.len(),
+                opts.budget.max_file_bytes
+            ),
+        });
+    }
+    let ext = path
+        .extension()
+        .map(|e| e.to_string_lossy().to_ascii_lowercase())
+        .unwrap_or_default();
+    let head = xlsx::sniff(path).map_err(|e| unreadable(&p, e))?;
+    let kind = match head {
+        Some(h) if h.starts_with(&ZIP_MAGIC) => {
+            let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
+            let kind = guarded_read(&p, || {
+                xlsx::check_zip(std::io::BufReader::new(f), &p, &opts.budget)
+            })?;
+            if kind == WorkbookKind::Ods {
+                let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
+                guarded_read(&p, || {
+                    xlsx::check_ods_extent(std::io::BufReader::new(f), &p, &opts.budget)
+                })?;
+            }
+            Some(kind)
+        }
+        Some(h) if h == CFB_MAGIC => Some(if matches!(ext.as_str(), "xlsx" | "xlsm") {
+            WorkbookKind::Xlsx
+        } else {
+            guarded_read(&p, || check_xls_extent(path, &opts.budget))?;
+            WorkbookKind::Xls
+        }),
+        _ => None,
+    };
+    if matches!(kind, Some(WorkbookKind::Xls | WorkbookKind::Ods))
+        && meta.len() > opts.budget.max_dense_file_bytes
+    {
+        return Err(InputError::TooLarge {
+            path: p,
+            message: format!(
+                "the .xls/.ods file has {} bytes, more than the budget of {} bytes for workbooks read whole (save it as .xlsx, which is streamed)",
+                meta.len(),
+                opts.budget.max_dense_file_bytes
+            ),
+        });
+    }
+    let collected = RefCell::new(Collected::default());
+    let mut counter = CellCounter {
+        cells: 0,
+        max: opts.budget.max_cells,
+        path: p.clone(),
+    };
+    match kind {
+        Some(kind) => guarded_read(&p, || {
+            read_workbook(path, kind, opts, &collected, &mut counter)
+        })?,
+        None if matches!(ext.as_str(), "csv" | "txt" | "tsv") => {
+            read_csv_files(path, opts, &collected, &mut counter)?
+        }
+        None => {
+            return Err(unreadable(
+                &p,
+                "not a spreadsheet (expected .xlsx, .xlsm, .xls, .ods or .csv content)",
+            ));
+        }
+    }
+    let wall_pct = opts.limits.wall_area_mismatch_pct;
+    Ok(validate::finish(collected.into_inner(), wall_pct))
+}
+
+/// Runs a workbook read inside the panic guard (calamine can panic on malformed files).
+fn guarded_read<T>(path: &str, f: impl FnOnce() -> Result<T, InputError>) -> Result<T, InputError> {
+    guard::guarded(f).unwrap_or_else(|panic| {
+        Err(unreadable(
+            path,
+            format!("not a readable workbook (malformed content: {panic})"),
+        ))
     })
+}
+
+/// Refuses an `.xls` whose sheets would expand to more cells than the dense budget, before
+/// calamine reads it (calamine expands every sheet when the workbook is opened).
+fn check_xls_extent(path: &Path, budget: &Budget) -> Result<(), InputError> {
+    let p = path.display().to_string();
+    let bytes = std::fs::read(path).map_err(|e| unreadable(&p, e))?;
+    for (i, e) in xls_scan::sheet_extents(&bytes)
+        .unwrap_or_default()
+        .iter()
+        .enumerate()
+    {
+        let cells = e.rows.saturating_mul(e.cols);
+        if cells > budget.max_dense_cells {
+            return Err(InputError::TooLarge {
+                path: p,
+                message: format!(
+                    "sheet {} spans {} rows × {} columns = {cells} cells, more than the budget of {} for .xls (save it as .xlsx, which is streamed, or delete stray far-away cells)",
+                    i + 1,
+                    e.rows,
+                    e.cols,
+                    budget.max_dense_cells
+                ),
+            });
+        }
+    }
+    Ok(())
+}
+
+fn read_workbook(
+    path: &Path,
+    kind: WorkbookKind,
+    opts: &ReadOptions,
+    collected: &RefCell<Collected>,
+    counter: &mut CellCounter,
+) -> Result<(), InputError> {
+    let p = path.display().to_string();
+    let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
+    let mut wb = match Workbook::open(std::io::BufReader::new(f), kind, &p) {
+        Ok(wb) => wb,
+        Err(e) if kind == WorkbookKind::Xls => {
+            // A password-protected .xlsx is a compound file too, whatever its extension.
+            let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
+            match Workbook::open(std::io::BufReader::new(f), WorkbookKind::Xlsx, &p) {
+                Err(protected @ InputError::Protected { .. }) => return Err(protected),
+                _ => return Err(e),
+            }
+        }
+        Err(e) => return Err(e),
+    };
+    let names = wb.sheet_names();
+    let find = |spec: &SheetSpec| {
+        names
+            .iter()
+            .find(|n| header::normalise(n) == spec.name)
+            .cloned()
+    };
+    let buildings = match find(&BUILDINGS) {
+        Some(n) => n,
+        None => {
+            let Some(first) = names.first().cloned() else {
+                return Err(unreadable(&p, "the workbook has no sheets"));
+            };
+            collected.borrow_mut().sheet_problems.push(Problem {
+                sheet: "buildings".into(),
+                row: None,
+                column: String::new(),
+                message: format!(
+                    "expected a sheet named buildings, found sheets {}; the first sheet \"{first}\" is read as buildings",
+                    names.iter().map(|n| format!("\"{n}\"")).collect::<Vec<_>>().join(", ")
+                ),
+                severity: Severity::Warning,
+            });
+            first
+        }
+    };
+    let budget = opts.budget;
+    let sheets: [(&'static SheetSpec, Option<String>); 5] = [
+        (&BUILDINGS, Some(buildings.clone())),
+        (&WALLS, find(&WALLS).filter(|n| *n != buildings)),
+        (&STOREYS, find(&STOREYS).filter(|n| *n != buildings)),
+        (&FOOTPRINTS, find(&FOOTPRINTS).filter(|n| *n != buildings)),
+        (&SETTINGS, find(&SETTINGS).filter(|n| *n != buildings)),
+    ];
+    for (spec, name) in sheets {
+        let Some(name) = name else { continue };
+        let header_row = if spec.name == "buildings" {
+            opts.header_row
+        } else {
+            None
+        };
+        run_sheet(
+            spec,
+            &name,
+            header_row,
+            false,
+            opts,
+            &p,
+            collected,
+            |sink| wb.read_sheet(&name, &p, &budget, counter, sink),
+        )?;
+    }
+    Ok(())
+}
+
+fn read_csv_files(
+    path: &Path,
+    opts: &ReadOptions,
+    collected: &RefCell<Collected>,
+    counter: &mut CellCounter,
+) -> Result<(), InputError> {
+    let stem = path
+        .file_stem()
+        .map(|s| s.to_string_lossy().into_owned())
+        .unwrap_or_default();
+    let dir = path.parent().unwrap_or(Path::new("."));
+    let mut files: Vec<(&'static SheetSpec, std::path::PathBuf)> =
+        vec![(&BUILDINGS, path.to_path_buf())];
+    for spec in [&WALLS, &STOREYS, &FOOTPRINTS] {
+        let sibling = dir.join(format!("{stem}.{}.csv", spec.name));
+        if sibling.is_file() {
+            files.push((spec, sibling));
+        }
+    }
+    for (spec, file) in files {
+        let fp = file.display().to_string();
+        let mut info = None;
+        // The delimiter is known only once the file is sniffed; numbers are parsed after.
+        let bytes_info = csv_info(&file, &opts.budget)?;
+        let header_row = if spec.name == "buildings" {
+            opts.header_row
+        } else {
+            None
+        };
+        run_sheet(
+            spec,
+            spec.name,
+            header_row,
+            bytes_info,
+            opts,
+            &fp,
+            collected,
+            |sink| {
+                info = Some(csv::read_csv(&file, &opts.budget, counter, sink)?);
+                Ok(())
+            },
+        )?;
+        if let Some(i) = info
+            && i.windows_1252
+        {
+            collected.borrow_mut().sheet_problems.push(Problem {
+                sheet: spec.name.into(),
+                row: None,
+                column: String::new(),
+                message: format!(
+                    "expected UTF-8 text in {fp}, found other bytes; read as Windows-1252 (save as CSV UTF-8 to be sure of accents)"
+                ),
+                severity: Severity::Warning,
+            });
+        }
+    }
+    Ok(())
+}
+
+/// Whether a CSV file uses `;` (and so decimal commas), read from its first line.
+fn csv_info(file: &Path, budget: &Budget) -> Result<bool, InputError> {
+    use std::io::Read;
+    let p = file.display().to_string();
+    let meta = std::fs::metadata(file).map_err(|e| unreadable(&p, e))?;
+    if meta.len() > budget.max_file_bytes {
+        return Err(InputError::TooLarge {
+            path: p,
+            message: format!(
+                "the file has {} bytes, more than the budget of {} bytes",
+                meta.len(),
+                budget.max_file_bytes
+            ),
+        });
+    }
+    let mut head = Vec::new();
+    std::fs::File::open(file)
+        .and_then(|f| f.take(64 * 1024).read_to_end(&mut head))
+        .map_err(|e| unreadable(&p, e))?;
+    Ok(csv::delimiter_of(&head) == b';')
 }
 
 /// The header-matching rule, printed in `--help` and on the template's read-me sheet.
 pub const HEADER_RULE_HELP: &str = "Column names are matched after normalising: lower case; '²' -> '2'; brackets and \
 parentheses removed; runs of spaces, '_' and '-' -> one '_'; then one trailing unit token \
 (m, m2, mm, kn, kpa, mpa, g, s, pct, %, deg, year) is stripped. 'Plan Area [m2]', 'plan-area m²' \
-and 'PLAN_AREA_M2' all match plan_area_m2.";
+and 'PLAN_AREA_M2' all match plan_area_m2. Extra accepted names: building_id for id; \
+occupancy for use; construction_year, year_of_construction for year_built; lat for latitude; \
+lon, lng, long for longitude; stories, floors, number_of_storeys for storeys; building for \
+building_id (walls, storeys, footprints); story, floor for storey; setting, name for key.";

@@ -1,13 +1,576 @@
-//! `explain`: every step of the method for one building, as text an engineer can redo by hand.
+/*!
+`explain`: every step of the method for one building, as text an engineer can redo by hand.
 
-use crate::pipeline::Loaded;
+The numbers are those of the full screening run ([`crate::pipeline::screen`]): the building
+is looked up in the ranked report, so class, rank and every intermediate number are exactly
+what `screen` writes. The inputs are listed from the engine's own resolution, each default
+marked.
+*/
+
+use std::fmt::Write as _;
+
+use crate::engine::{self, resolve};
+use crate::model::Dir;
+use crate::pipeline::{self, Loaded};
+use crate::results::{BuildingResult, Levels};
+
+/// Formats a number at full precision for hand checks (shortest round-trip text).
+fn n(v: f64) -> String {
+    format!("{v}")
+}
+
+fn opt(v: Option<f64>) -> String {
+    v.map_or_else(|| "null".to_string(), n)
+}
+
+fn lv(l: &Levels) -> String {
+    format!("IO {} | LS {} | CP {}", n(l.io), n(l.ls), n(l.cp))
+}
 
 /// The explanation of one building, or `None` when the id is not in the inventory.
 pub fn explain(loaded: &Loaded, id: &str) -> Option<String> {
-    loaded
-        .inventory
-        .buildings
-        .iter()
-        .find(|b| b.id == id)
-        .map(|b| format!("{}\n", b.id))
+    let in_inventory = loaded.inventory.buildings.iter().any(|b| b.id == id);
+    let rejected = loaded.inventory.not_screened.iter().find(|n| n.id == id);
+    if !in_inventory {
+        return rejected.map(|ns| {
+            format!(
+                "Building {id} (buildings sheet, row {}) could not be screened:\n{}\n",
+                ns.row,
+                ns.reasons
+                    .iter()
+                    .map(|r| format!("  - {r}"))
+                    .collect::<Vec<_>>()
+                    .join("\n")
+            )
+        });
+    }
+    let report = pipeline::screen(loaded);
+    let Some(b) = report.buildings.iter().find(|b| b.id == id) else {
+        let ns = report.not_screened.iter().find(|n| n.id == id);
+        let reasons = ns.map_or_else(Vec::new, |n| n.reasons.clone());
+        return Some(format!(
+            "Building {id} could not be screened:\n{}\n",
+            reasons
+                .iter()
+                .map(|r| format!("  - {r}"))
+                .collect::<Vec<_>>()
+                .join("\n")
+        ));
+    };
+    let inputs = engine::building_inputs(&loaded.inventory, &loaded.sites);
+    let input = inputs.iter().find(|i| i.record.id == id)?;
+    let res = resolve::resolve(input, &loaded.settings).ok()?;
+    Some(render(b, &res, input, loaded, report.buildings.len()))
+}
+
+fn render(
+    b: &BuildingResult,
+    res: &resolve::Resolved,
+    input: &engine::BuildingInput<'_>,
+    loaded: &Loaded,
+    total: usize,
+) -> String {
+    let s = &loaded.settings;
+    let d = &b.detail;
+    let mark = |key: &str| {
+        if b.defaults_used.iter().any(|k| k == key) {
+            format!("  [default: {key}]")
+        } else {
+            String::new()
+        }
+    };
+    let mut o = String::new();
+    let _ = writeln!(
+        o,
+        "Building {} \"{}\" (buildings sheet, row {})",
+        b.id, b.name, b.row
+    );
+    let _ = writeln!(o, "{}", crate::CAUTION);
+    let _ = writeln!(o);
+    let _ = writeln!(
+        o,
+        "RESULT: class {} ({}), rank {} of {}, score {} (DCR at {} in direction {}, {})",
+        b.class,
+        engine::rank::class_name(b.class),
+        b.rank,
+        total,
+        n(b.score),
+        b.governing.level.code().to_uppercase(),
+        b.governing.direction.code(),
+        match b.governing.group {
+            crate::results::Group::Walls => "walls",
+            crate::results::Group::Columns => "columns",
+        }
+    );
+    let _ = writeln!(o);
+
+    let _ = writeln!(o, "§0 Inputs and quantities (method.md §0)");
+    let _ = writeln!(
+        o,
+        "  use = {}{}; importance factor γI = {} (EN 1998-1 Table 4.3)",
+        res.use_.code(),
+        mark("use"),
+        n(res.gamma_i)
+    );
+    let _ = writeln!(
+        o,
+        "  year built = {}",
+        input
+            .record
+            .year_built
+            .map_or("unknown".into(), |y| y.to_string())
+    );
+    let _ = writeln!(o, "  storeys n = {}", res.n);
+    let _ = writeln!(
+        o,
+        "  storey heights h_i = {:?} m{}{}",
+        res.heights_m,
+        mark("ground_storey_height_m"),
+        mark("storey_height_m")
+    );
+    let _ = writeln!(
+        o,
+        "  floor heights z_i = {:?} m; H = {} m",
+        d.floor_heights_m,
+        n(d.height_m)
+    );
+    let _ = writeln!(
+        o,
+        "  plan area A_plan = {} m²; total floor area A_fl = n·A_plan = {} m²",
+        n(res.plan_area_m2),
+        n(d.floor_area_m2)
+    );
+    let _ = writeln!(
+        o,
+        "  column area A_col = {} m²; column depth h_c = {} m{}",
+        n(d.column_area_m2),
+        n(res.column_depth_m),
+        mark("column_depth_m")
+    );
+    for dir in Dir::BOTH {
+        let dd = &b.directions.get(dir).detail;
+        let _ = writeln!(
+            o,
+            "  direction {}: RC wall area A_cw = {} m², infill area A_mw = {} m²",
+            dir.code(),
+            n(dd.rc_wall_area_m2),
+            n(dd.infill_area_m2)
+        );
+    }
+    let _ = writeln!(
+        o,
+        "  fc = {} MPa{}; fy = {} MPa{}; Es = {} MPa; εy = fy/Es = {}",
+        n(d.fc_mpa),
+        mark("fc_mpa"),
+        n(d.fy_mpa),
+        mark("fy_mpa"),
+        n(s.es_mpa),
+        n(d.fy_mpa / s.es_mpa)
+    );
+    let _ = writeln!(
+        o,
+        "  confidence factor CF = {} (EN 1998-3 Table 3.1; divides existing members' strengths in §8)",
+        n(s.confidence_factor)
+    );
+    let _ = writeln!(
+        o,
+        "  floor weight w = {} kPa{}; W = w·A_fl = {} kN",
+        n(res.floor_weight_kpa),
+        mark("floor_weight_kpa"),
+        n(d.weight_kn)
+    );
+    let _ = writeln!(
+        o,
+        "  boundary elements (building rule of §0) = {}{}; columns seismically detailed = {}",
+        if d.boundary_elements {
+            "present"
+        } else {
+            "absent"
+        },
+        mark("boundary_elements"),
+        if d.columns_detailed { "yes" } else { "no" }
+    );
+    match &res.hazard {
+        resolve::Hazard::Ec8 {
+            agr_g,
+            agr_source,
+            ground,
+            ground_source,
+            ..
+        } => {
+            let _ = writeln!(
+                o,
+                "  hazard: agR = {} g (from {}); ground type {} (from {}){}",
+                n(*agr_g),
+                agr_source,
+                ground,
+                ground_source,
+                mark("ground_type")
+            );
+        }
+        resolve::Hazard::TwoParameter {
+            sds_g,
+            sd1_g,
+            source,
+            ..
+        } => {
+            let _ = writeln!(
+                o,
+                "  hazard: SDS = {} g, SD1 = {} g (from {})",
+                n(*sds_g),
+                n(*sd1_g),
+                source
+            );
+        }
+    }
+    let _ = writeln!(o, "  walls:");
+    for w in &res.walls {
+        let _ = writeln!(
+            o,
+            "    {} {}: lw = {} m{}, tw = {} m{}, count {}, boundary elements {}",
+            w.dir.code(),
+            w.id,
+            n(w.lw),
+            if w.representative {
+                mark(if w.dir == Dir::X {
+                    "wall_length_x_m"
+                } else {
+                    "wall_length_y_m"
+                })
+            } else {
+                String::new()
+            },
+            n(w.tw),
+            mark("wall_thickness_m"),
+            n(w.count),
+            if w.boundary { "present" } else { "absent" }
+        );
+    }
+    if res.walls.is_empty() {
+        let _ = writeln!(o, "    none");
+    }
+    if !b.defaults_used.is_empty() {
+        let _ = writeln!(o, "  defaults used: {}", b.defaults_used.join(", "));
+    }
+    let _ = writeln!(o);
+
+    let _ = writeln!(o, "§1 Indices (Hassan & Sozen 1997)");
+    for dir in Dir::BOTH {
+        let r = b.directions.get(dir);
+        let _ = writeln!(
+            o,
+            "  {}: CI = 0.5·A_col/A_fl·100 = {} %; WI = (A_cw + {}·A_mw)/A_fl·100 = {} %; PI = WI + CI = {} %",
+            dir.code(),
+            n(r.column_index_pct),
+            n(s.infill_weight),
+            n(r.wall_index_pct),
+            n(r.priority_index_pct)
+        );
+    }
+    let _ = writeln!(
+        o,
+        "§2 Axial load ratio ν = W/((A_col + A_cw,X + A_cw,Y)·fc·1000) = {}",
+        n(b.axial_load_ratio)
+    );
+    let _ = writeln!(
+        o,
+        "§3 Strength (JBDPA 2001 first-level form): β = {} (fc {} MPa vs {} MPa)",
+        n(d.beta),
+        n(d.fc_mpa),
+        n(s.fc_reference_mpa)
+    );
+    for dir in Dir::BOTH {
+        let dd = &b.directions.get(dir).detail;
+        let _ = writeln!(
+            o,
+            "  {}: C_w = β·(τ_w·A_cw + τ_m·A_mw)·1000/W = {} (τ_w {} MPa, τ_m {} MPa{}); C_c = β·τ_c·A_col·1000/W = {} (τ_c {} MPa); α1 = {}; C_y = C_w + α1·C_c = {}",
+            dir.code(),
+            n(dd.strength_walls),
+            n(s.tau_wall_mpa),
+            n(crate::engine::strength::tau_infill_mpa(s)),
+            if dd.added_wall_area_m2 > 0.0 {
+                format!(", new walls {} m²", n(dd.added_wall_area_m2))
+            } else {
+                String::new()
+            },
+            n(dd.strength_columns),
+            n(s.tau_column_mpa),
+            n(dd.alpha1),
+            n(dd.strength_coefficient)
+        );
+    }
+    let _ = writeln!(o, "§4 Period (EN 1998-1 §4.3.3.2.2)");
+    for dir in Dir::BOTH {
+        let r = b.directions.get(dir);
+        let dd = &r.detail;
+        let _ = writeln!(
+            o,
+            "  {}: T_frame = {}·H^0.75 = {} s (eq. 4.6); Ac = Σ A_i(0.2 + min(lw_i/H, 0.9))² = {} m² (eq. 4.8); T_wall = {} s (eq. 4.7); formula T = {} s; period_factor {}; source {}; T used = {} s",
+            dir.code(),
+            n(s.ct_period),
+            n(dd.period_frame_s),
+            n(dd.ac_m2),
+            opt(dd.period_wall_s),
+            n(dd.period_formula_s),
+            n(s.period_factor),
+            dd.period_source,
+            n(r.period_s)
+        );
+    }
+    let _ = writeln!(
+        o,
+        "§5 Spectrum: {}; ag = γI·agR = {} g; η = {}; spectrum factor {}",
+        d.spectrum,
+        n(d.ag_g),
+        n(d.eta),
+        n(d.spectrum_factor)
+    );
+    for dir in Dir::BOTH {
+        let dd = &b.directions.get(dir).detail;
+        let _ = writeln!(
+            o,
+            "  {}: Se(T) = {} g; SDe(T) = Se·g·(T/2π)² = {} m (eq. 3.7)",
+            dir.code(),
+            n(dd.se_g),
+            n(dd.sde_m)
+        );
+    }
+    let _ = writeln!(
+        o,
+        "§6 N2 displacement demand (EN 1998-1 Annex B), Φ_i = z_i/H"
+    );
+    for dir in Dir::BOTH {
+        let r = b.directions.get(dir);
+        let dd = &r.detail;
+        let _ = writeln!(
+            o,
+            "  {}: Γ = {}; S_ay = C_y·n/(Γ·ΣΦ) = {} g; qu = Se/S_ay = {}; TC = {} s; branch {}; dt* = {} m; d_t = Γ·dt* = {} m; roof drift δ_r = d_t/H = {}",
+            dir.code(),
+            n(dd.gamma),
+            n(dd.say_g),
+            n(dd.qu),
+            n(dd.tc_s),
+            dd.n2_branch,
+            n(dd.dt_star_m),
+            n(dd.roof_displacement_m),
+            n(r.roof_drift_demand)
+        );
+    }
+    let _ = writeln!(o, "§7 Drift demand per element group");
+    for dir in Dir::BOTH {
+        let r = b.directions.get(dir);
+        let _ = writeln!(
+            o,
+            "  {}: WIrc = {} %; κ = {}{}; walls δ_w = δ_r = {}; columns δ_c = κ·δ_r = {}",
+            dir.code(),
+            n(r.detail.rc_wall_index_pct),
+            n(r.detail.kappa),
+            if r.detail.soft_or_weak {
+                " (soft/weak storey)"
+            } else {
+                ""
+            },
+            opt(r.drift_demand.walls),
+            opt(r.drift_demand.columns)
+        );
+    }
+    let _ = writeln!(
+        o,
+        "§8 Capacity (EN 1998-3 Annex A{}), chord rotations in rad",
+        match s.capacity_model {
+            crate::settings::CapacityModel::Eurocode => "".to_string(),
+            crate::settings::CapacityModel::Asce41 =>
+                "; walls by ASCE 41-17 Table 10-19".to_string(),
+            crate::settings::CapacityModel::LowerOfBoth =>
+                "; walls: lower of A.1 and ASCE 41-17 Table 10-19".to_string(),
+        }
+    );
+    let _ = writeln!(
+        o,
+        "  wall shear span Lv = Σz²/Σz = {} m; column shear span Lv = h1/2 = {} m",
+        n(d.wall_shear_span_m),
+        n(d.column_shear_span_m)
+    );
+    for w in &b.walls {
+        let _ = writeln!(
+            o,
+            "  wall {} ({}): lw {} m, ν {}, θy = {}, θum = {} → {}",
+            w.wall_id,
+            w.direction.map_or("-", |d| d.code()),
+            n(w.length_m),
+            n(w.axial_load_ratio),
+            n(w.theta_y),
+            n(w.theta_um),
+            lv(&w.capacity)
+        );
+    }
+    if let (Some(ty), Some(tu)) = (d.column_theta_y, d.column_theta_um) {
+        let _ = writeln!(
+            o,
+            "  columns: θy = {} (eq. A.10b), θum = {} (eq. A.1{}) ",
+            n(ty),
+            n(tu),
+            if d.columns_detailed {
+                ""
+            } else {
+                ", ÷1.2 not detailed"
+            }
+        );
+    }
+    let _ = writeln!(o, "§9 Demand/capacity ratios");
+    for dir in Dir::BOTH {
+        let r = b.directions.get(dir);
+        let _ = writeln!(
+            o,
+            "  {}: capacity walls {}; columns {}",
+            dir.code(),
+            r.capacity.walls.as_ref().map_or("null".into(), lv),
+            r.capacity.columns.as_ref().map_or("null".into(), lv)
+        );
+        if let (Some(dw), Some(c)) = (r.drift_demand.walls, r.capacity.walls) {
+            let g = engine::dcr::group_dcr(dw, &c);
+            let _ = writeln!(o, "     walls δ_w/θ_w: {}", lv(&g));
+        }
+        if let (Some(dc), Some(c)) = (r.drift_demand.columns, r.capacity.columns) {
+            let g = engine::dcr::group_dcr(dc, &c);
+            let _ = writeln!(o, "     columns δ_c/θ_c: {}", lv(&g));
+        }
+        let _ = writeln!(o, "     DCR = max over groups: {}", lv(&r.dcr));
+    }
+    let _ = writeln!(o, "§10 Flags");
+    if b.flags.is_empty() {
+        let _ = writeln!(o, "  none");
+    }
+    for f in &b.flags {
+        let _ = writeln!(
+            o,
+            "  {}{}: {}",
+            f.code,
+            f.direction
+                .map_or(String::new(), |d| format!(" ({})", d.code())),
+            f.detail
+        );
+    }
+    let _ = writeln!(
+        o,
+        "§11 Class and rank: max DCR {}; class {} ({}); score = governing DCR at {} = {}; rank {} of {}",
+        lv(&d.dcr_max),
+        b.class,
+        engine::rank::class_name(b.class),
+        b.governing.level.code(),
+        n(b.score),
+        b.rank,
+        total
+    );
+    if let Some(rf) = &b.retrofit {
+        let _ = writeln!(
+            o,
+            "§12 Retrofit: added wall area x {} m², y {} m²; cost {}; replacement cost {}; replace {}; flags after: {}{}",
+            opt(rf.added_wall_area_m2.x),
+            opt(rf.added_wall_area_m2.y),
+            opt(rf.cost),
+            opt(rf.replacement_cost),
+            rf.replace.map_or("null".into(), |v| v.to_string()),
+            if rf.flags_after.is_empty() {
+                "none".into()
+            } else {
+                rf.flags_after.join(", ")
+            },
+            if rf.note.is_empty() {
+                String::new()
+            } else {
+                format!(" — {}", rf.note)
+            }
+        );
+    }
+    o
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::model::{BuildingRecord, GroundType, Inventory, NotScreened, Use, YesNo};
+    use crate::results::InputInfo;
+    use crate::settings::Settings;
+    use std::collections::HashMap;
+
+    fn rec(id: &str, agr: Option<f64>, row: usize) -> BuildingRecord {
+        BuildingRecord {
+            row,
+            id: id.into(),
+            name: "Invented".into(),
+            use_: Some(Use::School),
+            storeys: 3,
+            storey_height_m: Some(3.0),
+            plan_area_m2: 150.0,
+            column_area_m2: 1.5,
+            rc_wall_area_x_m2: Some(2.0),
+            boundary_elements: Some(YesNo::Unknown),
+            ground_type: Some(GroundType::B),
+            agr_g: agr,
+            occupants: Some(40),
+            ..Default::default()
+        }
+    }
+
+    fn loaded() -> Loaded {
+        let inventory = Inventory {
+            buildings: vec![
+                rec("E1", Some(0.25), 2),
+                rec("E2", None, 3),
+                rec("E3", Some(0.4), 4),
+            ],
+            not_screened: vec![NotScreened {
+                sheet: "buildings".into(),
+                row: 5,
+                id: "E4".into(),
+                reasons: vec!["plan_area_m2 missing".into()],
+            }],
+            rows: 4,
+            ..Default::default()
+        };
+        Loaded {
+            input: InputInfo::default(),
+            inventory,
+            settings: Settings::default(),
+            sites: HashMap::new(),
+        }
+    }
+
+    #[test]
+    fn explain_reproduces_screen_numbers() {
+        let l = loaded();
+        let report = pipeline::screen(&l);
+        let b = report.buildings.iter().find(|b| b.id == "E1").unwrap();
+        let text = explain(&l, "E1").unwrap();
+        if std::env::var_os("SHOW_EXPLAIN").is_some() {
+            println!("{text}");
+        }
+        assert!(text.contains(&format!("score {}", b.score)), "{text}");
+        assert!(text.contains(&format!("rank {} of 2", b.rank)));
+        assert!(text.contains(&format!(
+            "roof drift δ_r = d_t/H = {}",
+            b.directions.x.roof_drift_demand
+        )));
+        assert!(text.contains("[default: "), "defaults are marked");
+        assert!(text.contains("fc = 20 MPa  [default: fc_mpa]"));
+        for step in [
+            "§0", "§1", "§2", "§3", "§4", "§5", "§6", "§7", "§8", "§9", "§10", "§11",
+        ] {
+            assert!(text.contains(step), "{step}");
+        }
+    }
+
+    #[test]
+    fn explain_says_why_not_screened() {
+        let l = loaded();
+        let t = explain(&l, "E2").unwrap();
+        assert!(
+            t.contains("could not be screened") && t.contains("no hazard given"),
+            "{t}"
+        );
+        let t = explain(&l, "E4").unwrap();
+        assert!(t.contains("plan_area_m2 missing"));
+        assert!(explain(&l, "nope").is_none());
+    }
 }

@@ -26,4 +26,7 @@ pub enum ReportError {
     /// CSV error.
     #[error("csv: {0}")]
     Csv(#[from] ::csv::Error),
+    /// GeoJSON error.
+    #[error("geojson: {0}")]
+    GeoJson(#[from] ::geojson::Error),
 }

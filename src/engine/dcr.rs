@@ -1,0 +1,79 @@
+/*!
+Method §9: demand/capacity ratios per direction and level, and the governing direction and
+element group.
+*/
+
+use crate::model::Dir;
+use crate::results::{Group, Levels};
+use crate::settings::Level;
+
+/// Ratio demand/capacity, 0 when the capacity is not positive (guarded; capacities of §8
+/// are always positive).
+pub fn ratio(demand: f64, capacity: f64) -> f64 {
+    if capacity > 0.0 {
+        demand / capacity
+    } else {
+        0.0
+    }
+}
+
+/// Per-level DCR of one element group: δ / θ_L.
+pub fn group_dcr(demand: f64, capacity: &Levels) -> Levels {
+    Levels {
+        io: ratio(demand, capacity.io),
+        ls: ratio(demand, capacity.ls),
+        cp: ratio(demand, capacity.cp),
+    }
+}
+
+/// DCR_d,L = max(δ_w/θ_w,L, δ_c/θ_c,L) over the groups present (method §9).
+pub fn direction_dcr(walls: Option<Levels>, columns: Option<Levels>) -> Levels {
+    let z = Levels::default();
+    let w = walls.unwrap_or(z);
+    let c = columns.unwrap_or(z);
+    Levels {
+        io: w.io.max(c.io),
+        ls: w.ls.max(c.ls),
+        cp: w.cp.max(c.cp),
+    }
+}
+
+/// The group that gives a direction's DCR at a level: walls on ties (method §9).
+pub fn governing_group(walls: Option<Levels>, columns: Option<Levels>, level: Level) -> Group {
+    match (walls, columns) {
+        (Some(w), Some(c)) => {
+            if w.at(level) >= c.at(level) {
+                Group::Walls
+            } else {
+                Group::Columns
+            }
+        }
+        (None, Some(_)) => Group::Columns,
+        _ => Group::Walls,
+    }
+}
+
+/// The governing direction: the larger DCR at the ranking level, X on ties (method §9).
+pub fn governing_direction(x: &Levels, y: &Levels, level: Level) -> Dir {
+    if y.at(level) > x.at(level) {
+        Dir::Y
+    } else {
+        Dir::X
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    #[test]
+    fn ties() {
+        let a = Levels {
+            io: 1.0,
+            ls: 1.0,
+            cp: 1.0,
+        };
+        assert_eq!(governing_direction(&a, &a, Level::Ls), Dir::X);
+        assert_eq!(governing_group(Some(a), Some(a), Level::Ls), Group::Walls);
+        assert_eq!(ratio(1.0, 0.0), 0.0);
+    }
+}

@@ -1,0 +1,731 @@
+/*!
+The one table of canonical columns per sheet (inventory.md): name, unit, meaning, default,
+kind of value and extra aliases. The reader, the template and `--help` all read it from here.
+*/
+
+/// What kind of value a column holds (decides how a cell is read).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Kind {
+    /// An identifier kept as text exactly ("0100" stays "0100"; a numeric cell 100.0 → "100").
+    Id,
+    /// Free text.
+    Text,
+    /// A decimal number.
+    Number,
+    /// A whole number.
+    Whole,
+    /// A year (a bare number is a year; a date cell gives its year with a warning).
+    Year,
+    /// residential / school / hospital / office / other.
+    Use,
+    /// yes / no / unknown.
+    YesNo,
+    /// Ground type A–E.
+    Ground,
+    /// Direction X / Y.
+    Direction,
+}
+
+/// One canonical column.
+#[derive(Debug, Clone, Copy)]
+pub struct Column {
+    /// Canonical name (as in inventory.md).
+    pub name: &'static str,
+    /// Unit or allowed values.
+    pub unit: &'static str,
+    /// What the column means.
+    pub meaning: &'static str,
+    /// The default when blank ("—" = none; "required" for required columns).
+    pub default: &'static str,
+    /// Required column.
+    pub required: bool,
+    /// Kind of value.
+    pub kind: Kind,
+    /// Extra accepted names (matched with the same normalisation rule).
+    pub aliases: &'static [&'static str],
+}
+
+/// One sheet of the inventory.
+#[derive(Debug, Clone, Copy)]
+pub struct SheetSpec {
+    /// Sheet name (also the sibling CSV suffix: `<stem>.walls.csv`).
+    pub name: &'static str,
+    /// Whether the sheet must be present.
+    pub required: bool,
+    /// What one row is.
+    pub meaning: &'static str,
+    /// Columns in template order.
+    pub columns: &'static [Column],
+}
+
+impl SheetSpec {
+    /// Column by canonical name.
+    pub fn column(&self, name: &str) -> Option<&'static Column> {
+        self.columns.iter().find(|c| c.name == name)
+    }
+    /// The required columns' names.
+    pub fn required_names(&self) -> Vec<&'static str> {
+        self.columns
+            .iter()
+            .filter(|c| c.required)
+            .map(|c| c.name)
+            .collect()
+    }
+}
+
+const fn col(
+    name: &'static str,
+    unit: &'static str,
+    kind: Kind,
+    required: bool,
+    default: &'static str,
+    meaning: &'static str,
+) -> Column {
+    Column {
+        name,
+        unit,
+        meaning,
+        default,
+        required,
+        kind,
+        aliases: &[],
+    }
+}
+
+const fn alias(mut c: Column, aliases: &'static [&'static str]) -> Column {
+    c.aliases = aliases;
+    c
+}
+
+use Kind::*;
+
+/// Sheet `buildings` (required): one row per building.
+pub const BUILDINGS: SheetSpec = SheetSpec {
+    name: "buildings",
+    required: true,
+    meaning: "one row per building",
+    columns: &[
+        alias(
+            col(
+                "id",
+                "text, unique",
+                Id,
+                true,
+                "required",
+                "Building identifier, unique in the sheet; kept as text exactly.",
+            ),
+            &["building_id"],
+        ),
+        col("name", "text", Text, false, "\"\"", "Building name."),
+        alias(
+            col(
+                "use",
+                "residential, school, hospital, office, other",
+                Use,
+                false,
+                "residential",
+                "Building use; selects the importance factor.",
+            ),
+            &["occupancy"],
+        ),
+        alias(
+            col(
+                "year_built",
+                "year",
+                Year,
+                false,
+                "unknown",
+                "Year of construction (a number; a date cell gives its year).",
+            ),
+            &["construction_year", "year_of_construction"],
+        ),
+        alias(
+            col(
+                "latitude",
+                "decimal degrees WGS84",
+                Number,
+                false,
+                "— (no district or fault lookup)",
+                "Latitude of the building.",
+            ),
+            &["lat"],
+        ),
+        alias(
+            col(
+                "longitude",
+                "decimal degrees WGS84",
+                Number,
+                false,
+                "— (no district or fault lookup)",
+                "Longitude of the building.",
+            ),
+            &["lon", "lng", "long"],
+        ),
+        col(
+            "district",
+            "text",
+            Text,
+            false,
+            "from district polygons if given, else \"\"",
+            "District name.",
+        ),
+        alias(
+            col(
+                "storeys",
+                "whole number ≥ 1 above the base",
+                Whole,
+                true,
+                "required",
+                "Number of storeys above the base.",
+            ),
+            &["stories", "floors", "number_of_storeys"],
+        ),
+        col(
+            "storey_height_m",
+            "m",
+            Number,
+            false,
+            "3.0 (settings)",
+            "Typical storey height.",
+        ),
+        col(
+            "ground_storey_height_m",
+            "m",
+            Number,
+            false,
+            "storey_height_m",
+            "Ground-storey height.",
+        ),
+        col(
+            "plan_area_m2",
+            "m²",
+            Number,
+            true,
+            "required",
+            "Plan area of a typical storey.",
+        ),
+        col(
+            "plan_length_x_m",
+            "m",
+            Number,
+            false,
+            "— (footprint table if any)",
+            "Plan length along X.",
+        ),
+        col(
+            "plan_length_y_m",
+            "m",
+            Number,
+            false,
+            "— (footprint table if any)",
+            "Plan length along Y.",
+        ),
+        col(
+            "column_area_m2",
+            "m²",
+            Number,
+            true,
+            "required",
+            "Total cross-section area of the ground-storey columns (0 when walls carry the building).",
+        ),
+        col(
+            "column_depth_m",
+            "m",
+            Number,
+            false,
+            "0.40 (settings)",
+            "Typical column depth.",
+        ),
+        col(
+            "rc_wall_area_x_m2",
+            "m²",
+            Number,
+            false,
+            "from walls sheet, else 0",
+            "Ground-storey RC wall area parallel to X.",
+        ),
+        col(
+            "rc_wall_area_y_m2",
+            "m²",
+            Number,
+            false,
+            "from walls sheet, else 0",
+            "Ground-storey RC wall area parallel to Y.",
+        ),
+        col(
+            "wall_length_x_m",
+            "m",
+            Number,
+            false,
+            "4.0 (settings)",
+            "Typical RC wall length along X.",
+        ),
+        col(
+            "wall_length_y_m",
+            "m",
+            Number,
+            false,
+            "4.0 (settings)",
+            "Typical RC wall length along Y.",
+        ),
+        col(
+            "wall_thickness_m",
+            "m",
+            Number,
+            false,
+            "0.25 (settings)",
+            "RC wall thickness.",
+        ),
+        col(
+            "infill_area_x_m2",
+            "m²",
+            Number,
+            false,
+            "0",
+            "Ground-storey masonry infill area parallel to X.",
+        ),
+        col(
+            "infill_area_y_m2",
+            "m²",
+            Number,
+            false,
+            "0",
+            "Ground-storey masonry infill area parallel to Y.",
+        ),
+        col(
+            "upper_rc_wall_area_x_m2",
+            "m²",
+            Number,
+            false,
+            "same as ground (no soft-storey information)",
+            "RC wall area parallel to X in the storey above the ground storey.",
+        ),
+        col(
+            "upper_rc_wall_area_y_m2",
+            "m²",
+            Number,
+            false,
+            "same as ground (no soft-storey information)",
+            "RC wall area parallel to Y in the storey above the ground storey.",
+        ),
+        col(
+            "upper_infill_area_x_m2",
+            "m²",
+            Number,
+            false,
+            "same as ground (no soft-storey information)",
+            "Infill area parallel to X in the storey above the ground storey.",
+        ),
+        col(
+            "upper_infill_area_y_m2",
+            "m²",
+            Number,
+            false,
+            "same as ground (no soft-storey information)",
+            "Infill area parallel to Y in the storey above the ground storey.",
+        ),
+        col(
+            "upper_column_area_m2",
+            "m²",
+            Number,
+            false,
+            "same as ground (no soft-storey information)",
+            "Column area in the storey above the ground storey.",
+        ),
+        col(
+            "boundary_elements",
+            "yes / no / unknown",
+            YesNo,
+            false,
+            "unknown",
+            "Confined boundary elements at wall ends.",
+        ),
+        col(
+            "short_columns",
+            "yes / no / unknown",
+            YesNo,
+            false,
+            "unknown",
+            "Short (captive) columns present.",
+        ),
+        col(
+            "fc_mpa",
+            "MPa",
+            Number,
+            false,
+            "era table, else 20 (settings)",
+            "Concrete compressive strength (5–120 MPa).",
+        ),
+        col(
+            "fy_mpa",
+            "MPa",
+            Number,
+            false,
+            "era table, else 420 (settings)",
+            "Reinforcement yield strength (150–700 MPa).",
+        ),
+        col(
+            "floor_weight_kpa",
+            "kPa",
+            Number,
+            false,
+            "12 (settings)",
+            "Seismic weight per unit floor area.",
+        ),
+        col(
+            "occupants",
+            "whole number",
+            Whole,
+            false,
+            "—",
+            "Number of occupants (for the budget plan).",
+        ),
+        col(
+            "ground_type",
+            "A, B, C, D, E",
+            Ground,
+            false,
+            "settings",
+            "Ground type of EN 1998-1 Table 3.1.",
+        ),
+        col(
+            "agr_g",
+            "g",
+            Number,
+            false,
+            "settings",
+            "Reference peak ground acceleration on rock.",
+        ),
+        col(
+            "sds_g",
+            "g",
+            Number,
+            false,
+            "settings",
+            "Two-parameter spectrum: short-period ordinate SDS.",
+        ),
+        col(
+            "sd1_g",
+            "g",
+            Number,
+            false,
+            "settings",
+            "Two-parameter spectrum: 1-second ordinate SD1.",
+        ),
+        col(
+            "period_x_s",
+            "s",
+            Number,
+            false,
+            "formula of method §4",
+            "Fundamental period along X from an analysis.",
+        ),
+        col(
+            "period_y_s",
+            "s",
+            Number,
+            false,
+            "formula of method §4",
+            "Fundamental period along Y from an analysis.",
+        ),
+    ],
+};
+
+/// Sheet `walls` (optional): one row per RC wall.
+pub const WALLS: SheetSpec = SheetSpec {
+    name: "walls",
+    required: false,
+    meaning: "one row per RC wall (any storey)",
+    columns: &[
+        alias(
+            col(
+                "building_id",
+                "text",
+                Id,
+                true,
+                "required",
+                "Id of the building (buildings sheet).",
+            ),
+            &["building"],
+        ),
+        col("wall_id", "text", Id, false, "\"\"", "Wall identifier."),
+        col(
+            "direction",
+            "X / Y",
+            Direction,
+            true,
+            "required",
+            "Direction the wall length is parallel to.",
+        ),
+        col("length_m", "m", Number, true, "required", "Wall length lw."),
+        col(
+            "thickness_m",
+            "m",
+            Number,
+            false,
+            "building's wall_thickness_m",
+            "Wall thickness tw.",
+        ),
+        col(
+            "x_m",
+            "m",
+            Number,
+            false,
+            "—",
+            "Wall centre x in the footprint's local plan frame.",
+        ),
+        col(
+            "y_m",
+            "m",
+            Number,
+            false,
+            "—",
+            "Wall centre y in the footprint's local plan frame.",
+        ),
+        col(
+            "boundary_elements",
+            "yes / no / unknown",
+            YesNo,
+            false,
+            "building's value",
+            "Confined boundary elements at this wall's ends.",
+        ),
+        col(
+            "boundary_steel_pct",
+            "%",
+            Number,
+            false,
+            "1.0 (settings)",
+            "Boundary longitudinal steel ratio.",
+        ),
+        col(
+            "web_steel_pct",
+            "%",
+            Number,
+            false,
+            "0.25 (settings)",
+            "Web vertical steel ratio.",
+        ),
+        col(
+            "bar_diameter_mm",
+            "mm",
+            Number,
+            false,
+            "16 (settings)",
+            "Longitudinal bar diameter.",
+        ),
+        col(
+            "start_storey",
+            "whole number ≥ 1",
+            Whole,
+            false,
+            "1 (ground)",
+            "First storey of the wall (> 1: does not reach the foundation).",
+        ),
+        col(
+            "end_storey",
+            "whole number ≥ 1",
+            Whole,
+            false,
+            "top storey",
+            "Last storey of the wall.",
+        ),
+    ],
+};
+
+/// Sheet `storeys` (optional): one row per storey per building.
+pub const STOREYS: SheetSpec = SheetSpec {
+    name: "storeys",
+    required: false,
+    meaning: "one row per storey per building",
+    columns: &[
+        alias(
+            col(
+                "building_id",
+                "text",
+                Id,
+                true,
+                "required",
+                "Id of the building (buildings sheet).",
+            ),
+            &["building"],
+        ),
+        alias(
+            col(
+                "storey",
+                "whole number ≥ 1 (1 = ground)",
+                Whole,
+                true,
+                "required",
+                "Storey number.",
+            ),
+            &["story", "floor"],
+        ),
+        col(
+            "height_m",
+            "m",
+            Number,
+            false,
+            "building's storey height",
+            "Storey height.",
+        ),
+        col(
+            "column_area_m2",
+            "m²",
+            Number,
+            false,
+            "building's value",
+            "Column area of this storey.",
+        ),
+        col(
+            "rc_wall_area_x_m2",
+            "m²",
+            Number,
+            false,
+            "building's value",
+            "RC wall area parallel to X.",
+        ),
+        col(
+            "rc_wall_area_y_m2",
+            "m²",
+            Number,
+            false,
+            "building's value",
+            "RC wall area parallel to Y.",
+        ),
+        col(
+            "infill_area_x_m2",
+            "m²",
+            Number,
+            false,
+            "building's value",
+            "Infill area parallel to X.",
+        ),
+        col(
+            "infill_area_y_m2",
+            "m²",
+            Number,
+            false,
+            "building's value",
+            "Infill area parallel to Y.",
+        ),
+    ],
+};
+
+/// Sheet `footprints` (optional): plan polygons in local metres.
+pub const FOOTPRINTS: SheetSpec = SheetSpec {
+    name: "footprints",
+    required: false,
+    meaning: "one row per vertex of a building's plan polygon (local metres)",
+    columns: &[
+        alias(
+            col(
+                "building_id",
+                "text",
+                Id,
+                true,
+                "required",
+                "Id of the building (buildings sheet).",
+            ),
+            &["building"],
+        ),
+        col(
+            "vertex",
+            "number (order)",
+            Number,
+            true,
+            "required",
+            "Vertex order along the polygon.",
+        ),
+        col(
+            "x_m",
+            "m",
+            Number,
+            true,
+            "required",
+            "Vertex x in the local plan frame.",
+        ),
+        col(
+            "y_m",
+            "m",
+            Number,
+            true,
+            "required",
+            "Vertex y in the local plan frame.",
+        ),
+    ],
+};
+
+/// Sheet `settings` (optional): key / value rows.
+pub const SETTINGS: SheetSpec = SheetSpec {
+    name: "settings",
+    required: false,
+    meaning: "one row per settings key (see templates/settings.toml)",
+    columns: &[
+        alias(
+            col(
+                "key",
+                "settings key",
+                Text,
+                true,
+                "required",
+                "A key of the settings file.",
+            ),
+            &["setting", "name"],
+        ),
+        col(
+            "value",
+            "text or number",
+            Text,
+            true,
+            "required",
+            "Its value (empty = unset).",
+        ),
+    ],
+};
+
+/// Every sheet, in template order.
+pub const SHEETS: [&SheetSpec; 5] = [&BUILDINGS, &WALLS, &STOREYS, &FOOTPRINTS, &SETTINGS];
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::input::header::normalise_key;
+    use std::collections::HashSet;
+
+    #[test]
+    fn canonical_names_and_aliases_stay_distinct_after_normalising() {
+        for sheet in SHEETS {
+            let mut seen = HashSet::new();
+            for c in sheet.columns {
+                for n in std::iter::once(&c.name).chain(c.aliases.iter()) {
+                    assert!(
+                        seen.insert(normalise_key(n)),
+                        "{}: {n} collides after normalising",
+                        sheet.name
+                    );
+                }
+            }
+        }
+    }
+}
+
+#[cfg(test)]
+mod help_tests {
+    use super::SHEETS;
+
+    #[test]
+    fn every_alias_is_named_in_the_help_text() {
+        for sheet in SHEETS {
+            for c in sheet.columns {
+                for a in c.aliases.iter().filter(|a| !a.contains(' ')) {
+                    assert!(
+                        crate::input::HEADER_RULE_HELP.contains(a),
+                        "alias {a} of {} missing from HEADER_RULE_HELP",
+                        c.name
+                    );
+                }
+            }
+        }
+    }
+}

@@ -1,0 +1,296 @@
+/*!
+Checks across rows and sheets, after every sheet is read: duplicated ids, rows of the
+optional sheets that refer to unknown buildings (reported and ignored) or that carry errors
+(their building is not screened), a building with no vertical structure, and the data
+consistency warning between listed walls and the `rc_wall_area_*` columns. No engineering:
+wall areas are summed only where the thickness is given in the inventory.
+*/
+
+use std::collections::{HashMap, HashSet};
+
+use crate::model::{
+    BuildingRecord, Dir, FootprintVertex, Inventory, NotScreened, Problem, Severity, StoreyRecord,
+    WallRecord,
+};
+
+use super::raw::format_number;
+
+/// Rows read from every sheet, each with its own problems, before cross-checks.
+#[derive(Debug, Default)]
+pub struct Collected {
+    /// Buildings rows (accepted or not: the split happens in [`finish`], in place).
+    pub buildings: Vec<BuildingRecord>,
+    /// Problems of the buildings rows, in row order.
+    pub building_problems: Vec<Problem>,
+    /// Walls rows.
+    pub walls: Vec<(WallRecord, Vec<Problem>)>,
+    /// Storeys rows.
+    pub storeys: Vec<(StoreyRecord, Vec<Problem>)>,
+    /// Footprint rows.
+    pub footprints: Vec<(FootprintVertex, Vec<Problem>)>,
+    /// Sheet-level problems, in order.
+    pub sheet_problems: Vec<Problem>,
+    /// Settings rows.
+    pub settings_rows: Vec<(String, String)>,
+    /// Blank rows of the buildings sheet.
+    pub blank_rows: usize,
+}
+
+fn has_error(p: &[Problem]) -> bool {
+    p.iter().any(|p| p.severity == Severity::Error)
+}
+
+fn reason(p: &Problem) -> String {
+    if p.column.is_empty() {
+        p.message.clone()
+    } else {
+        format!("{}: {}", p.column, p.message)
+    }
+}
+
+fn err(sheet: &str, row: usize, column: &str, message: String) -> Problem {
+    Problem {
+        sheet: sheet.into(),
+        row: Some(row),
+        column: column.into(),
+        message,
+        severity: Severity::Error,
+    }
+}
+
+fn warning(sheet: &str, row: usize, column: &str, message: String) -> Problem {
+    Problem {
+        severity: Severity::Warning,
+        ..err(sheet, row, column, message)
+    }
+}
+
+/// Optional-sheet rows: unknown ids are reported and dropped; rows with errors are dropped
+/// and make their building not screened. Returns the accepted rows.
+fn sort_out<T>(
+    sheet: &str,
+    rows: Vec<(T, Vec<Problem>)>,
+    id_of: impl Fn(&T) -> &str,
+    row_of: impl Fn(&T) -> usize,
+    known: &HashMap<String, Vec<usize>>,
+    extra: &mut HashMap<String, Vec<Problem>>,
+    problems: &mut Vec<Problem>,
+) -> Vec<T> {
+    let mut out = Vec::new();
+    for (rec, probs) in rows {
+        let id = id_of(&rec).to_string();
+        let bad = has_error(&probs);
+        problems.extend(probs);
+        if id.is_empty() {
+            continue;
+        }
+        if !known.contains_key(&id) {
+            problems.push(warning(
+                sheet,
+                row_of(&rec),
+                "building_id",
+                format!(
+                    "expected an id of the buildings sheet, found \"{id}\"; the row is ignored"
+                ),
+            ));
+            continue;
+        }
+        if bad {
+            extra.entry(id).or_default().push(err(
+                "buildings",
+                0,
+                "",
+                format!("{sheet} row {} has errors", row_of(&rec)),
+            ));
+            continue;
+        }
+        out.push(rec);
+    }
+    out
+}
+
+/// Cross-checks and the final split into accepted and not-screened rows. The accepted
+/// rows stay in the vector they were read into (no second copy of a large stock).
+pub fn finish(mut c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
+    let mut inv = Inventory {
+        settings_rows: std::mem::take(&mut c.settings_rows),
+        blank_rows: c.blank_rows,
+        rows: c.buildings.len(),
+        ..Default::default()
+    };
+    let mut problems = std::mem::take(&mut c.sheet_problems);
+    let mut row_problems = std::mem::take(&mut c.building_problems);
+    // Ids → rows.
+    let mut ids: HashMap<String, Vec<usize>> = HashMap::new();
+    for b in &c.buildings {
+        if !b.id.is_empty() {
+            ids.entry(b.id.clone()).or_default().push(b.row);
+        }
+    }
+    let mut extra: HashMap<String, Vec<Problem>> = HashMap::new();
+    let mut later = Vec::new();
+    let walls = sort_out(
+        "walls",
+        std::mem::take(&mut c.walls),
+        |w| &w.building_id,
+        |w| w.row,
+        &ids,
+        &mut extra,
+        &mut later,
+    );
+    let storeys = sort_out(
+        "storeys",
+        std::mem::take(&mut c.storeys),
+        |s| &s.building_id,
+        |s| s.row,
+        &ids,
+        &mut extra,
+        &mut later,
+    );
+    let footprints = sort_out(
+        "footprints",
+        std::mem::take(&mut c.footprints),
+        |f| &f.building_id,
+        |f| f.row,
+        &ids,
+        &mut extra,
+        &mut later,
+    );
+    // Ground-storey walls per building: (any listed, sum X, sum Y, sums complete).
+    let mut ground: HashMap<&str, (bool, [f64; 2], [bool; 2])> = HashMap::new();
+    let thickness: HashMap<&str, Option<f64>> = c
+        .buildings
+        .iter()
+        .map(|b| (b.id.as_str(), b.wall_thickness_m))
+        .collect();
+    for w in &walls {
+        if w.start_storey.unwrap_or(1) != 1 {
+            continue;
+        }
+        let e = ground
+            .entry(w.building_id.as_str())
+            .or_insert((false, [0.0; 2], [true; 2]));
+        e.0 |= w.length_m > 0.0;
+        let i = match w.direction {
+            Some(Dir::X) => 0,
+            Some(Dir::Y) => 1,
+            None => continue,
+        };
+        let t = w
+            .thickness_m
+            .or_else(|| thickness.get(w.building_id.as_str()).copied().flatten());
+        match t {
+            Some(t) => e.1[i] += w.length_m * t,
+            None => e.2[i] = false,
+        }
+    }
+    let mut bad: HashSet<usize> = row_problems
+        .iter()
+        .filter(|p| p.severity == Severity::Error)
+        .filter_map(|p| p.row)
+        .collect();
+    for b in &c.buildings {
+        if let Some(rows) = ids.get(&b.id)
+            && rows.len() > 1
+        {
+            let list = rows
+                .iter()
+                .map(|r| r.to_string())
+                .collect::<Vec<_>>()
+                .join(", ");
+            row_problems.push(err(
+                "buildings",
+                b.row,
+                "id",
+                format!("expected a unique id, found \"{}\" in rows {list}; none of these rows is screened", b.id),
+            ));
+            bad.insert(b.row);
+        }
+        if !bad.contains(&b.row) {
+            let walls_here = ground.get(b.id.as_str());
+            let listed = walls_here.is_some_and(|g| g.0);
+            let wall_cols = b.rc_wall_area_x_m2.unwrap_or(0.0) + b.rc_wall_area_y_m2.unwrap_or(0.0);
+            if b.column_area_m2 == 0.0 && !listed && wall_cols == 0.0 {
+                row_problems.push(err(
+                    "buildings",
+                    b.row,
+                    "column_area_m2",
+                    "expected column area plus RC wall area above 0, found 0 (a building with no vertical structure)".into(),
+                ));
+                bad.insert(b.row);
+            }
+            if let Some((true, sums, complete)) = walls_here {
+                for (i, d, col) in [(0, "X", "rc_wall_area_x_m2"), (1, "Y", "rc_wall_area_y_m2")] {
+                    let given = if i == 0 {
+                        b.rc_wall_area_x_m2
+                    } else {
+                        b.rc_wall_area_y_m2
+                    };
+                    let (Some(given), true) = (given, complete[i]) else {
+                        continue;
+                    };
+                    let sum = sums[i];
+                    let off = if given > 0.0 {
+                        (sum - given).abs() / given * 100.0
+                    } else if sum > 0.0 {
+                        f64::INFINITY
+                    } else {
+                        0.0
+                    };
+                    if off > wall_area_mismatch_pct {
+                        row_problems.push(warning(
+                            "buildings",
+                            b.row,
+                            col,
+                            format!(
+                                "expected the listed ground-storey walls along {d} ({} m²) to agree within {} % with this column, found {} m²; the walls sheet is used",
+                                format_number((sum * 1e4).round() / 1e4),
+                                format_number(wall_area_mismatch_pct),
+                                format_number(given)
+                            ),
+                        ));
+                    }
+                }
+            }
+        }
+        if let Some(more) = extra.get(&b.id) {
+            for m in more {
+                row_problems.push(err("buildings", b.row, "", m.message.clone()));
+            }
+            bad.insert(b.row);
+        }
+    }
+    row_problems.sort_by_key(|p| p.row);
+    if !bad.is_empty() {
+        let mut reasons: HashMap<usize, Vec<String>> = HashMap::new();
+        for p in row_problems
+            .iter()
+            .filter(|p| p.severity == Severity::Error)
+        {
+            if let Some(r) = p.row {
+                let list = reasons.entry(r).or_default();
+                let text = reason(p);
+                if !list.contains(&text) {
+                    list.push(text);
+                }
+            }
+        }
+        for b in c.buildings.iter().filter(|b| bad.contains(&b.row)) {
+            inv.not_screened.push(NotScreened {
+                sheet: "buildings".into(),
+                row: b.row,
+                id: b.id.clone(),
+                reasons: reasons.remove(&b.row).unwrap_or_default(),
+            });
+        }
+        c.buildings.retain(|b| !bad.contains(&b.row));
+    }
+    problems.extend(row_problems);
+    problems.extend(later);
+    inv.buildings = c.buildings;
+    inv.walls = walls;
+    inv.storeys = storeys;
+    inv.footprints = footprints;
+    inv.problems = problems;
+    inv
+}

@@ -1,0 +1,136 @@
+/*!
+The Assumptions sheet: every effective setting with its value, source tag and meaning, the
+construction-era table, the simplifications of the method in plain words, and the caution.
+*/
+
+use rust_xlsxwriter::Worksheet;
+
+use super::style::Styles;
+use super::{ReportError, cut};
+use crate::results::Report;
+use crate::settings::KEYS;
+
+/// The simplifications of `method.md`, in plain words.
+pub const SIMPLIFICATIONS: &[&str] = &[
+    "The period of the equivalent single-degree-of-freedom system T* is taken equal to the \
+     building period T (N2 method, EN 1998-1 Annex B).",
+    "The code period formulas (EN 1998-1 §4.3.3.2.2) give short, uncracked and infilled \
+     periods, so the drift demand of buildings with periods above the corner period TC is \
+     biased low. The setting period_factor is the lever (cracked-stiffness practice is about \
+     1.3 to 1.5).",
+    "Storey stiffness and strength are judged from cross-section areas divided by storey \
+     height (RC walls, infill at 1/10, columns at 1/2), not from an analysis model.",
+    "The building deforms in an inverted-triangle first mode with equal floor masses. Walls \
+     see the roof drift; columns see the roof drift times a storey-drift concentration \
+     factor κ.",
+    "Gravity load is shared by all vertical elements at a uniform stress: one axial load \
+     ratio for walls and columns.",
+    "Member capacities are chord rotations from EN 1998-3 Annex A (or ASCE 41-17 Table \
+     10-19 for walls when chosen) with assumed reinforcement ratios and detailing; shear \
+     failure, lap splices, foundations and non-structural elements are not assessed (short \
+     columns only raise the class).",
+    "Walls are either listed one by one or represented by one representative wall per \
+     direction with the typical length and thickness.",
+    "Inputs left blank take the defaults named in each building's defaults; they are \
+     assumptions, not survey data.",
+    "Classes follow the demand/capacity ratios at 1.0: class 1 at Collapse Prevention, 2 at \
+     Life Safety, 3 at Immediate Occupancy, 4 within screening limits.",
+    "Retrofit sizing adds continuous new RC walls only; costs are currency-neutral and use \
+     the unit costs given (no built-in prices).",
+];
+
+/// Writes the Assumptions sheet.
+pub fn write(ws: &mut Worksheet, report: &Report, styles: &Styles) -> Result<(), ReportError> {
+    ws.set_name("Assumptions")?;
+    for (c, w) in [30.0, 18.0, 44.0, 90.0].iter().enumerate() {
+        ws.set_column_width(c as u16, *w)?;
+    }
+    ws.set_freeze_panes(1, 0)?;
+    let headers = ["Setting", "Value", "Source", "Meaning"];
+    for (i, h) in headers.iter().enumerate() {
+        ws.write_string_with_format(0, i as u16, *h, &styles.header)?;
+    }
+    let mut r = 1u32;
+    for k in KEYS {
+        ws.write_string(r, 0, k.key)?;
+        let v = report.settings.value_text(k.key).unwrap_or_default();
+        ws.write_string(r, 1, if v.is_empty() { "(empty)" } else { cut(&v) })?;
+        ws.write_string(r, 2, k.tag)?;
+        ws.write_string(r, 3, k.doc)?;
+        r += 1;
+    }
+    ws.autofilter(0, 0, r - 1, 3)?;
+
+    r += 1;
+    ws.write_string_with_format(r, 0, "Construction-era table", &styles.section)?;
+    r += 1;
+    for (i, h) in ["From year", "To year", "fc (MPa)", "fy (MPa)"]
+        .iter()
+        .enumerate()
+    {
+        ws.write_string_with_format(r, i as u16, *h, &styles.header)?;
+    }
+    r += 1;
+    if report.settings.era.is_empty() {
+        ws.write_string(
+            r,
+            0,
+            "(empty: default_fc_mpa and default_fy_mpa apply where a row gives no strength)",
+        )?;
+        r += 1;
+    }
+    for e in &report.settings.era {
+        let cells = [
+            e.from_year.map(f64::from),
+            e.to_year.map(f64::from),
+            e.fc_mpa,
+            e.fy_mpa,
+        ];
+        for (i, v) in cells.iter().enumerate() {
+            match v {
+                Some(v) if v.is_finite() => {
+                    ws.write_number(r, i as u16, *v)?;
+                }
+                _ => {
+                    ws.write_string(r, i as u16, "(open)")?;
+                }
+            }
+        }
+        r += 1;
+    }
+
+    r += 1;
+    ws.write_string_with_format(r, 0, "Simplifications of the method", &styles.section)?;
+    r += 1;
+    for (i, s) in SIMPLIFICATIONS.iter().enumerate() {
+        ws.write_number(r, 0, (i + 1) as f64)?;
+        ws.merge_range(r, 1, r, 3, s, &styles.wrap)?;
+        ws.set_row_height(r, 32)?;
+        r += 1;
+    }
+
+    r += 1;
+    ws.write_string_with_format(r, 0, "Source tags", &styles.section)?;
+    r += 1;
+    for (tag, meaning) in [
+        ("[src]", "a published source named beside the value"),
+        (
+            "[mem], [mem-H]",
+            "recalled from memory: verify before relying on it",
+        ),
+        ("[practice]", "common practice with no single source"),
+        ("[screening]", "an assumption of this method, stated openly"),
+        (
+            "[project]",
+            "a choice of this tool, with no engineering meaning",
+        ),
+    ] {
+        ws.write_string(r, 0, tag)?;
+        ws.merge_range(r, 1, r, 3, meaning, &styles.text)?;
+        r += 1;
+    }
+
+    r += 1;
+    ws.merge_range(r, 0, r + 1, 3, crate::CAUTION, &styles.caution)?;
+    Ok(())
+}

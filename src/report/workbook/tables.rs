@@ -1,0 +1,915 @@
+/*!
+The per-row tables of the results workbook (Priority, Retrofit plan, Directions, Walls,
+Flags, Not screened, Input problems), described once as columns plus a row function, so that
+the same table can be written to a worksheet or, for large stocks and `--csv`, to a CSV file
+with the same columns.
+*/
+
+use std::borrow::Cow;
+
+use crate::model::{Dir, NotScreened, Problem, Severity};
+use crate::results::{BuildingResult, Report, WallResult};
+use crate::settings::Level;
+
+/// How a column is shown in the workbook (number format and alignment).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+pub enum Kind {
+    /// Free text.
+    Text,
+    /// Whole number (`0`).
+    Int,
+    /// Thousands-separated whole number (`#,##0`): occupants, costs, distances.
+    Thousands,
+    /// Demand/capacity ratio, two decimals.
+    Dcr,
+    /// A ratio shown as a percentage (drifts, rotations): the cell holds 0.012, shown 1.20 %.
+    Ratio,
+    /// A value already in percent (indices), two decimals.
+    Pct,
+    /// Two decimals (areas, lengths, MPa).
+    Dec2,
+    /// Three decimals (periods, g, coefficients).
+    Dec3,
+    /// Four decimals (small coefficients and displacements in m).
+    Dec4,
+    /// Six decimals (coordinates).
+    Coord,
+    /// The class 1–4 (number, formatted by class).
+    Class,
+}
+
+/// One column: workbook header (with units), CSV/machine name, kind and width.
+#[derive(Debug, Clone, Copy)]
+pub struct Column {
+    /// Header in the workbook, units in brackets.
+    pub header: &'static str,
+    /// Machine name (CSV header).
+    pub key: &'static str,
+    /// Display kind.
+    pub kind: Kind,
+    /// Column width in characters.
+    pub width: f64,
+}
+
+const fn col(header: &'static str, key: &'static str, kind: Kind, width: f64) -> Column {
+    Column {
+        header,
+        key,
+        kind,
+        width,
+    }
+}
+
+/// One cell value. Non-finite numbers are written as blanks by every sink.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Cell<'a> {
+    /// Empty cell.
+    Blank,
+    /// A number.
+    Num(f64),
+    /// Text (always written as a string, never as a formula).
+    Text(Cow<'a, str>),
+}
+
+impl<'a> Cell<'a> {
+    fn opt(v: Option<f64>) -> Cell<'a> {
+        v.map_or(Cell::Blank, Cell::Num)
+    }
+    fn text(s: &'a str) -> Cell<'a> {
+        Cell::Text(Cow::Borrowed(s))
+    }
+    fn owned(s: String) -> Cell<'a> {
+        Cell::Text(Cow::Owned(s))
+    }
+    fn yes_no(b: bool) -> Cell<'a> {
+        Cell::text(if b { "yes" } else { "no" })
+    }
+    fn opt_yes_no(b: Option<bool>) -> Cell<'a> {
+        b.map_or(Cell::Blank, Cell::yes_no)
+    }
+}
+
+/// Where a row goes: a few texts read better with spaces in the workbook.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Target {
+    /// A worksheet.
+    Sheet,
+    /// A CSV file.
+    Csv,
+}
+
+/// Names of the four classes of method §11, most severe first.
+pub const CLASS_NAMES: [&str; 4] = [
+    "collapse-level deficit",
+    "life-safety deficit",
+    "damage-level deficit",
+    "within screening limits",
+];
+
+/// The name of a class 1–4 ("" for anything else).
+pub fn class_name(class: u8) -> &'static str {
+    match class {
+        1..=4 => CLASS_NAMES[usize::from(class - 1)],
+        _ => "",
+    }
+}
+
+fn max_dcr(b: &BuildingResult, level: Level) -> f64 {
+    b.directions
+        .x
+        .dcr
+        .at(level)
+        .max(b.directions.y.dcr.at(level))
+}
+
+fn group_code(g: crate::results::Group) -> &'static str {
+    match g {
+        crate::results::Group::Walls => "walls",
+        crate::results::Group::Columns => "columns",
+    }
+}
+
+// ------------------------------------------------------------------------------------------
+// Priority
+
+/// Columns of the Priority table; the keys are the `--csv` column names of `interface.md`.
+pub const PRIORITY: &[Column] = &[
+    col("Rank", "rank", Kind::Int, 7.0),
+    col("Id", "id", Kind::Text, 12.0),
+    col("Name", "name", Kind::Text, 28.0),
+    col("District", "district", Kind::Text, 16.0),
+    col("Use", "use", Kind::Text, 12.0),
+    col("Occupants", "occupants", Kind::Thousands, 11.0),
+    col("Class", "class", Kind::Class, 26.0),
+    col("Score (governing DCR)", "score", Kind::Dcr, 12.0),
+    col(
+        "Governing direction",
+        "governing_direction",
+        Kind::Text,
+        11.0,
+    ),
+    col("Governing group", "governing_group", Kind::Text, 11.0),
+    col("DCR IO (max of x, y)", "dcr_io", Kind::Dcr, 10.0),
+    col("DCR LS (max of x, y)", "dcr_ls", Kind::Dcr, 10.0),
+    col("DCR CP (max of x, y)", "dcr_cp", Kind::Dcr, 10.0),
+    col(
+        "Priority index, weaker direction (%)",
+        "priority_index_min_pct",
+        Kind::Pct,
+        13.0,
+    ),
+    col("Flags (codes)", "flags", Kind::Text, 36.0),
+    col("Retrofit cost", "retrofit_cost", Kind::Thousands, 14.0),
+    col("Funded (priority walk)", "funded", Kind::Text, 10.0),
+    col("Latitude (deg)", "latitude", Kind::Coord, 12.0),
+    col("Longitude (deg)", "longitude", Kind::Coord, 12.0),
+    col(
+        "Nearest fault (m)",
+        "fault_distance_m",
+        Kind::Thousands,
+        12.0,
+    ),
+];
+
+/// One Priority row.
+pub fn priority_row<'a>(b: &'a BuildingResult, target: Target, out: &mut Vec<Cell<'a>>) {
+    out.clear();
+    let sep = if target == Target::Sheet { "; " } else { ";" };
+    out.extend([
+        Cell::Num(b.rank as f64),
+        Cell::text(&b.id),
+        Cell::text(&b.name),
+        Cell::text(&b.district),
+        Cell::text(b.use_.code()),
+        Cell::opt(b.occupants.map(|o| o as f64)),
+        Cell::Num(f64::from(b.class)),
+        Cell::Num(b.score),
+        Cell::text(b.governing.direction.code()),
+        Cell::text(group_code(b.governing.group)),
+        Cell::Num(max_dcr(b, Level::Io)),
+        Cell::Num(max_dcr(b, Level::Ls)),
+        Cell::Num(max_dcr(b, Level::Cp)),
+        Cell::Num(b.min_priority_index_pct()),
+        Cell::owned(b.flag_codes().join(sep)),
+        Cell::opt(b.retrofit.as_ref().and_then(|r| r.cost)),
+        Cell::opt_yes_no(b.retrofit.as_ref().and_then(|r| r.funded)),
+        Cell::opt(b.latitude),
+        Cell::opt(b.longitude),
+        Cell::opt(b.fault.as_ref().map(|f| f.distance_m)),
+    ]);
+}
+
+// ------------------------------------------------------------------------------------------
+// Retrofit plan
+
+/// Columns of the Retrofit plan table.
+pub const RETROFIT: &[Column] = &[
+    col("Rank", "rank", Kind::Int, 7.0),
+    col("Id", "id", Kind::Text, 12.0),
+    col("Name", "name", Kind::Text, 28.0),
+    col("District", "district", Kind::Text, 16.0),
+    col("Class", "class", Kind::Class, 26.0),
+    col("Score (governing DCR)", "score", Kind::Dcr, 12.0),
+    col("Occupants", "occupants", Kind::Thousands, 11.0),
+    col("Floor area (m²)", "floor_area_m2", Kind::Thousands, 11.0),
+    col(
+        "Added wall area X (m²)",
+        "added_wall_area_x_m2",
+        Kind::Dec2,
+        12.0,
+    ),
+    col(
+        "Added wall area Y (m²)",
+        "added_wall_area_y_m2",
+        Kind::Dec2,
+        12.0,
+    ),
+    col("Retrofit cost", "cost", Kind::Thousands, 14.0),
+    col(
+        "Replacement cost",
+        "replacement_cost",
+        Kind::Thousands,
+        14.0,
+    ),
+    col("Replace", "replace", Kind::Text, 9.0),
+    col(
+        "Cost used for funding",
+        "funding_cost",
+        Kind::Thousands,
+        14.0,
+    ),
+    col(
+        "Cumulative cost, rank order",
+        "cumulative_cost",
+        Kind::Thousands,
+        15.0,
+    ),
+    col("Flags after retrofit", "flags_after", Kind::Text, 24.0),
+    col("Funded (priority walk)", "funded", Kind::Text, 11.0),
+    col(
+        "Funded (max-occupants plan)",
+        "funded_max_occupants",
+        Kind::Text,
+        12.0,
+    ),
+    col("Note", "note", Kind::Text, 48.0),
+];
+
+/// The cost a building takes from the budget: its replacement cost where replacement is
+/// recommended, else its retrofit cost (method §12).
+pub fn funding_cost(b: &BuildingResult) -> Option<f64> {
+    let r = b.retrofit.as_ref()?;
+    if r.replace == Some(true) {
+        r.replacement_cost
+    } else {
+        r.cost
+    }
+}
+
+/// One Retrofit plan row; `cumulative` is the running funding cost in rank order.
+pub fn retrofit_row<'a>(
+    b: &'a BuildingResult,
+    cumulative: Option<f64>,
+    target: Target,
+    out: &mut Vec<Cell<'a>>,
+) {
+    out.clear();
+    let Some(r) = b.retrofit.as_ref() else {
+        return;
+    };
+    let sep = if target == Target::Sheet { "; " } else { ";" };
+    let mut note = r.note.clone();
+    if note.is_empty() {
+        let missing: Vec<&str> = Dir::BOTH
+            .iter()
+            .filter(|d| r.added_wall_area_m2.get(**d).is_none())
+            .map(|d| d.code())
+            .collect();
+        if !missing.is_empty() {
+            note = format!(
+                "no wall solution within the cap in {} — detailed study or replacement",
+                missing.join(" and ")
+            );
+        } else if r.cost.is_none() {
+            note = "costs not computed: set unit_cost_wall_m3, unit_cost_floor_m2 and replacement_cost_m2".into();
+        }
+    }
+    out.extend([
+        Cell::Num(b.rank as f64),
+        Cell::text(&b.id),
+        Cell::text(&b.name),
+        Cell::text(&b.district),
+        Cell::Num(f64::from(b.class)),
+        Cell::Num(b.score),
+        Cell::opt(b.occupants.map(|o| o as f64)),
+        Cell::Num(b.detail.floor_area_m2),
+        Cell::opt(r.added_wall_area_m2.x),
+        Cell::opt(r.added_wall_area_m2.y),
+        Cell::opt(r.cost),
+        Cell::opt(r.replacement_cost),
+        Cell::opt_yes_no(r.replace),
+        Cell::opt(funding_cost(b)),
+        Cell::opt(cumulative),
+        Cell::owned(r.flags_after.join(sep)),
+        Cell::opt_yes_no(r.funded),
+        Cell::opt_yes_no(r.funded_best),
+        Cell::owned(note),
+    ]);
+}
+
+// ------------------------------------------------------------------------------------------
+// Directions
+
+/// Columns of the Directions table: every intermediate number of method.md, in method order.
+pub const DIRECTIONS: &[Column] = &[
+    col("Rank", "rank", Kind::Int, 7.0),
+    col("Id", "id", Kind::Text, 12.0),
+    col("Name", "name", Kind::Text, 24.0),
+    col("Class", "class", Kind::Class, 26.0),
+    col("Direction", "direction", Kind::Text, 9.0),
+    col("Governs", "governs", Kind::Text, 8.0),
+    // §0 building quantities
+    col("Storeys", "storeys", Kind::Int, 8.0),
+    col("Height H (m)", "height_m", Kind::Dec2, 9.0),
+    col("Floor area A_fl (m²)", "floor_area_m2", Kind::Dec2, 11.0),
+    col("Seismic weight W (kN)", "weight_kn", Kind::Thousands, 11.0),
+    col("fc used (MPa)", "fc_mpa", Kind::Dec2, 9.0),
+    col("fy used (MPa)", "fy_mpa", Kind::Dec2, 9.0),
+    col("Column area A_col (m²)", "column_area_m2", Kind::Dec3, 10.0),
+    col(
+        "Boundary elements (effective)",
+        "boundary_elements",
+        Kind::Text,
+        10.0,
+    ),
+    col(
+        "Columns detailed (effective)",
+        "columns_detailed",
+        Kind::Text,
+        10.0,
+    ),
+    // §1
+    col(
+        "RC wall area A_cw (m²)",
+        "rc_wall_area_m2",
+        Kind::Dec3,
+        10.0,
+    ),
+    col("Infill area A_mw (m²)", "infill_area_m2", Kind::Dec3, 10.0),
+    col(
+        "RC wall index WIrc (%)",
+        "rc_wall_index_pct",
+        Kind::Pct,
+        10.0,
+    ),
+    col("Wall index WI (%)", "wall_index_pct", Kind::Pct, 10.0),
+    col("Column index CI (%)", "column_index_pct", Kind::Pct, 10.0),
+    col(
+        "Priority index PI (%)",
+        "priority_index_pct",
+        Kind::Pct,
+        10.0,
+    ),
+    // §2
+    col(
+        "Axial load ratio ν (-)",
+        "axial_load_ratio",
+        Kind::Dec3,
+        10.0,
+    ),
+    // §3
+    col("Strength factor β (-)", "beta", Kind::Dec3, 9.0),
+    col("Wall strength C_w (-)", "strength_walls", Kind::Dec3, 10.0),
+    col(
+        "Column strength C_c (-)",
+        "strength_columns",
+        Kind::Dec3,
+        10.0,
+    ),
+    col("α1 (-)", "alpha1", Kind::Dec2, 7.0),
+    col(
+        "Strength coefficient C_y (-)",
+        "strength_coefficient",
+        Kind::Dec3,
+        11.0,
+    ),
+    // §4
+    col(
+        "Period, frame formula (s)",
+        "period_frame_s",
+        Kind::Dec3,
+        10.0,
+    ),
+    col("Ac (m²)", "ac_m2", Kind::Dec3, 9.0),
+    col(
+        "Period, wall formula (s)",
+        "period_wall_s",
+        Kind::Dec3,
+        10.0,
+    ),
+    col(
+        "Formula period before factor (s)",
+        "period_formula_s",
+        Kind::Dec3,
+        11.0,
+    ),
+    col("Period source", "period_source", Kind::Text, 10.0),
+    col("Period used T (s)", "period_s", Kind::Dec3, 9.0),
+    // §5
+    col("agR (g)", "agr_g", Kind::Dec3, 8.0),
+    col("agR from", "agr_source", Kind::Text, 10.0),
+    col("Ground type", "ground_type", Kind::Text, 8.0),
+    col("Importance γI (-)", "gamma_i", Kind::Dec2, 9.0),
+    col("ag = γI·agR (g)", "ag_g", Kind::Dec3, 9.0),
+    col("Spectrum parameters", "spectrum", Kind::Text, 30.0),
+    col("Factor on spectrum (-)", "spectrum_factor", Kind::Dec2, 9.0),
+    col("η (-)", "eta", Kind::Dec3, 7.0),
+    col("Corner period TC (s)", "tc_s", Kind::Dec3, 9.0),
+    col("Se(T) (g)", "se_g", Kind::Dec3, 9.0),
+    col("SDe(T) (m)", "sde_m", Kind::Dec4, 9.0),
+    // §6
+    col("Γ (-)", "gamma", Kind::Dec3, 8.0),
+    col("S_ay (g)", "say_g", Kind::Dec3, 8.0),
+    col("qu (-)", "qu", Kind::Dec3, 8.0),
+    col("N2 branch", "n2_branch", Kind::Text, 18.0),
+    col("dt* (m)", "dt_star_m", Kind::Dec4, 9.0),
+    col(
+        "Roof displacement d_t (m)",
+        "roof_displacement_m",
+        Kind::Dec4,
+        11.0,
+    ),
+    col("Roof drift δ_r (%)", "roof_drift_demand", Kind::Ratio, 10.0),
+    // §7
+    col("Soft or weak storey", "soft_or_weak", Kind::Text, 9.0),
+    col("κ (-)", "kappa", Kind::Dec2, 7.0),
+    col(
+        "Drift demand, walls (%)",
+        "drift_demand_walls",
+        Kind::Ratio,
+        10.0,
+    ),
+    col(
+        "Drift demand, columns (%)",
+        "drift_demand_columns",
+        Kind::Ratio,
+        10.0,
+    ),
+    // §8
+    col(
+        "Wall shear span Lv (m)",
+        "wall_shear_span_m",
+        Kind::Dec2,
+        10.0,
+    ),
+    col(
+        "Column shear span Lv (m)",
+        "column_shear_span_m",
+        Kind::Dec2,
+        10.0,
+    ),
+    col("Column θy (%)", "column_theta_y", Kind::Ratio, 9.0),
+    col("Column θum (%)", "column_theta_um", Kind::Ratio, 9.0),
+    col(
+        "Wall capacity IO (%)",
+        "capacity_walls_io",
+        Kind::Ratio,
+        10.0,
+    ),
+    col(
+        "Wall capacity LS (%)",
+        "capacity_walls_ls",
+        Kind::Ratio,
+        10.0,
+    ),
+    col(
+        "Wall capacity CP (%)",
+        "capacity_walls_cp",
+        Kind::Ratio,
+        10.0,
+    ),
+    col(
+        "Column capacity IO (%)",
+        "capacity_columns_io",
+        Kind::Ratio,
+        10.0,
+    ),
+    col(
+        "Column capacity LS (%)",
+        "capacity_columns_ls",
+        Kind::Ratio,
+        10.0,
+    ),
+    col(
+        "Column capacity CP (%)",
+        "capacity_columns_cp",
+        Kind::Ratio,
+        10.0,
+    ),
+    // §9
+    col("DCR IO (-)", "dcr_io", Kind::Dcr, 8.0),
+    col("DCR LS (-)", "dcr_ls", Kind::Dcr, 8.0),
+    col("DCR CP (-)", "dcr_cp", Kind::Dcr, 8.0),
+];
+
+/// One Directions row (building `b`, direction `d`).
+pub fn direction_row<'a>(b: &'a BuildingResult, d: Dir, out: &mut Vec<Cell<'a>>) {
+    out.clear();
+    let r = b.directions.get(d);
+    let det = &r.detail;
+    let bd = &b.detail;
+    let cw = r.capacity.walls;
+    let cc = r.capacity.columns;
+    out.extend([
+        Cell::Num(b.rank as f64),
+        Cell::text(&b.id),
+        Cell::text(&b.name),
+        Cell::Num(f64::from(b.class)),
+        Cell::text(d.code()),
+        Cell::yes_no(b.governing.direction == d),
+        Cell::Num(f64::from(bd.storeys)),
+        Cell::Num(bd.height_m),
+        Cell::Num(bd.floor_area_m2),
+        Cell::Num(bd.weight_kn),
+        Cell::Num(bd.fc_mpa),
+        Cell::Num(bd.fy_mpa),
+        Cell::Num(bd.column_area_m2),
+        Cell::yes_no(bd.boundary_elements),
+        Cell::yes_no(bd.columns_detailed),
+        Cell::Num(det.rc_wall_area_m2),
+        Cell::Num(det.infill_area_m2),
+        Cell::Num(det.rc_wall_index_pct),
+        Cell::Num(r.wall_index_pct),
+        Cell::Num(r.column_index_pct),
+        Cell::Num(r.priority_index_pct),
+        Cell::Num(b.axial_load_ratio),
+        Cell::Num(bd.beta),
+        Cell::Num(det.strength_walls),
+        Cell::Num(det.strength_columns),
+        Cell::Num(det.alpha1),
+        Cell::Num(det.strength_coefficient),
+        Cell::Num(det.period_frame_s),
+        Cell::Num(det.ac_m2),
+        Cell::opt(det.period_wall_s),
+        Cell::Num(det.period_formula_s),
+        Cell::text(det.period_source),
+        Cell::Num(r.period_s),
+        Cell::Num(bd.agr_g),
+        Cell::text(bd.agr_source),
+        Cell::text(&bd.ground_type),
+        Cell::Num(bd.gamma_i),
+        Cell::Num(bd.ag_g),
+        Cell::text(&bd.spectrum),
+        Cell::Num(bd.spectrum_factor),
+        Cell::Num(bd.eta),
+        Cell::Num(det.tc_s),
+        Cell::Num(det.se_g),
+        Cell::Num(det.sde_m),
+        Cell::Num(det.gamma),
+        Cell::Num(det.say_g),
+        Cell::Num(det.qu),
+        Cell::text(det.n2_branch),
+        Cell::Num(det.dt_star_m),
+        Cell::Num(det.roof_displacement_m),
+        Cell::Num(r.roof_drift_demand),
+        Cell::yes_no(det.soft_or_weak),
+        Cell::Num(det.kappa),
+        Cell::opt(r.drift_demand.walls),
+        Cell::opt(r.drift_demand.columns),
+        Cell::Num(bd.wall_shear_span_m),
+        Cell::Num(bd.column_shear_span_m),
+        Cell::opt(bd.column_theta_y),
+        Cell::opt(bd.column_theta_um),
+        Cell::opt(cw.map(|c| c.io)),
+        Cell::opt(cw.map(|c| c.ls)),
+        Cell::opt(cw.map(|c| c.cp)),
+        Cell::opt(cc.map(|c| c.io)),
+        Cell::opt(cc.map(|c| c.ls)),
+        Cell::opt(cc.map(|c| c.cp)),
+        Cell::Num(r.dcr.io),
+        Cell::Num(r.dcr.ls),
+        Cell::Num(r.dcr.cp),
+    ]);
+}
+
+// ------------------------------------------------------------------------------------------
+// Walls
+
+/// Columns of the Walls table.
+pub const WALLS: &[Column] = &[
+    col("Rank", "rank", Kind::Int, 7.0),
+    col("Building id", "building_id", Kind::Text, 12.0),
+    col("Wall id", "wall_id", Kind::Text, 14.0),
+    col("Direction", "direction", Kind::Text, 9.0),
+    col("Representative", "representative", Kind::Text, 10.0),
+    col("Walls represented", "count", Kind::Dec2, 10.0),
+    col("Length lw (m)", "length_m", Kind::Dec2, 9.0),
+    col("Thickness tw (m)", "thickness_m", Kind::Dec3, 9.0),
+    col("Boundary elements", "boundary_elements", Kind::Text, 10.0),
+    col(
+        "Axial load ratio ν (-)",
+        "axial_load_ratio",
+        Kind::Dec3,
+        10.0,
+    ),
+    col("Shear span Lv (m)", "shear_span_m", Kind::Dec2, 9.0),
+    col("Yield rotation θy (%)", "theta_y", Kind::Ratio, 10.0),
+    col("Ultimate rotation θum (%)", "theta_um", Kind::Ratio, 11.0),
+    col("Capacity IO (%)", "capacity_io", Kind::Ratio, 10.0),
+    col("Capacity LS (%)", "capacity_ls", Kind::Ratio, 10.0),
+    col("Capacity CP (%)", "capacity_cp", Kind::Ratio, 10.0),
+];
+
+/// One Walls row.
+pub fn wall_row<'a>(b: &'a BuildingResult, w: &'a WallResult, out: &mut Vec<Cell<'a>>) {
+    out.clear();
+    out.extend([
+        Cell::Num(b.rank as f64),
+        Cell::text(&b.id),
+        Cell::text(&w.wall_id),
+        w.direction.map_or(Cell::Blank, |d| Cell::text(d.code())),
+        Cell::yes_no(w.representative),
+        Cell::Num(w.count),
+        Cell::Num(w.length_m),
+        Cell::Num(w.thickness_m),
+        Cell::yes_no(w.boundary_elements),
+        Cell::Num(w.axial_load_ratio),
+        Cell::Num(w.shear_span_m),
+        Cell::Num(w.theta_y),
+        Cell::Num(w.theta_um),
+        Cell::Num(w.capacity.io),
+        Cell::Num(w.capacity.ls),
+        Cell::Num(w.capacity.cp),
+    ]);
+}
+
+// ------------------------------------------------------------------------------------------
+// Flags
+
+/// Columns of the Flags table.
+pub const FLAGS: &[Column] = &[
+    col("Rank", "rank", Kind::Int, 7.0),
+    col("Id", "id", Kind::Text, 12.0),
+    col("Name", "name", Kind::Text, 24.0),
+    col("Class", "class", Kind::Class, 26.0),
+    col("Flag", "code", Kind::Text, 20.0),
+    col("Direction", "direction", Kind::Text, 9.0),
+    col("Reason", "detail", Kind::Text, 90.0),
+];
+
+/// One Flags row.
+pub fn flag_row<'a>(b: &'a BuildingResult, f: &'a crate::results::Flag, out: &mut Vec<Cell<'a>>) {
+    out.clear();
+    out.extend([
+        Cell::Num(b.rank as f64),
+        Cell::text(&b.id),
+        Cell::text(&b.name),
+        Cell::Num(f64::from(b.class)),
+        Cell::text(&f.code),
+        f.direction.map_or(Cell::Blank, |d| Cell::text(d.code())),
+        Cell::text(&f.detail),
+    ]);
+}
+
+// ------------------------------------------------------------------------------------------
+// Not screened and input problems
+
+/// Columns of the Not screened table.
+pub const NOT_SCREENED: &[Column] = &[
+    col("Sheet", "sheet", Kind::Text, 12.0),
+    col("Row", "row", Kind::Int, 8.0),
+    col("Id", "id", Kind::Text, 14.0),
+    col("Reasons", "reasons", Kind::Text, 100.0),
+];
+
+/// One Not screened row.
+pub fn not_screened_row<'a>(n: &'a NotScreened, out: &mut Vec<Cell<'a>>) {
+    out.clear();
+    out.extend([
+        Cell::text(&n.sheet),
+        Cell::Num(n.row as f64),
+        Cell::text(&n.id),
+        Cell::owned(n.reasons.join("; ")),
+    ]);
+}
+
+/// Columns of the Input problems table.
+pub const PROBLEMS: &[Column] = &[
+    col("Severity", "severity", Kind::Text, 10.0),
+    col("Sheet", "sheet", Kind::Text, 12.0),
+    col("Row", "row", Kind::Int, 8.0),
+    col("Column", "column", Kind::Text, 22.0),
+    col("Problem", "message", Kind::Text, 100.0),
+];
+
+/// One Input problems row.
+pub fn problem_row<'a>(p: &'a Problem, out: &mut Vec<Cell<'a>>) {
+    out.clear();
+    out.extend([
+        Cell::text(match p.severity {
+            Severity::Error => "error",
+            Severity::Warning => "warning",
+        }),
+        Cell::text(&p.sheet),
+        Cell::opt(p.row.map(|r| r as f64)),
+        Cell::text(&p.column),
+        Cell::text(&p.message),
+    ]);
+}
+
+/// Number of rows each per-row table will have (without its header).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct RowCounts {
+    /// Priority rows.
+    pub priority: usize,
+    /// Retrofit plan rows.
+    pub retrofit: usize,
+    /// Directions rows.
+    pub directions: usize,
+    /// Walls rows.
+    pub walls: usize,
+    /// Flags rows.
+    pub flags: usize,
+    /// Not screened rows.
+    pub not_screened: usize,
+    /// Input problems rows.
+    pub problems: usize,
+}
+
+impl RowCounts {
+    /// Counts the rows of every table of a report.
+    pub fn of(report: &Report) -> Self {
+        RowCounts {
+            priority: report.buildings.len(),
+            retrofit: report
+                .buildings
+                .iter()
+                .filter(|b| b.retrofit.is_some())
+                .count(),
+            directions: 2 * report.buildings.len(),
+            walls: report.buildings.iter().map(|b| b.walls.len()).sum(),
+            flags: report.buildings.iter().map(|b| b.flags.len()).sum(),
+            not_screened: report.not_screened.len(),
+            problems: report.problems.len(),
+        }
+    }
+}
+
+/// The per-row tables, in sheet order.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+pub enum Table {
+    /// Priority.
+    Priority,
+    /// Retrofit plan.
+    Retrofit,
+    /// Directions.
+    Directions,
+    /// Walls.
+    Walls,
+    /// Flags.
+    Flags,
+    /// Not screened.
+    NotScreened,
+    /// Input problems.
+    Problems,
+}
+
+impl Table {
+    /// Every table in sheet order.
+    pub const ALL: [Table; 7] = [
+        Table::Priority,
+        Table::Retrofit,
+        Table::Directions,
+        Table::Walls,
+        Table::Flags,
+        Table::NotScreened,
+        Table::Problems,
+    ];
+    /// Its columns.
+    pub fn columns(self) -> &'static [Column] {
+        match self {
+            Table::Priority => PRIORITY,
+            Table::Retrofit => RETROFIT,
+            Table::Directions => DIRECTIONS,
+            Table::Walls => WALLS,
+            Table::Flags => FLAGS,
+            Table::NotScreened => NOT_SCREENED,
+            Table::Problems => PROBLEMS,
+        }
+    }
+    /// Its sheet name (interface.md).
+    pub fn sheet_name(self) -> &'static str {
+        match self {
+            Table::Priority => "Priority",
+            Table::Retrofit => "Retrofit plan",
+            Table::Directions => "Directions",
+            Table::Walls => "Walls",
+            Table::Flags => "Flags",
+            Table::NotScreened => "Not screened",
+            Table::Problems => "Input problems",
+        }
+    }
+    /// The `<sheet>` part of `<out stem>.<sheet>.csv`.
+    pub fn file_tag(self) -> &'static str {
+        match self {
+            Table::Priority => "priority",
+            Table::Retrofit => "retrofit-plan",
+            Table::Directions => "directions",
+            Table::Walls => "walls",
+            Table::Flags => "flags",
+            Table::NotScreened => "not-screened",
+            Table::Problems => "input-problems",
+        }
+    }
+    /// Its number of data rows.
+    pub fn rows(self, c: &RowCounts) -> usize {
+        match self {
+            Table::Priority => c.priority,
+            Table::Retrofit => c.retrofit,
+            Table::Directions => c.directions,
+            Table::Walls => c.walls,
+            Table::Flags => c.flags,
+            Table::NotScreened => c.not_screened,
+            Table::Problems => c.problems,
+        }
+    }
+
+    /// Calls `emit` with each row of the table (at most `limit` rows), in order.
+    pub fn for_each_row<E>(
+        self,
+        report: &Report,
+        target: Target,
+        limit: usize,
+        mut emit: impl FnMut(&[Cell<'_>]) -> Result<(), E>,
+    ) -> Result<(), E> {
+        let mut buf: Vec<Cell<'_>> = Vec::with_capacity(self.columns().len());
+        let mut n = 0usize;
+        macro_rules! push {
+            () => {{
+                if n >= limit {
+                    return Ok(());
+                }
+                emit(&buf)?;
+                n += 1;
+            }};
+        }
+        match self {
+            Table::Priority => {
+                for b in &report.buildings {
+                    priority_row(b, target, &mut buf);
+                    push!();
+                }
+            }
+            Table::Retrofit => {
+                let mut cumulative = 0.0;
+                let mut cum_known = true;
+                for b in report.buildings.iter().filter(|b| b.retrofit.is_some()) {
+                    match funding_cost(b) {
+                        Some(c) if cum_known => cumulative += c,
+                        _ => cum_known = false,
+                    }
+                    let cum = (cum_known && funding_cost(b).is_some()).then_some(cumulative);
+                    retrofit_row(b, cum, target, &mut buf);
+                    push!();
+                }
+            }
+            Table::Directions => {
+                for b in &report.buildings {
+                    for d in Dir::BOTH {
+                        direction_row(b, d, &mut buf);
+                        push!();
+                    }
+                }
+            }
+            Table::Walls => {
+                for b in &report.buildings {
+                    for w in &b.walls {
+                        wall_row(b, w, &mut buf);
+                        push!();
+                    }
+                }
+            }
+            Table::Flags => {
+                for b in &report.buildings {
+                    for f in &b.flags {
+                        flag_row(b, f, &mut buf);
+                        push!();
+                    }
+                }
+            }
+            Table::NotScreened => {
+                for ns in &report.not_screened {
+                    not_screened_row(ns, &mut buf);
+                    push!();
+                }
+            }
+            Table::Problems => {
+                for p in &report.problems {
+                    problem_row(p, &mut buf);
+                    push!();
+                }
+            }
+        }
+        Ok(())
+    }
+}

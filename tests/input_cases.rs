@@ -1,1 +1,0 @@
-//! Tests: input_cases (see DEVELOPERS.md).

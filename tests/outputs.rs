@@ -1,1 +1,0 @@
-//! Tests: outputs (see DEVELOPERS.md).

@@ -1,0 +1,8 @@
+//! Outputs: the results workbook, CSV, GeoJSON, JSON and the terminal summary, tested on
+//! hand-built reports (every sheet and rule of interface.md, independent of the engine) and
+//! on the built binary run over inventories the tests generate.
+
+pub mod binary;
+pub mod exports;
+mod sample;
+pub mod workbook;
