@@ -311,7 +311,7 @@ fn bad_district(bad: &str) -> seistriage::model::Problem {
     let p = problems.into_iter().next().unwrap();
     assert_eq!(p.sheet, "districts");
     assert_eq!(p.row, Some(2), "feature number in file order");
-    assert!(p.message.starts_with("feature 2"), "{}", p.message);
+    assert!(p.message.starts_with("feature 2 (index 1"), "{}", p.message);
     p
 }
 
