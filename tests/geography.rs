@@ -591,3 +591,51 @@ fn far_from_every_trace_the_nearest_is_still_reported() {
     assert!((fault.distance_m - 20.0 * m_per_deg()).abs() < 1.0);
     assert!(near.is_none());
 }
+
+mod never_panics {
+    use super::*;
+    use proptest::prelude::*;
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(200))]
+
+        /// Arbitrary text as a districts or faults file: an error or problems, never a panic.
+        #[test]
+        fn arbitrary_text(text in ".{0,400}") {
+            let _ = Geography::from_geojson_str(Some(&text), Some(&text));
+        }
+
+        /// Arbitrary coordinates (huge, tiny, out of range, repeated points, degenerate
+        /// rings and traces) load and place buildings without panicking.
+        #[test]
+        fn arbitrary_coordinates(
+            ring in proptest::collection::vec((-400.0f64..400.0, -200.0f64..200.0), 0..8),
+            line in proptest::collection::vec((-400.0f64..400.0, -200.0f64..200.0), 0..8),
+            lat in -100.0f64..100.0,
+            lon in -200.0f64..200.0,
+        ) {
+            let coords = |v: &[(f64, f64)]| {
+                v.iter().map(|(x, y)| format!("[{x},{y}]")).collect::<Vec<_>>().join(",")
+            };
+            let mut closed = ring.clone();
+            if let Some(first) = ring.first() {
+                closed.push(*first);
+            }
+            let d = collection(&[feature(
+                r#""name":"D""#,
+                &format!(r#"{{"type":"Polygon","coordinates":[[{}]]}}"#, coords(&closed)),
+            )]);
+            let f = collection(&[feature(
+                r#""name":"F","mw":7"#,
+                &format!(r#"{{"type":"LineString","coordinates":[{}]}}"#, coords(&line)),
+            )]);
+            let (g, _) = Geography::from_geojson_str(Some(&d), Some(&f)).unwrap();
+            let b = building("x", Some(lat), Some(lon), None);
+            let (sites, _) = locate(&[b], &g, &Settings::default());
+            prop_assert!(sites.contains_key("x"));
+            if let Some(fault) = &sites["x"].fault {
+                prop_assert!(fault.distance_m >= 0.0 && fault.distance_m.is_finite());
+            }
+        }
+    }
+}

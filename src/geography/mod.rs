@@ -181,11 +181,29 @@ pub fn near_fault_limit_km(mw: Option<f64>, s: &Settings) -> Option<f64> {
     }
 }
 
+/// Largest geography file read (bytes). A GeoJSON file is parsed whole into memory (several
+/// times its size), so a bigger one is refused before reading; district and fault files are
+/// normally a few megabytes.
+pub const MAX_GEOJSON_BYTES: u64 = 256 << 20;
+
 fn read_json(path: &Path) -> Result<Vec<geojson::JsonValue>, GeoError> {
+    read_json_within(path, MAX_GEOJSON_BYTES)
+}
+
+fn read_json_within(path: &Path, max_bytes: u64) -> Result<Vec<geojson::JsonValue>, GeoError> {
     let unreadable = |message: String| GeoError::Unreadable {
         path: path.display().to_string(),
         message,
     };
+    let len = std::fs::metadata(path)
+        .map_err(|e| unreadable(format!("cannot read: {e}")))?
+        .len();
+    if len > max_bytes {
+        return Err(unreadable(format!(
+            "the file has {len} bytes, more than the budget of {max_bytes} bytes for a \
+             geography file"
+        )));
+    }
     let bytes = std::fs::read(path).map_err(|e| unreadable(format!("cannot read: {e}")))?;
     let doc: geojson::JsonValue = serde_json::from_slice(&bytes)
         .map_err(|e| unreadable(format!("not a GeoJSON file (not valid JSON: {e})")))?;
@@ -586,6 +604,16 @@ fn point_missing(b: &BuildingRecord) -> bool {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn a_file_over_the_budget_is_refused_before_reading() {
+        let dir = tempfile::tempdir().unwrap();
+        let path = dir.path().join("big.geojson");
+        std::fs::write(&path, r#"{"type":"FeatureCollection","features":[]}"#).unwrap();
+        assert!(read_json_within(&path, 1000).is_ok());
+        let err = read_json_within(&path, 10).unwrap_err().to_string();
+        assert!(err.contains("more than the budget of 10 bytes"), "{err}");
+    }
 
     #[test]
     fn near_fault_limits_follow_method_section_10() {
