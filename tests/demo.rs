@@ -284,3 +284,78 @@ fn listed_walls_lie_inside_their_footprints() {
     }
     assert!(checked >= 15, "{checked}");
 }
+
+#[test]
+fn demo_command_screens_the_bundled_town_from_any_folder() {
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().join("demo-out");
+    let run = crate::common::run_in(dir.path(), &["demo", "--out", "demo-out", "--quiet"]);
+    assert!(
+        run.status.success(),
+        "{}",
+        String::from_utf8_lossy(&run.stderr)
+    );
+    for f in [
+        "demo.xlsx",
+        "demo-districts.geojson",
+        "demo-faults.geojson",
+        "demo-settings.toml",
+        "demo-screening.json",
+    ] {
+        assert!(out.join(f).exists(), "{f}");
+    }
+    let json: serde_json::Value =
+        serde_json::from_slice(&std::fs::read(out.join("demo-screening.json")).unwrap()).unwrap();
+    let buildings = json["buildings"].as_array().unwrap();
+    // 64 rows, 5 planted faulty ones (a duplicated id counts twice).
+    assert_eq!(buildings.len(), 59);
+    assert!(
+        buildings
+            .iter()
+            .all(|b| !b["district"].as_str().unwrap().is_empty())
+    );
+    assert!(
+        buildings
+            .iter()
+            .all(|b| b["fault"]["distance_m"].as_f64().unwrap() > 0.0)
+    );
+    let near = buildings
+        .iter()
+        .filter(|b| {
+            b["flags"]
+                .as_array()
+                .unwrap()
+                .iter()
+                .any(|f| f["code"] == "near-fault")
+        })
+        .count();
+    assert!(near > 0 && near < buildings.len(), "{near}");
+}
+
+#[test]
+fn generated_inventories_pass_check_without_problems() {
+    let dir = tempfile::tempdir().unwrap();
+    for file in ["g.csv", "g.xlsx"] {
+        let args = [
+            "generate",
+            "--buildings",
+            "40",
+            "--out",
+            file,
+            "--seed",
+            "5",
+        ];
+        let run = crate::common::run_in(dir.path(), &args);
+        assert!(
+            run.status.success(),
+            "{}",
+            String::from_utf8_lossy(&run.stderr)
+        );
+        let check = crate::common::run_in(dir.path(), &["check", file]);
+        let stdout = String::from_utf8_lossy(&check.stdout);
+        assert!(check.status.success(), "{stdout}");
+        let expected =
+            "40 rows: 40 accepted, 0 rejected, 0 blank rows skipped; 0 errors, 0 warnings";
+        assert!(stdout.contains(expected), "{stdout}");
+    }
+}

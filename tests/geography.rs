@@ -311,7 +311,7 @@ fn bad_district(bad: &str) -> seistriage::model::Problem {
     let p = problems.into_iter().next().unwrap();
     assert_eq!(p.sheet, "districts");
     assert_eq!(p.row, Some(2), "feature number in file order");
-    assert!(p.message.starts_with("feature 2"), "{}", p.message);
+    assert!(p.message.starts_with("feature 2 (index 1"), "{}", p.message);
     p
 }
 
@@ -480,5 +480,162 @@ fn many_buildings_many_districts_give_the_same_answer_as_a_linear_scan() {
             .map(|d| d.name.clone());
         let indexed = g.district_at(LatLon::new(lat, lon)).map(|d| d.name.clone());
         assert_eq!(indexed, linear, "{lat} {lon}");
+    }
+}
+
+#[test]
+fn pruned_fault_search_agrees_with_measuring_every_trace() {
+    use seistriage::geography::near_fault_limit_km;
+    use seistriage::geography::sphere::point_polyline_distance_m;
+    let mut state = 99_u64;
+    let mut next = || {
+        state = state
+            .wrapping_mul(6364136223846793005)
+            .wrapping_add(1442695040888963407);
+        (state >> 11) as f64 / (1u64 << 53) as f64
+    };
+    let mut feats = Vec::new();
+    for t in 0..25 {
+        let (mut x, mut y) = (20.0 + next() * 1.0, 40.0 + next() * 0.8);
+        let mut coords = Vec::new();
+        for _ in 0..(2 + t % 11) {
+            coords.push(format!("[{x},{y}]"));
+            x += (next() - 0.5) * 0.08;
+            y += (next() - 0.5) * 0.08;
+        }
+        let mw = if t % 4 == 0 {
+            String::new()
+        } else {
+            format!(r#","mw":{}"#, 5.5 + next() * 2.0)
+        };
+        feats.push(feature(
+            &format!(r#""name":"F{t}"{mw}"#),
+            &format!(
+                r#"{{"type":"LineString","coordinates":[{}]}}"#,
+                coords.join(",")
+            ),
+        ));
+    }
+    let (g, problems) = Geography::from_geojson_str(None, Some(&collection(&feats))).unwrap();
+    assert!(problems.is_empty());
+    let s = Settings::default();
+    let traces: Vec<_> = g.faults().cloned().collect();
+    let mut triggered = 0;
+    for _ in 0..400 {
+        let p = LatLon::new(39.8 + next() * 1.2, 19.8 + next() * 1.4);
+        let dist = |t: &seistriage::geography::FaultTrace| {
+            t.parts
+                .iter()
+                .map(|part| point_polyline_distance_m(p, part, MEAN_EARTH_RADIUS_M))
+                .fold(f64::INFINITY, f64::min)
+        };
+        let brute_nearest = traces
+            .iter()
+            .map(|t| (dist(t), t.name.clone()))
+            .min_by(|a, b| a.0.total_cmp(&b.0))
+            .unwrap();
+        let brute_trigger = traces
+            .iter()
+            .filter_map(|t| {
+                let d = dist(t);
+                near_fault_limit_km(t.mw, &s)
+                    .filter(|l| d <= l * 1000.0)
+                    .map(|_| (d, t.name.clone()))
+            })
+            .min_by(|a, b| a.0.total_cmp(&b.0));
+        let (fault, near) = g.faults_near(p, &s);
+        let fault = fault.unwrap();
+        assert_eq!(fault.name, brute_nearest.1);
+        assert!((fault.distance_m - brute_nearest.0).abs() < 1e-3);
+        triggered += usize::from(near.is_some());
+        assert_eq!(near.map(|n| n.name), brute_trigger.map(|t| t.1));
+    }
+    // Both outcomes were exercised.
+    assert!(triggered > 20 && triggered < 380, "{triggered}");
+}
+
+#[test]
+fn a_trace_bulging_past_its_vertices_is_still_found_nearest() {
+    // Trace A runs along the great circle from (70 N, 20 W) to (70 N, 20 E); its middle
+    // reaches 71.1° N (tan φ = tan 70° / cos 20°, Napier's rules), north of both vertices.
+    // A building on that middle point is 0 km from A, while a short trace B lies 5 km
+    // north of it. An index built on the vertices' boxes alone would answer B.
+    let top = (70f64.to_radians().tan() / 20f64.to_radians().cos())
+        .atan()
+        .to_degrees();
+    let b_lat = top + 5000.0 / m_per_deg();
+    let a = feature(
+        r#""name":"A","mw":6.5"#,
+        r#"{"type":"LineString","coordinates":[[-20,70],[20,70]]}"#,
+    );
+    let b = feature(
+        r#""name":"B","mw":6.5"#,
+        &format!(r#"{{"type":"LineString","coordinates":[[-0.01,{b_lat}],[0.01,{b_lat}]]}}"#),
+    );
+    let (g, _) = Geography::from_geojson_str(None, Some(&collection(&[b, a]))).unwrap();
+    let (fault, near) = g.faults_near(LatLon::new(top, 0.0), &Settings::default());
+    let fault = fault.unwrap();
+    assert_eq!(fault.name, "A");
+    assert!(fault.distance_m < 1.0, "{}", fault.distance_m);
+    assert_eq!(near.unwrap().name, "A");
+}
+
+#[test]
+fn far_from_every_trace_the_nearest_is_still_reported() {
+    // 2,000 km away: no near-fault, but the nearest trace and its distance are given.
+    let (g, _) =
+        Geography::from_geojson_str(None, Some(&collection(&[ew_trace("T", "7.5")]))).unwrap();
+    let (fault, near) = g.faults_near(LatLon::new(20.0, 0.0), &Settings::default());
+    let fault = fault.unwrap();
+    assert_eq!(fault.name, "T");
+    assert!((fault.distance_m - 20.0 * m_per_deg()).abs() < 1.0);
+    assert!(near.is_none());
+}
+
+mod never_panics {
+    use super::*;
+    use proptest::prelude::*;
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(200))]
+
+        /// Arbitrary text as a districts or faults file: an error or problems, never a panic.
+        #[test]
+        fn arbitrary_text(text in ".{0,400}") {
+            let _ = Geography::from_geojson_str(Some(&text), Some(&text));
+        }
+
+        /// Arbitrary coordinates (huge, tiny, out of range, repeated points, degenerate
+        /// rings and traces) load and place buildings without panicking.
+        #[test]
+        fn arbitrary_coordinates(
+            ring in proptest::collection::vec((-400.0f64..400.0, -200.0f64..200.0), 0..8),
+            line in proptest::collection::vec((-400.0f64..400.0, -200.0f64..200.0), 0..8),
+            lat in -100.0f64..100.0,
+            lon in -200.0f64..200.0,
+        ) {
+            let coords = |v: &[(f64, f64)]| {
+                v.iter().map(|(x, y)| format!("[{x},{y}]")).collect::<Vec<_>>().join(",")
+            };
+            let mut closed = ring.clone();
+            if let Some(first) = ring.first() {
+                closed.push(*first);
+            }
+            let d = collection(&[feature(
+                r#""name":"D""#,
+                &format!(r#"{{"type":"Polygon","coordinates":[[{}]]}}"#, coords(&closed)),
+            )]);
+            let f = collection(&[feature(
+                r#""name":"F","mw":7"#,
+                &format!(r#"{{"type":"LineString","coordinates":[{}]}}"#, coords(&line)),
+            )]);
+            let (g, _) = Geography::from_geojson_str(Some(&d), Some(&f)).unwrap();
+            let b = building("x", Some(lat), Some(lon), None);
+            let (sites, _) = locate(&[b], &g, &Settings::default());
+            prop_assert!(sites.contains_key("x"));
+            if let Some(fault) = &sites["x"].fault {
+                prop_assert!(fault.distance_m >= 0.0 && fault.distance_m.is_finite());
+            }
+        }
     }
 }

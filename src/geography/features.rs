@@ -2,8 +2,9 @@
 Reading the companion GeoJSON files into checked district polygons and fault traces.
 
 Each feature is read on its own (the `geojson` crate's `Feature`), validated, and either
-kept or reported as a [`Problem`] naming the feature (1-based in file order, shown as the
-`row`) and what is wrong with it; a bad feature never stops the others. Problems use the
+kept or reported as a [`Problem`] naming the feature (its number, 1-based in file order,
+shown as the `row`, and its 0-based index in the `features` list) and what is wrong with
+it; a bad feature never stops the others. Problems use the
 sheet names `districts` and `faults`.
 */
 
@@ -67,9 +68,10 @@ pub(crate) struct FeatureAt<'a> {
 
 impl FeatureAt<'_> {
     pub(crate) fn problem(&self, column: &str, message: String, severity: Severity) -> Problem {
+        let index = self.feature.saturating_sub(1);
         let who = match self.name {
-            Some(n) => format!("feature {} (\"{n}\")", self.feature),
-            None => format!("feature {}", self.feature),
+            Some(n) => format!("feature {} (index {index}, \"{n}\")", self.feature),
+            None => format!("feature {} (index {index})", self.feature),
         };
         Problem {
             sheet: self.sheet.to_string(),

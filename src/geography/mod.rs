@@ -13,10 +13,10 @@ district hazard overrides and its distance to the nearest fault trace (inventory
   lends its `agr_g`, `ground_type`, `sds_g`, `sd1_g`; the engine applies them where the row
   gives none. Names are compared trimmed; an exact match wins, else a case-insensitive one.
 - Faults: the Haversine distance (mean Earth radius 6 371 008.8 m) to the closest point of
-  the trace's great-circle segments ([`sphere`]); traces are visited in order of a lower
-  bound from a bounding spherical cap and skipped once the bound exceeds both the best
-  distance so far and the trace's near-fault limit, so a building usually measures one or
-  two traces exactly.
+  the trace's great-circle segments ([`sphere`]). Traces are cut into pieces of a few
+  segments whose longitude/latitude boxes (poleward bulge of the arcs included) form an
+  R-tree; a building measures only the pieces whose box meets the box around a spherical
+  cap about it, so the cost per building does not grow with the number of traces.
 - Bad input never stops the screening: bad features are reported (feature number and what
   is wrong) and skipped; buildings outside every district or without coordinates are
   reported and still screened.
@@ -34,16 +34,85 @@ use rstar::RTree;
 use rstar::primitives::{GeomWithData, Rectangle};
 
 pub use features::{District, DistrictHazard, FaultTrace};
-pub use sphere::{BoundingCap, LatLon, MEAN_EARTH_RADIUS_M};
+pub use sphere::{LatLon, MEAN_EARTH_RADIUS_M};
 
 use crate::model::{BuildingRecord, FaultDistance, NearFault, Problem, Severity, SiteInfo};
 use crate::settings::Settings;
 
-/// A fault trace with its bounding cap (for the distance lower bound).
+/// Segments per piece of a trace (each piece is one entry of the trace R-tree).
+const PIECE_SEGMENTS: usize = 4;
+
+/// A run of consecutive segments of one polyline of a trace.
+#[derive(Debug, Clone)]
+struct Piece {
+    /// Trace index.
+    trace: usize,
+    /// Polyline index within the trace.
+    part: usize,
+    /// First vertex index.
+    first: usize,
+    /// Last vertex index (inclusive).
+    last: usize,
+}
+
+/// A fault trace with its vertices as unit vectors.
 #[derive(Debug, Clone)]
 struct IndexedTrace {
     trace: FaultTrace,
-    cap: Option<BoundingCap>,
+    vectors: Vec<Vec<sphere::Vec3>>,
+}
+
+/// Splits a trace into pieces of at most [`PIECE_SEGMENTS`] segments, each with its
+/// longitude/latitude box (holding the great-circle arcs, poleward bulge included; the
+/// whole longitude range for a piece crossing the antimeridian).
+fn trace_pieces(index: usize, t: &IndexedTrace) -> Vec<(Piece, [f64; 4])> {
+    let mut out = Vec::new();
+    for (k, (part, vecs)) in t.trace.parts.iter().zip(&t.vectors).enumerate() {
+        if part.is_empty() {
+            continue;
+        }
+        let mut first = 0;
+        loop {
+            let last = (first + PIECE_SEGMENTS).min(part.len() - 1);
+            let (mut lo_lon, mut lo_lat, mut hi_lon, mut hi_lat) =
+                (f64::MAX, f64::MAX, f64::MIN, f64::MIN);
+            for p in part.get(first..=last).unwrap_or_default() {
+                lo_lon = lo_lon.min(p.lon);
+                hi_lon = hi_lon.max(p.lon);
+                lo_lat = lo_lat.min(p.lat);
+                hi_lat = hi_lat.max(p.lat);
+            }
+            for w in vecs.get(first..=last).unwrap_or_default().windows(2) {
+                if let [a, b] = w {
+                    let (lo, hi) = sphere::arc_lat_range(*a, *b);
+                    lo_lat = lo_lat.min(lo);
+                    hi_lat = hi_lat.max(hi);
+                }
+            }
+            let crosses_antimeridian = part
+                .get(first..=last)
+                .unwrap_or_default()
+                .windows(2)
+                .any(|w| matches!(w, [a, b] if (a.lon - b.lon).abs() > 180.0));
+            if crosses_antimeridian {
+                (lo_lon, hi_lon) = (-180.0, 180.0);
+            }
+            out.push((
+                Piece {
+                    trace: index,
+                    part: k,
+                    first,
+                    last,
+                },
+                [lo_lon, lo_lat, hi_lon, hi_lat],
+            ));
+            if last + 1 >= part.len() {
+                break;
+            }
+            first = last;
+        }
+    }
+    out
 }
 
 type BoxEntry = GeomWithData<Rectangle<[f64; 2]>, usize>;
@@ -56,6 +125,8 @@ pub struct Geography {
     by_name: HashMap<String, usize>,
     by_lower_name: HashMap<String, usize>,
     traces: Vec<IndexedTrace>,
+    pieces: Vec<Piece>,
+    piece_boxes: RTree<BoxEntry>,
     /// A districts file was given (even if none of its features was usable).
     districts_given: bool,
     /// A faults file was given.
@@ -69,9 +140,10 @@ pub fn locate(
     geo: &Geography,
     settings: &Settings,
 ) -> (HashMap<String, SiteInfo>, Vec<Problem>) {
+    let max_limit_m = geo.max_limit_m(settings);
     let placed: Vec<(SiteInfo, Vec<Problem>)> = buildings
         .par_iter()
-        .map(|b| geo.place(b, settings))
+        .map(|b| geo.place(b, settings, max_limit_m))
         .collect();
     let mut sites = HashMap::with_capacity(buildings.len());
     let mut problems = Vec::new();
@@ -109,11 +181,29 @@ pub fn near_fault_limit_km(mw: Option<f64>, s: &Settings) -> Option<f64> {
     }
 }
 
+/// Largest geography file read (bytes). A GeoJSON file is parsed whole into memory (several
+/// times its size), so a bigger one is refused before reading; district and fault files are
+/// normally a few megabytes.
+pub const MAX_GEOJSON_BYTES: u64 = 256 << 20;
+
 fn read_json(path: &Path) -> Result<Vec<geojson::JsonValue>, GeoError> {
+    read_json_within(path, MAX_GEOJSON_BYTES)
+}
+
+fn read_json_within(path: &Path, max_bytes: u64) -> Result<Vec<geojson::JsonValue>, GeoError> {
     let unreadable = |message: String| GeoError::Unreadable {
         path: path.display().to_string(),
         message,
     };
+    let len = std::fs::metadata(path)
+        .map_err(|e| unreadable(format!("cannot read: {e}")))?
+        .len();
+    if len > max_bytes {
+        return Err(unreadable(format!(
+            "the file has {len} bytes, more than the budget of {max_bytes} bytes for a \
+             geography file"
+        )));
+    }
     let bytes = std::fs::read(path).map_err(|e| unreadable(format!("cannot read: {e}")))?;
     let doc: geojson::JsonValue = serde_json::from_slice(&bytes)
         .map_err(|e| unreadable(format!("not a GeoJSON file (not valid JSON: {e})")))?;
@@ -191,19 +281,36 @@ impl Geography {
             by_name.entry(d.name.clone()).or_insert(i);
             by_lower_name.entry(d.name.to_lowercase()).or_insert(i);
         }
-        let traces = traces
+        let traces: Vec<IndexedTrace> = traces
             .into_iter()
             .map(|trace| {
-                let cap = BoundingCap::around(trace.parts.iter().flatten());
-                IndexedTrace { trace, cap }
+                let vectors = trace
+                    .parts
+                    .iter()
+                    .map(|part| part.iter().map(|p| sphere::unit(*p)).collect())
+                    .collect();
+                IndexedTrace { trace, vectors }
             })
             .collect();
+        let mut pieces = Vec::new();
+        let mut piece_boxes = Vec::new();
+        for (i, t) in traces.iter().enumerate() {
+            for (piece, [x0, y0, x1, y1]) in trace_pieces(i, t) {
+                piece_boxes.push(GeomWithData::new(
+                    Rectangle::from_corners([x0, y0], [x1, y1]),
+                    pieces.len(),
+                ));
+                pieces.push(piece);
+            }
+        }
         Geography {
             districts,
             district_boxes: RTree::bulk_load(boxes),
             by_name,
             by_lower_name,
             traces,
+            pieces,
+            piece_boxes: RTree::bulk_load(piece_boxes),
             districts_given: true,
             faults_given: true,
         }
@@ -245,6 +352,15 @@ impl Geography {
             .and_then(|&i| self.districts.get(i))
     }
 
+    /// The largest near-fault limit (m) of any trace under these settings (0 when none).
+    fn max_limit_m(&self, settings: &Settings) -> f64 {
+        self.traces
+            .iter()
+            .filter_map(|t| near_fault_limit_km(t.trace.mw, settings))
+            .fold(0.0, f64::max)
+            * 1000.0
+    }
+
     /// The nearest trace (ties: first in file order) and the trace that triggers the
     /// near-fault flag (the nearest among those within their limit), for a point.
     pub fn faults_near(
@@ -252,63 +368,141 @@ impl Geography {
         p: LatLon,
         settings: &Settings,
     ) -> (Option<FaultDistance>, Option<NearFault>) {
+        self.faults_near_within(p, settings, self.max_limit_m(settings))
+    }
+
+    /// [`Self::faults_near`] with the largest near-fault limit precomputed.
+    ///
+    /// Search: the R-tree of trace pieces is asked for every piece whose box meets the box
+    /// around the cap of radius D about the point ([`sphere::cap_box`]); that set holds every
+    /// piece within D. Round 1 uses D = the largest near-fault limit: it settles the
+    /// triggering trace, and the nearest trace when one lies within D. Otherwise the piece
+    /// nearest in plain degrees (R-tree nearest neighbour) is measured; its distance bounds
+    /// the true nearest distance from above, and round 2 with D = that bound finds the
+    /// nearest. Distances are compared as angles; the reported distance is the Haversine
+    /// distance from the point to the closest point found.
+    fn faults_near_within(
+        &self,
+        p: LatLon,
+        settings: &Settings,
+        max_limit_m: f64,
+    ) -> (Option<FaultDistance>, Option<NearFault>) {
         let r = MEAN_EARTH_RADIUS_M;
-        let mut order: Vec<(f64, usize)> = self
-            .traces
-            .iter()
-            .enumerate()
-            .map(|(i, t)| (t.cap.map_or(0.0, |c| c.lower_bound_m(p, r)), i))
-            .collect();
-        order.sort_by(|a, b| a.0.total_cmp(&b.0).then(a.1.cmp(&b.1)));
-        let mut nearest: Option<(f64, usize)> = None;
-        let mut trigger: Option<(f64, usize, f64)> = None;
-        for (bound, i) in order {
-            let Some(t) = self.traces.get(i) else {
-                continue;
-            };
-            let limit_m = near_fault_limit_km(t.trace.mw, settings).map(|km| km * 1000.0);
-            let could_be_nearest = nearest.is_none_or(|(d, _)| bound <= d);
-            let could_trigger = limit_m.is_some_and(|l| bound <= l);
-            if !could_be_nearest && !could_trigger {
-                continue;
-            }
-            let d = t
-                .trace
-                .parts
-                .iter()
-                .map(|part| sphere::point_polyline_distance_m(p, part, r))
-                .fold(f64::INFINITY, f64::min);
-            if nearest.is_none_or(|(best, j)| (d, i) < (best, j)) {
-                nearest = Some((d, i));
-            }
-            if let Some(l) = limit_m
-                && d <= l
-                && trigger.is_none_or(|(best, j, _)| (d, i) < (best, j))
+        if self.traces.is_empty() {
+            return (None, None);
+        }
+        let vp = sphere::unit(p);
+        // Round 1: every piece within the largest near-fault limit.
+        let radius_m = max_limit_m.max(1000.0);
+        let per_trace = self.traces_within(p, vp, radius_m);
+        let mut trigger: Option<(f64, usize, sphere::Vec3, f64)> = None;
+        for &(i, d, foot) in &per_trace {
+            let limit = self
+                .traces
+                .get(i)
+                .and_then(|t| near_fault_limit_km(t.trace.mw, settings))
+                .map(|km| km * 1000.0);
+            if let Some(l) = limit
+                && d * r <= l
+                && trigger.is_none_or(|(best, j, _, _)| (d, i) < (best, j))
             {
-                trigger = Some((d, i, l));
+                trigger = Some((d, i, foot, l));
             }
         }
+        let best_of = |v: &[(usize, f64, sphere::Vec3)]| {
+            v.iter()
+                .copied()
+                .min_by(|a, b| a.1.total_cmp(&b.1).then(a.0.cmp(&b.0)))
+        };
+        let mut nearest = best_of(&per_trace).filter(|&(_, d, _)| d * r <= radius_m);
+        if nearest.is_none() {
+            // Round 2: the piece nearest in plain degrees gives an upper bound of the true
+            // nearest distance; every piece within that bound is then measured.
+            let upper = self
+                .piece_boxes
+                .nearest_neighbor(&[p.lon, p.lat])
+                .and_then(|e| self.pieces.get(e.data))
+                .and_then(|piece| self.piece_closest(piece, vp))
+                .map(|(_, d)| d * r);
+            if let Some(upper) = upper {
+                nearest = best_of(&self.traces_within(p, vp, upper * (1.0 + 1e-9) + 1e-6));
+            }
+        }
+        let nearest = nearest.map(|(i, d, foot)| (d, i, foot));
         let name_of = |i: usize| {
             self.traces
                 .get(i)
                 .map(|t| t.trace.name.clone())
                 .unwrap_or_default()
         };
-        let fault = nearest.map(|(d, i)| FaultDistance {
+        let distance = |foot: sphere::Vec3| sphere::haversine_m(p, sphere::position(foot), r);
+        let fault = nearest.map(|(_, i, foot)| FaultDistance {
             name: name_of(i),
-            distance_m: d,
+            distance_m: distance(foot),
         });
-        let near = trigger.map(|(d, i, l)| NearFault {
+        let near = trigger.map(|(_, i, foot, l)| NearFault {
             name: name_of(i),
-            distance_m: d,
+            distance_m: distance(foot),
             mw: self.traces.get(i).and_then(|t| t.trace.mw),
             limit_km: l / 1000.0,
         });
         (fault, near)
     }
 
+    /// Per trace met: (trace index, angle in rad, closest point), over every piece whose box
+    /// meets the box around the cap of radius `radius_m` about `p` — which includes every
+    /// piece within `radius_m` of `p`.
+    fn traces_within(
+        &self,
+        p: LatLon,
+        vp: sphere::Vec3,
+        radius_m: f64,
+    ) -> Vec<(usize, f64, sphere::Vec3)> {
+        let mut per_trace: Vec<(usize, f64, sphere::Vec3)> = Vec::new();
+        let [x0, y0, x1, y1] = sphere::cap_box(p, radius_m / MEAN_EARTH_RADIUS_M);
+        let query = rstar::AABB::from_corners([x0, y0], [x1, y1]);
+        for entry in self.piece_boxes.locate_in_envelope_intersecting(&query) {
+            let Some(piece) = self.pieces.get(entry.data) else {
+                continue;
+            };
+            let Some((foot, d)) = self.piece_closest(piece, vp) else {
+                continue;
+            };
+            match per_trace.iter_mut().find(|(t, _, _)| *t == piece.trace) {
+                Some(slot) if d < slot.1 => *slot = (piece.trace, d, foot),
+                Some(_) => {}
+                None => per_trace.push((piece.trace, d, foot)),
+            }
+        }
+        per_trace
+    }
+
+    /// The closest point of one piece to the unit vector `p`, with its angle (rad).
+    fn piece_closest(&self, piece: &Piece, p: sphere::Vec3) -> Option<(sphere::Vec3, f64)> {
+        let vs = self
+            .traces
+            .get(piece.trace)?
+            .vectors
+            .get(piece.part)?
+            .get(piece.first..=piece.last)?;
+        if let [only] = vs {
+            return Some((*only, sphere::angle(p, *only)));
+        }
+        vs.windows(2)
+            .filter_map(|w| match w {
+                [a, b] => Some(sphere::segment_foot(p, *a, *b)),
+                _ => None,
+            })
+            .min_by(|a, b| a.1.total_cmp(&b.1))
+    }
+
     /// District, hazard and fault data of one building, with the problems found.
-    fn place(&self, b: &BuildingRecord, settings: &Settings) -> (SiteInfo, Vec<Problem>) {
+    fn place(
+        &self,
+        b: &BuildingRecord,
+        settings: &Settings,
+        max_limit_m: f64,
+    ) -> (SiteInfo, Vec<Problem>) {
         let mut problems = Vec::new();
         let warn = |column: &str, message: String| Problem {
             sheet: "buildings".into(),
@@ -387,7 +581,7 @@ impl Geography {
         if self.faults_given {
             match point {
                 Some(p) => {
-                    let (fault, near) = self.faults_near(p, settings);
+                    let (fault, near) = self.faults_near_within(p, settings, max_limit_m);
                     site.fault = fault;
                     site.near_fault = near;
                 }
@@ -410,6 +604,16 @@ fn point_missing(b: &BuildingRecord) -> bool {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn a_file_over_the_budget_is_refused_before_reading() {
+        let dir = tempfile::tempdir().unwrap();
+        let path = dir.path().join("big.geojson");
+        std::fs::write(&path, r#"{"type":"FeatureCollection","features":[]}"#).unwrap();
+        assert!(read_json_within(&path, 1000).is_ok());
+        let err = read_json_within(&path, 10).unwrap_err().to_string();
+        assert!(err.contains("more than the budget of 10 bytes"), "{err}");
+    }
 
     #[test]
     fn near_fault_limits_follow_method_section_10() {

@@ -1,7 +1,7 @@
 /*!
-Distances on the sphere: the Haversine great-circle distance between two points and the
-distance from a point to the closest point of a great-circle segment, plus a bounding cap
-that gives a cheap lower bound of the distance to a whole fault trace.
+Distances on the sphere: the Haversine great-circle distance between two points, the
+distance from a point to the closest point of a great-circle segment, and the boxes used to
+index fault traces (latitude range of an arc, box around a spherical cap).
 
 All angles in and out are decimal degrees (WGS84 latitude/longitude taken on a sphere);
 all distances are metres on a sphere of the radius passed in (the contract's mean Earth
@@ -29,7 +29,8 @@ impl LatLon {
     }
 }
 
-type Vec3 = [f64; 3];
+/// An earth-centred vector (unit length for positions).
+pub type Vec3 = [f64; 3];
 
 fn dot(a: Vec3, b: Vec3) -> f64 {
     a[0] * b[0] + a[1] * b[1] + a[2] * b[2]
@@ -56,13 +57,13 @@ fn sub(a: Vec3, b: Vec3) -> Vec3 {
 }
 
 /// Unit vector (earth-centred, x towards 0°/0°, z towards the north pole) of a position.
-fn unit(p: LatLon) -> Vec3 {
+pub fn unit(p: LatLon) -> Vec3 {
     let (phi, lam) = (p.lat.to_radians(), p.lon.to_radians());
     [phi.cos() * lam.cos(), phi.cos() * lam.sin(), phi.sin()]
 }
 
 /// Position of a (not necessarily unit) earth-centred vector.
-fn position(v: Vec3) -> LatLon {
+pub fn position(v: Vec3) -> LatLon {
     LatLon {
         lat: v[2].atan2(v[0].hypot(v[1])).to_degrees(),
         lon: v[1].atan2(v[0]).to_degrees(),
@@ -70,7 +71,7 @@ fn position(v: Vec3) -> LatLon {
 }
 
 /// Angle between two vectors (rad), by atan2 of |a×b| and a·b: accurate at every angle.
-fn angle(a: Vec3, b: Vec3) -> f64 {
+pub fn angle(a: Vec3, b: Vec3) -> f64 {
     norm(cross(a, b)).atan2(dot(a, b))
 }
 
@@ -91,28 +92,98 @@ pub fn haversine_m(p: LatLon, q: LatLon, radius_m: f64) -> f64 {
 ///
 /// The foot of the perpendicular from `p` to the arc's great circle (the cross-track point
 /// of the Aviation Formulary, E. Williams) is the answer when it lies between `a` and `b`
-/// (its along-track position is inside the arc); otherwise the nearer end point is. Done
-/// with earth-centred unit vectors: n = a × b is the circle's pole, the foot is p minus
-/// its component along n, and it lies on the arc when (a × foot)·n ≥ 0 and (foot × b)·n ≥ 0.
+/// (its along-track position is inside the arc); otherwise the nearer end point is. See
+/// [`segment_foot`] for the vector form.
+pub fn closest_point_on_segment(p: LatLon, a: LatLon, b: LatLon) -> LatLon {
+    let (foot, _) = segment_foot(unit(p), unit(a), unit(b));
+    position(foot)
+}
+
+/// Vector form of [`closest_point_on_segment`] on unit vectors: returns the closest point
+/// of the arc `a`–`b` to `p` (a vector, not necessarily of unit length) and its angular
+/// distance from `p` (rad). n = a × b is the circle's pole; the foot is p minus its
+/// component along n; it lies on the arc when (a × foot)·n ≥ 0 and (foot × b)·n ≥ 0.
 /// Degenerate arcs (a = b, or a and b antipodal so that the arc is undefined) and a point at
 /// the circle's pole fall back to the nearer end point.
-pub fn closest_point_on_segment(p: LatLon, a: LatLon, b: LatLon) -> LatLon {
-    let (va, vb, vp) = (unit(a), unit(b), unit(p));
-    let n = cross(va, vb);
-    let nn = norm(n);
+pub fn segment_foot(p: Vec3, a: Vec3, b: Vec3) -> (Vec3, f64) {
     let nearer_end = || {
-        if angle(vp, va) <= angle(vp, vb) { a } else { b }
+        let (da, db) = (angle(p, a), angle(p, b));
+        if da <= db { (a, da) } else { (b, db) }
     };
+    let n = cross(a, b);
+    let nn = norm(n);
     if nn < 1e-15 {
         return nearer_end();
     }
     let n_hat = scale(n, 1.0 / nn);
-    let foot = sub(vp, scale(n_hat, dot(vp, n_hat)));
-    if norm(foot) < 1e-15 {
+    let s = dot(p, n_hat);
+    let foot = sub(p, scale(n_hat, s));
+    let foot_len = norm(foot);
+    if foot_len < 1e-15 {
         return nearer_end();
     }
-    let within = dot(cross(va, foot), n) >= 0.0 && dot(cross(foot, vb), n) >= 0.0;
-    if within { position(foot) } else { nearer_end() }
+    if on_arc(a, b, n, foot) {
+        // Cross-track angle: atan2(|p·n̂|, |foot|).
+        (foot, s.abs().atan2(foot_len))
+    } else {
+        nearer_end()
+    }
+}
+
+/// True when `q` (a vector in the plane of the great circle through `a` and `b`, whose pole
+/// is `n` = a × b) lies on the minor arc from `a` to `b`.
+fn on_arc(a: Vec3, b: Vec3, n: Vec3, q: Vec3) -> bool {
+    dot(cross(a, q), n) >= 0.0 && dot(cross(q, b), n) >= 0.0
+}
+
+/// Latitude range (degrees) of the minor great-circle arc between unit vectors `a` and `b`,
+/// including its poleward bulge: a great circle's northernmost point is the north pole's
+/// direction projected on the circle's plane (its southernmost the opposite point), and it
+/// counts when it lies on the arc. (An east-west arc between two points at 70° N reaches
+/// beyond 70° N, so a box around the vertices alone would not hold the arc.)
+pub fn arc_lat_range(a: Vec3, b: Vec3) -> (f64, f64) {
+    let (la, lb) = (position(a).lat, position(b).lat);
+    let (mut lo, mut hi) = (la.min(lb), la.max(lb));
+    let n = cross(a, b);
+    let nn = norm(n);
+    if nn < 1e-15 {
+        return (lo, hi);
+    }
+    let n_hat = scale(n, 1.0 / nn);
+    let north = [0.0, 0.0, 1.0];
+    let top = sub(north, scale(n_hat, dot(north, n_hat)));
+    if norm(top) < 1e-15 {
+        return (lo, hi);
+    }
+    for q in [top, scale(top, -1.0)] {
+        if on_arc(a, b, n, q) {
+            let l = position(q).lat;
+            lo = lo.min(l);
+            hi = hi.max(l);
+        }
+    }
+    (lo, hi)
+}
+
+/// A longitude/latitude box (degrees: min lon, min lat, max lon, max lat) holding every
+/// point within angular distance `delta_rad` of `p` (a spherical cap). Latitude ± δ; the
+/// widest longitude of the cap is asin(sin δ / cos φ) (right spherical triangle); the box is
+/// the whole longitude range when the cap reaches a pole or the antimeridian.
+pub fn cap_box(p: LatLon, delta_rad: f64) -> [f64; 4] {
+    let d = delta_rad.to_degrees();
+    let (lat_lo, lat_hi) = ((p.lat - d).max(-90.0), (p.lat + d).min(90.0));
+    let ratio = delta_rad.sin() / p.lat.to_radians().cos();
+    let full = [-180.0, lat_lo, 180.0, lat_hi];
+    if delta_rad >= std::f64::consts::FRAC_PI_2 || lat_lo <= -90.0 || lat_hi >= 90.0 || ratio >= 1.0
+    {
+        return full;
+    }
+    let dlon = ratio.asin().to_degrees();
+    let (lon_lo, lon_hi) = (p.lon - dlon, p.lon + dlon);
+    if lon_lo < -180.0 || lon_hi > 180.0 {
+        return full;
+    }
+    [lon_lo, lat_lo, lon_hi, lat_hi]
 }
 
 /// Distance (m) from `p` to the closest point of the great-circle segment `a`–`b`: the
@@ -135,50 +206,6 @@ pub fn point_polyline_distance_m(p: LatLon, line: &[LatLon], radius_m: f64) -> f
                 _ => f64::INFINITY,
             })
             .fold(f64::INFINITY, f64::min),
-    }
-}
-
-/// A spherical cap holding every point of a set of great-circle polylines: a centre and an
-/// angular radius below 90°. A cap of radius below 90° is convex on the sphere (the minor
-/// arc between two of its points stays inside it), so a cap around the vertices holds the
-/// whole polyline — which a latitude/longitude box around the vertices does not (great-
-/// circle arcs bulge towards the pole). The triangle inequality on the sphere then gives a
-/// lower bound of the distance from any point to the polylines.
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub struct BoundingCap {
-    centre: Vec3,
-    radius_rad: f64,
-}
-
-impl BoundingCap {
-    /// The cap around all vertices, centred on their normalised mean; `None` when the
-    /// vertices spread over 90° or more (no useful cap) or there are none.
-    pub fn around<'a>(points: impl IntoIterator<Item = &'a LatLon> + Clone) -> Option<Self> {
-        let mut sum = [0.0; 3];
-        let mut count = 0usize;
-        for p in points.clone() {
-            let v = unit(*p);
-            sum = [sum[0] + v[0], sum[1] + v[1], sum[2] + v[2]];
-            count += 1;
-        }
-        let len = norm(sum);
-        if count == 0 || len < 1e-12 {
-            return None;
-        }
-        let centre = scale(sum, 1.0 / len);
-        let radius_rad = points
-            .into_iter()
-            .map(|p| angle(centre, unit(*p)))
-            .fold(0.0, f64::max);
-        // Convexity needs a radius below 90°; a little slack covers rounding.
-        let radius_rad = radius_rad * (1.0 + 1e-9) + 1e-12;
-        (radius_rad < std::f64::consts::FRAC_PI_2).then_some(Self { centre, radius_rad })
-    }
-
-    /// A lower bound of the distance (m) from `p` to anything inside the cap:
-    /// R · max(0, angle(p, centre) − cap radius).
-    pub fn lower_bound_m(&self, p: LatLon, radius_m: f64) -> f64 {
-        radius_m * (angle(unit(p), self.centre) - self.radius_rad).max(0.0)
     }
 }
 
@@ -286,32 +313,47 @@ mod tests {
     }
 
     #[test]
-    fn cap_lower_bound_never_exceeds_the_true_distance() {
-        // A high-latitude east-west trace, where the arc bulges north of its vertices.
-        let line = [LatLon::new(70.0, -20.0), LatLon::new(70.0, 20.0)];
-        let cap = BoundingCap::around(line.iter()).unwrap();
-        for (lat, lon) in [
-            (72.0, 0.0),
-            (75.0, 0.0),
-            (60.0, 0.0),
-            (70.0, 40.0),
-            (10.0, 5.0),
-        ] {
-            let p = LatLon::new(lat, lon);
-            let exact = point_polyline_distance_m(p, &line, R);
-            assert!(cap.lower_bound_m(p, R) <= exact + 1e-6, "{lat} {lon}");
-        }
-        // A far point gets a useful (non-zero) bound.
-        assert!(cap.lower_bound_m(LatLon::new(10.0, 5.0), R) > 1.0e6);
+    fn arc_latitude_range_includes_the_poleward_bulge() {
+        let (a, b) = (
+            unit(LatLon::new(70.0, -20.0)),
+            unit(LatLon::new(70.0, 20.0)),
+        );
+        let (lo, hi) = arc_lat_range(a, b);
+        assert_eq!(lo, 70.0);
+        // The arc's midpoint: tan φ = tan 70° / cos 20° (Napier's rules) → 71.1°.
+        let expected = (70f64.to_radians().tan() / 20f64.to_radians().cos())
+            .atan()
+            .to_degrees();
+        assert!((hi - expected).abs() < 1e-9, "{hi} {expected}");
+        // A meridian arc has no bulge.
+        let (lo, hi) = arc_lat_range(unit(LatLon::new(10.0, 5.0)), unit(LatLon::new(12.0, 5.0)));
+        assert!((lo - 10.0).abs() < 1e-12 && (hi - 12.0).abs() < 1e-12);
     }
 
     #[test]
-    fn no_cap_for_a_trace_spanning_half_the_globe() {
-        let line = [
-            LatLon::new(0.0, -100.0),
-            LatLon::new(0.0, 0.0),
-            LatLon::new(0.0, 100.0),
-        ];
-        assert!(BoundingCap::around(line.iter()).is_none());
+    fn cap_box_holds_points_at_the_cap_radius() {
+        let p = LatLon::new(60.0, 10.0);
+        let delta = 50_000.0 / R;
+        let bx = cap_box(p, delta);
+        // Points 50 km away in many directions lie inside the box.
+        for k in 0..36 {
+            let theta = f64::from(k) * 10f64.to_radians();
+            let (phi1, lam1) = (p.lat.to_radians(), p.lon.to_radians());
+            let phi2 = (phi1.sin() * delta.cos() + phi1.cos() * delta.sin() * theta.cos()).asin();
+            let lam2 = lam1
+                + (theta.sin() * delta.sin() * phi1.cos())
+                    .atan2(delta.cos() - phi1.sin() * phi2.sin());
+            let (lat, lon) = (phi2.to_degrees(), lam2.to_degrees());
+            assert!(
+                lon >= bx[0] - 1e-9 && lon <= bx[2] + 1e-9,
+                "{k}: {lon} {bx:?}"
+            );
+            assert!(
+                lat >= bx[1] - 1e-9 && lat <= bx[3] + 1e-9,
+                "{k}: {lat} {bx:?}"
+            );
+        }
+        assert_eq!(cap_box(LatLon::new(89.9, 0.0), delta)[0], -180.0);
+        assert_eq!(cap_box(LatLon::new(0.0, 179.9), delta)[2], 180.0);
     }
 }
