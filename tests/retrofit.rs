@@ -612,3 +612,46 @@ fn flags_after_follow_the_stiffness_ratio_with_the_new_walls() {
     // the cases cover all three outcomes: extreme, soft, and cleared
     assert_eq!(outcomes.len(), 3, "{outcomes:?}");
 }
+
+/// The bundled demo (invented town) screened with its settings (unit costs and a budget)
+/// shows both plans, each within the budget, the max-occupants plan protecting at least as
+/// many occupants as the walk, and `funded` / `funded_best` marking exactly their sets.
+#[test]
+fn demo_with_a_budget_shows_both_plans() {
+    let dir = tempfile::tempdir().unwrap();
+    let files = seistriage::demo::write_demo_files(dir.path()).unwrap();
+    let opts = seistriage::pipeline::RunOptions {
+        districts: files.districts.clone(),
+        faults: files.faults.clone(),
+        settings_file: files.settings.clone(),
+        ..Default::default()
+    };
+    let loaded = seistriage::pipeline::load(&files.inventory, &opts).unwrap();
+    let report = seistriage::pipeline::screen(&loaded);
+    let plan = report
+        .budget_plan
+        .clone()
+        .expect("the demo sets a budget and unit costs");
+    assert!(!plan.priority_walk.funded.is_empty());
+    assert!(!plan.max_occupants.funded.is_empty());
+    assert!(plan.priority_walk.cost <= plan.budget * (1.0 + 1e-12));
+    assert!(plan.max_occupants.cost <= plan.budget * (1.0 + 1e-12));
+    assert!(plan.max_occupants.occupants_protected >= plan.priority_walk.occupants_protected);
+    assert!(plan.max_occupants.method.is_some());
+    for b in &report.buildings {
+        if let Some(rf) = &b.retrofit {
+            assert_eq!(rf.funded, Some(plan.priority_walk.funded.contains(&b.id)));
+            assert_eq!(
+                rf.funded_best,
+                Some(plan.max_occupants.funded.contains(&b.id))
+            );
+        }
+    }
+    let (walk_only, best_only) = retrofit::plan_differences(&plan);
+    for id in &walk_only {
+        assert!(!plan.max_occupants.funded.contains(id));
+    }
+    for id in &best_only {
+        assert!(!plan.priority_walk.funded.contains(id));
+    }
+}
