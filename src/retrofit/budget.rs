@@ -140,6 +140,22 @@ pub fn capacity_steps(resolution: f64) -> u64 {
     }
 }
 
+/// Most steps of the knapsack capacity: the programme keeps two numbers per step (16 bytes).
+/// A memory guard, not an engineering coefficient (the default resolution is 2000).
+pub const MAX_CAPACITY_STEPS: f64 = 1_000_000.0;
+
+/// Most cells (items × steps) of the knapsack's choice table, one bit each (32 MB). A
+/// memory guard, not an engineering coefficient.
+pub const MAX_TABLE_CELLS: f64 = 268_435_456.0;
+
+/// The resolution actually used: `knapsack_resolution`, reduced only where `n` items at
+/// that resolution would pass [`MAX_CAPACITY_STEPS`] or [`MAX_TABLE_CELLS`] (the method
+/// text then says so).
+pub fn bounded_resolution(resolution: f64, n: usize) -> f64 {
+    let by_cells = (MAX_TABLE_CELLS / (n.max(1) as f64)).floor();
+    resolution.min(MAX_CAPACITY_STEPS).min(by_cells.max(1.0))
+}
+
 /// A cost rounded UP to whole steps (method §12); `None` when it cannot fit the capacity
 /// (or is not a number). A cost of 0 (or less) takes 0 steps.
 pub fn rounded_steps(cost: f64, step: f64, capacity: u64) -> Option<u64> {
@@ -244,11 +260,12 @@ pub struct Plans {
 /// max-occupants plan. `items` must be in rank order.
 pub fn plans(items: &[Item], budget: f64, resolution: f64) -> Plans {
     let walk = priority_walk(items, budget);
-    let step = cost_step(budget, resolution);
-    let capacity = capacity_steps(resolution);
     let eligible: Vec<usize> = (0..items.len())
         .filter(|&k| items[k].life_safety && items[k].cost.is_finite())
         .collect();
+    let used = bounded_resolution(resolution, eligible.len());
+    let step = cost_step(budget, used);
+    let capacity = capacity_steps(used);
     let ks: Vec<KnapsackItem> = eligible
         .iter()
         .map(|&k| KnapsackItem {
@@ -262,8 +279,15 @@ pub fn plans(items: &[Item], budget: f64, resolution: f64) -> Plans {
         .filter_map(|p| eligible.get(p).copied())
         .collect();
     let knapsack_sel = Selection::of(items, chosen);
+    let reduced = if used < resolution {
+        format!(
+            " (knapsack_resolution {resolution} reduced to {used} to bound the programme's memory)"
+        )
+    } else {
+        String::new()
+    };
     let dp_method = format!(
-        "exact 0/1 knapsack (dynamic programme) over the class 1–2 buildings with a cost, maximising occupants; costs rounded up to steps of {step} (budget / knapsack_resolution); ties: lower cost, then the set holding the best-ranked building where the sets differ"
+        "exact 0/1 knapsack (dynamic programme) over the class 1–2 buildings with a cost, maximising occupants; costs rounded up to steps of {step} (budget / knapsack_resolution){reduced}; ties: lower cost, then the set holding the best-ranked building where the sets differ"
     );
     let (best, method) = match compare_selections(&walk, &knapsack_sel) {
         Ordering::Less => {
@@ -410,6 +434,20 @@ mod tests {
         assert_eq!(p.walk.occupants, 20);
         assert_eq!(p.best.members, vec![0, 1]);
         assert!(p.method.starts_with("priority walk's set"), "{}", p.method);
+    }
+
+    #[test]
+    fn resolution_is_bounded_only_when_huge() {
+        assert_eq!(bounded_resolution(2000.0, 100_000), 2000.0);
+        assert_eq!(bounded_resolution(1e12, 1), MAX_CAPACITY_STEPS);
+        assert_eq!(
+            bounded_resolution(1e6, 1_000),
+            (MAX_TABLE_CELLS / 1000.0).floor()
+        );
+        let items = vec![item(1, 5.0, 10, true), item(2, 5.0, 10, true)];
+        let p = plans(&items, 10.0, 1e15);
+        assert_eq!(p.knapsack.members, vec![0, 1]);
+        assert!(p.method.contains("reduced to"), "{}", p.method);
     }
 
     #[test]
