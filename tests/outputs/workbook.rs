@@ -479,3 +479,15 @@ fn sample_workbook_for_visual_check() {
         }
     }
 }
+
+#[test]
+fn progress_reports_every_row_written() {
+    let report = sample::report(24);
+    let dir = tempfile::tempdir().unwrap();
+    let last = std::cell::Cell::new(0u64);
+    workbook::write_with_progress(&report, &dir.path().join("p.xlsx"), &|n| last.set(n)).unwrap();
+    let c = workbook::tables::RowCounts::of(&report);
+    let total =
+        c.priority + c.retrofit + c.directions + c.walls + c.flags + c.not_screened + c.problems;
+    assert_eq!(last.get(), total as u64);
+}
