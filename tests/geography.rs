@@ -243,9 +243,11 @@ fn near_fault_thresholds_of_method_section_10() {
 
 #[test]
 fn near_fault_thresholds_come_from_settings() {
-    let mut s = Settings::default();
-    s.near_fault_km = 3.0;
-    s.near_fault_km_large = 20.0;
+    let s = Settings {
+        near_fault_km: 3.0,
+        near_fault_km_large: 20.0,
+        ..Settings::default()
+    };
     assert_eq!(near_fault_at(4.0, "", &s), None);
     assert_eq!(near_fault_at(19.0, "7.5", &s), Some(20.0));
 }

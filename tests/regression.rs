@@ -40,3 +40,78 @@ fn csv_multi_line_quoted_field_is_one_row() {
     assert_eq!(rows, vec![2, 3]);
     assert_eq!(inv.blank_rows, 0);
 }
+
+/// Found by the hostile-input property test (corpus in
+/// tests/input_cases/hostile.proptest-regressions): calamine subtracts the start of an .xlsx
+/// `<dimension ref>` from its end and panicked on `A9:D3`. Now one "cannot read" error.
+#[test]
+fn xlsx_dimension_ending_before_it_starts_is_unreadable_not_a_panic() {
+    use std::io::{Read, Write};
+    let dir = tempfile::tempdir().unwrap();
+    let src = dir.path().join("ok.xlsx");
+    let mut wb = rust_xlsxwriter::Workbook::new();
+    let ws = wb.add_worksheet();
+    ws.set_name("buildings").unwrap();
+    for (c, h) in ["id", "storeys", "plan_area_m2", "column_area_m2"]
+        .iter()
+        .enumerate()
+    {
+        ws.write_string(0, c as u16, *h).unwrap();
+    }
+    ws.write_string(1, 0, "A").unwrap();
+    ws.write_number(1, 1, 3.0).unwrap();
+    ws.write_number(1, 2, 200.0).unwrap();
+    ws.write_number(1, 3, 2.0).unwrap();
+    wb.save(&src).unwrap();
+    let mut z = zip::ZipArchive::new(std::fs::File::open(&src).unwrap()).unwrap();
+    let bad = dir.path().join("bad.xlsx");
+    let mut out = zip::ZipWriter::new(std::fs::File::create(&bad).unwrap());
+    for i in 0..z.len() {
+        let mut f = z.by_index(i).unwrap();
+        let name = f.name().unwrap().to_string();
+        let mut b = Vec::new();
+        f.read_to_end(&mut b).unwrap();
+        if name == "xl/worksheets/sheet1.xml" {
+            let t = String::from_utf8(b).unwrap();
+            assert!(t.contains(r#"<dimension ref="A1:D2"/>"#), "{t}");
+            b = t
+                .replace(r#"<dimension ref="A1:D2"/>"#, r#"<dimension ref="A9:D3"/>"#)
+                .into_bytes();
+        }
+        out.start_file(name.as_str(), zip::write::SimpleFileOptions::default())
+            .unwrap();
+        out.write_all(&b).unwrap();
+    }
+    out.finish().unwrap();
+    let e = read_inventory(&bad, &ReadOptions::default());
+    // Either calamine reads it (release builds wrap the subtraction) or it is one clear error.
+    if let Err(e) = e {
+        assert!(e.to_string().contains("cannot read the file"), "{e}");
+    }
+}
+
+/// Found by the hostile-input property test: a compound file (.xls) cut inside a sector made
+/// calamine panic on a sector whose length is not a multiple of 4.
+#[test]
+fn truncated_compound_file_is_unreadable_not_a_panic() {
+    let wb = crate::input_cases::cases::biff_workbook(&[(0, 0), (3, 2)]);
+    let mut b = crate::input_cases::cases::compound_file(&[("Workbook", wb)]);
+    b.truncate(512 + 301); // inside the FAT sector
+    let dir = tempfile::tempdir().unwrap();
+    let p = dir.path().join("cut.xls");
+    std::fs::write(&p, &b).unwrap();
+    let e = read_inventory(&p, &ReadOptions::default()).unwrap_err();
+    assert!(e.to_string().contains("cannot read the file"), "{e}");
+}
+
+/// The delimiter was sniffed from the first non-blank line only: a title line above a
+/// `;`-separated header made the whole file read as one column (no header found).
+#[test]
+fn csv_title_line_above_a_semicolon_header_does_not_hide_the_delimiter() {
+    let inv = read_csv_text(
+        "Invented district inventory\n\nid;storeys;plan_area_m2;column_area_m2\nA;3;212,5;2\n",
+    );
+    assert_eq!(inv.buildings.len(), 1, "{:#?}", inv.problems);
+    assert_eq!(inv.buildings[0].plan_area_m2, 212.5);
+    assert_eq!(inv.buildings[0].row, 4);
+}

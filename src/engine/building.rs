@@ -364,7 +364,7 @@ pub fn screen(
         let ac: f64 = res
             .walls_in(d)
             .map(|w| period::ac_term_m2(w.area_m2(), w.lw, res.height_m))
-            .sum();
+            .fold(0.0, |a, b| a + b);
         let t_wall = period::period_wall_s(s.ct_period, ac, res.height_m);
         let t_formula = period::formula_period_s(t_frame, t_wall);
         let (mut t, source) = match res.period_input_s.get(d) {

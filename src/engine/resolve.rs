@@ -561,7 +561,7 @@ pub fn resolve(input: &BuildingInput<'_>, settings: &Settings) -> Result<Resolve
                         .or(wall_tw)
                         .unwrap_or(settings.default_wall_thickness_m)
             })
-            .sum()
+            .fold(0.0, |a, b| a + b)
     };
     let (storeys, storey_source) = if !input.storeys.is_empty() && n >= 2 {
         let mut out = Vec::with_capacity(n as usize);

@@ -8,6 +8,9 @@ use crate::settings::Settings;
 /// Strength factor β = fc/fc_ref if fc ≤ fc_ref, else √(fc/fc_ref) (fc, fc_ref in MPa;
 /// fc_ref = 20 MPa). JBDPA 2001 (linear branch); square-root branch from memory.
 pub fn beta(fc_mpa: f64, fc_reference_mpa: f64) -> f64 {
+    if fc_reference_mpa <= 0.0 {
+        return 1.0;
+    }
     if fc_mpa <= fc_reference_mpa {
         fc_mpa / fc_reference_mpa
     } else {

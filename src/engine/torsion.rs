@@ -117,8 +117,16 @@ pub struct TorsionCheck {
 /// not assessed (its `fails_*` stays false).
 pub fn check(walls: &[PlanWall], fp: &Footprint, ratio: f64) -> TorsionCheck {
     let k = |w: &PlanWall| w.tw * w.lw.powi(3);
-    let kx: f64 = walls.iter().filter(|w| w.dir == Dir::X).map(k).sum();
-    let ky: f64 = walls.iter().filter(|w| w.dir == Dir::Y).map(k).sum();
+    let kx: f64 = walls
+        .iter()
+        .filter(|w| w.dir == Dir::X)
+        .map(k)
+        .fold(0.0, |a, b| a + b);
+    let ky: f64 = walls
+        .iter()
+        .filter(|w| w.dir == Dir::Y)
+        .map(k)
+        .fold(0.0, |a, b| a + b);
     let ys = (kx > 0.0).then(|| {
         walls
             .iter()

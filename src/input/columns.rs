@@ -114,7 +114,7 @@ pub const BUILDINGS: SheetSpec = SheetSpec {
                 "required",
                 "Building identifier, unique in the sheet; kept as text exactly.",
             ),
-            &["building_id", "building id"],
+            &["building_id"],
         ),
         col("name", "text", Text, false, "\"\"", "Building name."),
         alias(
@@ -703,6 +703,26 @@ mod tests {
                         seen.insert(normalise_key(n)),
                         "{}: {n} collides after normalising",
                         sheet.name
+                    );
+                }
+            }
+        }
+    }
+}
+
+#[cfg(test)]
+mod help_tests {
+    use super::SHEETS;
+
+    #[test]
+    fn every_alias_is_named_in_the_help_text() {
+        for sheet in SHEETS {
+            for c in sheet.columns {
+                for a in c.aliases.iter().filter(|a| !a.contains(' ')) {
+                    assert!(
+                        crate::input::HEADER_RULE_HELP.contains(a),
+                        "alias {a} of {} missing from HEADER_RULE_HELP",
+                        c.name
                     );
                 }
             }

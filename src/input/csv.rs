@@ -10,7 +10,7 @@ use std::io::Read;
 use std::path::Path;
 
 use super::InputError;
-use super::raw::{Budget, CellCounter, MAX_CELL_CHARS, RawCell, RawRow};
+use super::raw::{Budget, CellCounter, HEADER_SCAN_ROWS, MAX_CELL_CHARS, RawCell, RawRow};
 
 /// What the CSV source found out about the file.
 #[derive(Debug, Clone, Default)]
@@ -36,22 +36,19 @@ pub fn delimiter_of(text: &[u8]) -> u8 {
 }
 
 fn sniff_delimiter(text: &[u8]) -> u8 {
-    let line = text
-        .split(|b| *b == b'\n')
-        .find(|l| {
-            l.iter()
-                .any(|b| !b.is_ascii_whitespace() && *b != b',' && *b != b';')
-        })
-        .unwrap_or(&[]);
+    // Count candidates outside quotes over the first lines (title lines above the header
+    // hold none, so one line alone can mislead).
     let mut counts = [0usize; 3];
-    let mut quoted = false;
-    for b in line {
-        match b {
-            b'"' => quoted = !quoted,
-            b',' if !quoted => counts[0] += 1,
-            b';' if !quoted => counts[1] += 1,
-            b'\t' if !quoted => counts[2] += 1,
-            _ => {}
+    for line in text.split(|b| *b == b'\n').take(HEADER_SCAN_ROWS) {
+        let mut quoted = false;
+        for b in line {
+            match b {
+                b'"' => quoted = !quoted,
+                b',' if !quoted => counts[0] += 1,
+                b';' if !quoted => counts[1] += 1,
+                b'\t' if !quoted => counts[2] += 1,
+                _ => {}
+            }
         }
     }
     if counts[1] > counts[0] && counts[1] >= counts[2] {
@@ -63,7 +60,15 @@ fn sniff_delimiter(text: &[u8]) -> u8 {
     }
 }
 
-/// Reads a CSV file row by row into `sink`.
+/// Whether a head of a file is UTF-8 (a multi-byte sequence cut at the end is allowed).
+fn head_is_utf8(head: &[u8]) -> bool {
+    match std::str::from_utf8(head) {
+        Ok(_) => true,
+        Err(e) => e.error_len().is_none(),
+    }
+}
+
+/// Reads a CSV file row by row into `sink`, streaming (the file is never held whole).
 pub fn read_csv(
     path: &Path,
     budget: &Budget,
@@ -82,28 +87,34 @@ pub fn read_csv(
             ),
         });
     }
-    let mut bytes = Vec::new();
-    std::fs::File::open(path)
-        .and_then(|mut f| f.read_to_end(&mut bytes))
+    let mut file = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
+    let mut head = Vec::new();
+    (&mut file)
+        .take(64 * 1024)
+        .read_to_end(&mut head)
         .map_err(|e| unreadable(&p, e))?;
-    if bytes.iter().take(8192).any(|b| *b == 0) {
+    if head.iter().take(8192).any(|b| *b == 0) {
         return Err(unreadable(
             &p,
             "not a CSV text file (binary content); give a .csv, .xlsx, .xlsm, .xls or .ods inventory",
         ));
     }
-    let mut info = CsvInfo::default();
-    let text: Vec<u8> = match std::str::from_utf8(&bytes) {
-        Ok(_) => bytes,
-        Err(_) => {
-            info.windows_1252 = true;
-            let (cow, _, _) = encoding_rs::WINDOWS_1252.decode(&bytes);
-            cow.into_owned().into_bytes()
-        }
+    let bom = head.starts_with(b"\xEF\xBB\xBF");
+    let body_head = if bom {
+        head.get(3..).unwrap_or(&[])
+    } else {
+        &head[..]
     };
-    let body = text.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(&text);
-    info.delimiter = sniff_delimiter(body);
+    let mut info = CsvInfo {
+        delimiter: sniff_delimiter(body_head),
+        ..Default::default()
+    };
     info.decimal_comma = info.delimiter == b';';
+    let whole_1252 = !head_is_utf8(body_head);
+    drop(file);
+    let file = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
+    let body =
+        std::io::BufReader::with_capacity(1 << 16, file).bytes_after(if bom { 3 } else { 0 });
     let mut rdr = csv::ReaderBuilder::new()
         .has_headers(false)
         .flexible(true)
@@ -111,6 +122,7 @@ pub fn read_csv(
         .from_reader(body);
     let mut record = csv::ByteRecord::new();
     let mut person_row = 0usize;
+    let mut prev_end_line = 1u64;
     loop {
         let more = rdr
             .read_byte_record(&mut record)
@@ -118,28 +130,37 @@ pub fn read_csv(
         if !more {
             break;
         }
-        // The csv crate skips blank lines silently; a record's position is where reading
-        // started, so the line ends just before its first byte are the blank lines above it.
-        let start = record
-            .position()
-            .map(|pos| pos.byte() as usize)
-            .unwrap_or(0);
-        let lead = body.get(start..).unwrap_or(&[]);
-        let run = lead.iter().take_while(|b| matches!(b, b'\r' | b'\n'));
-        let mut blanks = run.filter(|b| **b == b'\n').count();
-        let glued =
-            start > 0 && body.get(start - 1) == Some(&b'\r') && lead.first() == Some(&b'\n');
-        if glued {
-            blanks = blanks.saturating_sub(1);
-        }
-        person_row += blanks + 1;
+        // The csv crate skips blank lines silently. The line a record starts on follows from
+        // where reading stopped after it, less the line ends inside its quoted fields; the
+        // lines between the end of the previous record and that start are blank rows.
+        let end = rdr.position();
+        let inner = record
+            .iter()
+            .map(|f| f.iter().filter(|b| **b == b'\n').count() as u64)
+            .sum::<u64>();
+        // The csv crate counts a line end at the end of the file too, so every record ends
+        // one line further on.
+        let terminator = 1;
+        let first_line = end.line().saturating_sub(inner + terminator);
+        let blanks = first_line.saturating_sub(prev_end_line);
+        prev_end_line = end.line();
+        person_row += blanks as usize + 1;
         let mut row = RawRow {
             row: person_row,
             cells: Vec::new(),
         };
         let mut truncated = Vec::new();
         for (col, field) in record.iter().enumerate() {
-            let mut s = String::from_utf8_lossy(field).into_owned();
+            let mut s = match std::str::from_utf8(field) {
+                Ok(t) if !whole_1252 => t.to_string(),
+                _ => {
+                    info.windows_1252 = true;
+                    encoding_rs::WINDOWS_1252
+                        .decode_without_bom_handling(field)
+                        .0
+                        .into_owned()
+                }
+            };
             if s.trim().is_empty() {
                 continue;
             }
@@ -157,6 +178,38 @@ pub fn read_csv(
     Ok(info)
 }
 
+/// Skips the first `n` bytes of a reader (the BOM).
+trait BytesAfter: Read + Sized {
+    fn bytes_after(self, n: u64) -> SkipReader<Self> {
+        SkipReader {
+            inner: self,
+            skip: n,
+        }
+    }
+}
+impl<R: Read> BytesAfter for R {}
+
+/// A reader that drops its first `skip` bytes.
+struct SkipReader<R> {
+    inner: R,
+    skip: u64,
+}
+
+impl<R: Read> Read for SkipReader<R> {
+    fn read(&mut self, buf: &mut [u8]) -> std::io::Result<usize> {
+        while self.skip > 0 {
+            let mut tmp = [0u8; 8];
+            let want = usize::try_from(self.skip.min(8)).unwrap_or(8);
+            let n = self.inner.read(&mut tmp[..want])?;
+            if n == 0 {
+                return Ok(0);
+            }
+            self.skip -= n as u64;
+        }
+        self.inner.read(buf)
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -167,5 +220,9 @@ mod tests {
         assert_eq!(sniff_delimiter(b"id,storeys\n"), b',');
         assert_eq!(sniff_delimiter(b"\n\nid\tstoreys\n"), b'\t');
         assert_eq!(sniff_delimiter(b"\"a;b\",c,d\n"), b',');
+        assert_eq!(
+            sniff_delimiter(b"Title, with a comma\n\nid;storeys;plan_area_m2\nA;3;2,5\n"),
+            b';'
+        );
     }
 }

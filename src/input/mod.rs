@@ -10,10 +10,12 @@ the sources, [`parse`] typed records per row, [`validate`] checks across rows an
 
 pub mod columns;
 pub mod csv;
+pub mod guard;
 pub mod header;
 pub mod parse;
 pub mod raw;
 pub mod validate;
+pub mod xls_scan;
 pub mod xlsx;
 
 use std::cell::RefCell;
@@ -91,8 +93,9 @@ impl SheetRun<'_> {
         let mut c = self.collected.borrow_mut();
         match self.spec.name {
             "buildings" => {
-                let r = parse::building(&row, self.decimal_comma, &self.limits);
-                c.buildings.push(r);
+                let (b, problems) = parse::building(&row, self.decimal_comma, &self.limits);
+                c.buildings.push(b);
+                c.building_problems.extend(problems);
             }
             "walls" => {
                 let r = parse::wall(&row, self.decimal_comma);
@@ -109,9 +112,10 @@ impl SheetRun<'_> {
             _ => {
                 let key = row.cells.first().map(|c| c.as_text()).unwrap_or_default();
                 let value = row.cells.get(1).map(|c| c.as_text()).unwrap_or_default();
-                if !key.trim().is_empty() {
-                    c.settings_rows
-                        .push((key.trim().to_string(), value.trim().to_string()));
+                // Keys are matched like headers: "Floor Weight kPa" is floor_weight_kpa.
+                let key = header::normalise(&key);
+                if !key.is_empty() {
+                    c.settings_rows.push((key, value.trim().to_string()));
                 }
             }
         }
@@ -202,20 +206,37 @@ pub fn read_inventory(path: &Path, opts: &ReadOptions) -> Result<Inventory, Inpu
     let kind = match head {
         Some(h) if h.starts_with(&ZIP_MAGIC) => {
             let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
-            let kind = xlsx::check_zip(std::io::BufReader::new(f), &p, &opts.budget)?;
+            let kind = guarded_read(&p, || {
+                xlsx::check_zip(std::io::BufReader::new(f), &p, &opts.budget)
+            })?;
             if kind == WorkbookKind::Ods {
                 let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
-                xlsx::check_ods_extent(std::io::BufReader::new(f), &p, &opts.budget)?;
+                guarded_read(&p, || {
+                    xlsx::check_ods_extent(std::io::BufReader::new(f), &p, &opts.budget)
+                })?;
             }
             Some(kind)
         }
         Some(h) if h == CFB_MAGIC => Some(if matches!(ext.as_str(), "xlsx" | "xlsm") {
             WorkbookKind::Xlsx
         } else {
+            guarded_read(&p, || check_xls_extent(path, &opts.budget))?;
             WorkbookKind::Xls
         }),
         _ => None,
     };
+    if matches!(kind, Some(WorkbookKind::Xls | WorkbookKind::Ods))
+        && meta.len() > opts.budget.max_dense_file_bytes
+    {
+        return Err(InputError::TooLarge {
+            path: p,
+            message: format!(
+                "the .xls/.ods file has {} bytes, more than the budget of {} bytes for workbooks read whole (save it as .xlsx, which is streamed)",
+                meta.len(),
+                opts.budget.max_dense_file_bytes
+            ),
+        });
+    }
     let collected = RefCell::new(Collected::default());
     let mut counter = CellCounter {
         cells: 0,
@@ -223,7 +244,9 @@ pub fn read_inventory(path: &Path, opts: &ReadOptions) -> Result<Inventory, Inpu
         path: p.clone(),
     };
     match kind {
-        Some(kind) => read_workbook(path, kind, opts, &collected, &mut counter)?,
+        Some(kind) => guarded_read(&p, || {
+            read_workbook(path, kind, opts, &collected, &mut counter)
+        })?,
         None if matches!(ext.as_str(), "csv" | "txt" | "tsv") => {
             read_csv_files(path, opts, &collected, &mut counter)?
         }
@@ -238,6 +261,43 @@ pub fn read_inventory(path: &Path, opts: &ReadOptions) -> Result<Inventory, Inpu
     Ok(validate::finish(collected.into_inner(), wall_pct))
 }
 
+/// Runs a workbook read inside the panic guard (calamine can panic on malformed files).
+fn guarded_read<T>(path: &str, f: impl FnOnce() -> Result<T, InputError>) -> Result<T, InputError> {
+    guard::guarded(f).unwrap_or_else(|panic| {
+        Err(unreadable(
+            path,
+            format!("not a readable workbook (malformed content: {panic})"),
+        ))
+    })
+}
+
+/// Refuses an `.xls` whose sheets would expand to more cells than the dense budget, before
+/// calamine reads it (calamine expands every sheet when the workbook is opened).
+fn check_xls_extent(path: &Path, budget: &Budget) -> Result<(), InputError> {
+    let p = path.display().to_string();
+    let bytes = std::fs::read(path).map_err(|e| unreadable(&p, e))?;
+    for (i, e) in xls_scan::sheet_extents(&bytes)
+        .unwrap_or_default()
+        .iter()
+        .enumerate()
+    {
+        let cells = e.rows.saturating_mul(e.cols);
+        if cells > budget.max_dense_cells {
+            return Err(InputError::TooLarge {
+                path: p,
+                message: format!(
+                    "sheet {} spans {} rows × {} columns = {cells} cells, more than the budget of {} for .xls (save it as .xlsx, which is streamed, or delete stray far-away cells)",
+                    i + 1,
+                    e.rows,
+                    e.cols,
+                    budget.max_dense_cells
+                ),
+            });
+        }
+    }
+    Ok(())
+}
+
 fn read_workbook(
     path: &Path,
     kind: WorkbookKind,
@@ -247,7 +307,18 @@ fn read_workbook(
 ) -> Result<(), InputError> {
     let p = path.display().to_string();
     let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
-    let mut wb = Workbook::open(std::io::BufReader::new(f), kind, &p)?;
+    let mut wb = match Workbook::open(std::io::BufReader::new(f), kind, &p) {
+        Ok(wb) => wb,
+        Err(e) if kind == WorkbookKind::Xls => {
+            // A password-protected .xlsx is a compound file too, whatever its extension.
+            let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
+            match Workbook::open(std::io::BufReader::new(f), WorkbookKind::Xlsx, &p) {
+                Err(protected @ InputError::Protected { .. }) => return Err(protected),
+                _ => return Err(e),
+            }
+        }
+        Err(e) => return Err(e),
+    };
     let names = wb.sheet_names();
     let find = |spec: &SheetSpec| {
         names
@@ -388,5 +459,7 @@ fn csv_info(file: &Path, budget: &Budget) -> Result<bool, InputError> {
 pub const HEADER_RULE_HELP: &str = "Column names are matched after normalising: lower case; '²' -> '2'; brackets and \
 parentheses removed; runs of spaces, '_' and '-' -> one '_'; then one trailing unit token \
 (m, m2, mm, kn, kpa, mpa, g, s, pct, %, deg, year) is stripped. 'Plan Area [m2]', 'plan-area m²' \
-and 'PLAN_AREA_M2' all match plan_area_m2. Extra accepted names: building_id for id; stories, \
-floors for storeys; lat, lon for latitude, longitude; occupancy for use; building for building_id.";
+and 'PLAN_AREA_M2' all match plan_area_m2. Extra accepted names: building_id for id; \
+occupancy for use; construction_year, year_of_construction for year_built; lat for latitude; \
+lon, lng, long for longitude; stories, floors, number_of_storeys for storeys; building for \
+building_id (walls, storeys, footprints); story, floor for storey; setting, name for key.";

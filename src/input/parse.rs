@@ -53,6 +53,7 @@ pub struct RowParser<'a> {
     pub row: usize,
     cells: &'a [RawCell],
     decimal_comma: bool,
+    hint: std::cell::Cell<usize>,
     /// Problems of this row (errors and warnings).
     pub problems: Vec<Problem>,
 }
@@ -115,6 +116,7 @@ impl<'a> RowParser<'a> {
             row: row.row,
             cells: &row.cells,
             decimal_comma,
+            hint: std::cell::Cell::new(0),
             problems: Vec::new(),
         }
     }
@@ -127,12 +129,18 @@ impl<'a> RowParser<'a> {
     fn cell(&self, name: &str) -> &'a RawCell {
         const EMPTY: &RawCell = &RawCell::Empty;
         let cells: &'a [RawCell] = self.cells;
-        self.spec
-            .columns
-            .iter()
-            .position(|c| c.name == name)
-            .and_then(|i| cells.get(i))
-            .unwrap_or(EMPTY)
+        // Columns are mostly read in table order: search from the last hit onwards.
+        let cols = self.spec.columns;
+        let n = cols.len();
+        let start = self.hint.get();
+        for k in 0..n {
+            let i = (start + k) % n;
+            if cols.get(i).is_some_and(|c| c.name == name) {
+                self.hint.set(i);
+                return cells.get(i).unwrap_or(EMPTY);
+            }
+        }
+        EMPTY
     }
 
     /// Records a problem in a column.

@@ -91,12 +91,16 @@ pub struct Budget {
     pub max_uncompressed_bytes: u64,
     /// Largest compression ratio of a zip entry above 1 MiB (zip-bomb guard).
     pub max_compression_ratio: u64,
+    /// Largest uncompressed shared-strings part of an .xlsx (it is held in memory).
+    pub max_shared_strings_bytes: u64,
     /// Most non-empty cells read from one file.
     pub max_cells: u64,
     /// Most data rows in one sheet.
     pub max_rows: u64,
     /// Most cells of a dense sheet grid (.xls/.ods are read whole, not streamed).
     pub max_dense_cells: u64,
+    /// Largest .xls / .ods file (read whole into memory).
+    pub max_dense_file_bytes: u64,
 }
 
 impl Default for Budget {
@@ -105,9 +109,11 @@ impl Default for Budget {
             max_file_bytes: 2 << 30,
             max_uncompressed_bytes: 4 << 30,
             max_compression_ratio: 1000,
+            max_shared_strings_bytes: 512 << 20,
             max_cells: 200_000_000,
             max_rows: 5_000_000,
             max_dense_cells: 10_000_000,
+            max_dense_file_bytes: 256 << 20,
         }
     }
 }
@@ -174,6 +180,8 @@ pub struct SheetReader<'s> {
     /// Problems of the sheet as a whole (header, unknown columns, stray cells).
     pub problems: Vec<Problem>,
     consumer: Box<dyn FnMut(DataRow) + 's>,
+    /// Spec position of each 0-based sheet column (None = not a known column).
+    slots: Vec<Option<usize>>,
 }
 
 impl<'s> SheetReader<'s> {
@@ -200,6 +208,7 @@ impl<'s> SheetReader<'s> {
             path: path.to_string(),
             problems: Vec::new(),
             consumer: Box::new(consumer),
+            slots: Vec::new(),
         }
     }
 
@@ -318,11 +327,19 @@ impl<'s> SheetReader<'s> {
                 Severity::Error,
             );
         }
+        let width = map.matched.iter().map(|(i, _)| i + 1).max().unwrap_or(0);
+        let mut slots = vec![None; width];
+        for (i, name) in &map.matched {
+            if let Some(slot) = slots.get_mut(*i) {
+                *slot = self.spec.columns.iter().position(|c| c.name == *name);
+            }
+        }
+        self.slots = slots;
         self.state = State::Data(map);
     }
 
     fn data(&mut self, row: RawRow) -> Result<(), InputError> {
-        let State::Data(map) = &self.state else {
+        let State::Data(_) = &self.state else {
             return Ok(());
         };
         let gap = row.row.saturating_sub(self.last_row).saturating_sub(1);
@@ -334,11 +351,9 @@ impl<'s> SheetReader<'s> {
             if cell.is_blank() {
                 continue;
             }
-            match map.matched.iter().find(|(i, _)| *i == col) {
-                Some((_, name)) => {
-                    if let Some(pos) = self.spec.columns.iter().position(|c| c.name == *name)
-                        && let Some(slot) = cells.get_mut(pos)
-                    {
+            match self.slots.get(col).copied().flatten() {
+                Some(pos) => {
+                    if let Some(slot) = cells.get_mut(pos) {
                         *slot = cell;
                         any_known = true;
                     }

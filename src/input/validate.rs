@@ -18,8 +18,10 @@ use super::raw::format_number;
 /// Rows read from every sheet, each with its own problems, before cross-checks.
 #[derive(Debug, Default)]
 pub struct Collected {
-    /// Buildings rows.
-    pub buildings: Vec<(BuildingRecord, Vec<Problem>)>,
+    /// Buildings rows (accepted or not: the split happens in [`finish`], in place).
+    pub buildings: Vec<BuildingRecord>,
+    /// Problems of the buildings rows, in row order.
+    pub building_problems: Vec<Problem>,
     /// Walls rows.
     pub walls: Vec<(WallRecord, Vec<Problem>)>,
     /// Storeys rows.
@@ -107,18 +109,20 @@ fn sort_out<T>(
     out
 }
 
-/// Cross-checks and the final split into accepted and not-screened rows.
-pub fn finish(c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
+/// Cross-checks and the final split into accepted and not-screened rows. The accepted
+/// rows stay in the vector they were read into (no second copy of a large stock).
+pub fn finish(mut c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
     let mut inv = Inventory {
-        settings_rows: c.settings_rows,
+        settings_rows: std::mem::take(&mut c.settings_rows),
         blank_rows: c.blank_rows,
         rows: c.buildings.len(),
         ..Default::default()
     };
-    let mut problems = c.sheet_problems;
+    let mut problems = std::mem::take(&mut c.sheet_problems);
+    let mut row_problems = std::mem::take(&mut c.building_problems);
     // Ids → rows.
     let mut ids: HashMap<String, Vec<usize>> = HashMap::new();
-    for (b, _) in &c.buildings {
+    for b in &c.buildings {
         if !b.id.is_empty() {
             ids.entry(b.id.clone()).or_default().push(b.row);
         }
@@ -127,7 +131,7 @@ pub fn finish(c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
     let mut later = Vec::new();
     let walls = sort_out(
         "walls",
-        c.walls,
+        std::mem::take(&mut c.walls),
         |w| &w.building_id,
         |w| w.row,
         &ids,
@@ -136,7 +140,7 @@ pub fn finish(c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
     );
     let storeys = sort_out(
         "storeys",
-        c.storeys,
+        std::mem::take(&mut c.storeys),
         |s| &s.building_id,
         |s| s.row,
         &ids,
@@ -145,7 +149,7 @@ pub fn finish(c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
     );
     let footprints = sort_out(
         "footprints",
-        c.footprints,
+        std::mem::take(&mut c.footprints),
         |f| &f.building_id,
         |f| f.row,
         &ids,
@@ -157,7 +161,7 @@ pub fn finish(c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
     let thickness: HashMap<&str, Option<f64>> = c
         .buildings
         .iter()
-        .map(|(b, _)| (b.id.as_str(), b.wall_thickness_m))
+        .map(|b| (b.id.as_str(), b.wall_thickness_m))
         .collect();
     for w in &walls {
         if w.start_storey.unwrap_or(1) != 1 {
@@ -180,7 +184,12 @@ pub fn finish(c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
             None => e.2[i] = false,
         }
     }
-    for (b, mut probs) in c.buildings {
+    let mut bad: HashSet<usize> = row_problems
+        .iter()
+        .filter(|p| p.severity == Severity::Error)
+        .filter_map(|p| p.row)
+        .collect();
+    for b in &c.buildings {
         if let Some(rows) = ids.get(&b.id)
             && rows.len() > 1
         {
@@ -189,24 +198,26 @@ pub fn finish(c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
                 .map(|r| r.to_string())
                 .collect::<Vec<_>>()
                 .join(", ");
-            probs.push(err(
+            row_problems.push(err(
                 "buildings",
                 b.row,
                 "id",
                 format!("expected a unique id, found \"{}\" in rows {list}; none of these rows is screened", b.id),
             ));
+            bad.insert(b.row);
         }
-        let walls_here = ground.get(b.id.as_str());
-        if !has_error(&probs) {
+        if !bad.contains(&b.row) {
+            let walls_here = ground.get(b.id.as_str());
             let listed = walls_here.is_some_and(|g| g.0);
             let wall_cols = b.rc_wall_area_x_m2.unwrap_or(0.0) + b.rc_wall_area_y_m2.unwrap_or(0.0);
             if b.column_area_m2 == 0.0 && !listed && wall_cols == 0.0 {
-                probs.push(err(
+                row_problems.push(err(
                     "buildings",
                     b.row,
                     "column_area_m2",
                     "expected column area plus RC wall area above 0, found 0 (a building with no vertical structure)".into(),
                 ));
+                bad.insert(b.row);
             }
             if let Some((true, sums, complete)) = walls_here {
                 for (i, d, col) in [(0, "X", "rc_wall_area_x_m2"), (1, "Y", "rc_wall_area_y_m2")] {
@@ -227,7 +238,7 @@ pub fn finish(c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
                         0.0
                     };
                     if off > wall_area_mismatch_pct {
-                        probs.push(warning(
+                        row_problems.push(warning(
                             "buildings",
                             b.row,
                             col,
@@ -244,31 +255,39 @@ pub fn finish(c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
         }
         if let Some(more) = extra.get(&b.id) {
             for m in more {
-                probs.push(err("buildings", b.row, "", m.message.clone()));
+                row_problems.push(err("buildings", b.row, "", m.message.clone()));
+            }
+            bad.insert(b.row);
+        }
+    }
+    row_problems.sort_by_key(|p| p.row);
+    if !bad.is_empty() {
+        let mut reasons: HashMap<usize, Vec<String>> = HashMap::new();
+        for p in row_problems
+            .iter()
+            .filter(|p| p.severity == Severity::Error)
+        {
+            if let Some(r) = p.row {
+                let list = reasons.entry(r).or_default();
+                let text = reason(p);
+                if !list.contains(&text) {
+                    list.push(text);
+                }
             }
         }
-        let bad = has_error(&probs);
-        if bad {
-            let mut seen = HashSet::new();
-            let reasons = probs
-                .iter()
-                .filter(|p| p.severity == Severity::Error)
-                .map(reason)
-                .filter(|r| seen.insert(r.clone()))
-                .collect();
+        for b in c.buildings.iter().filter(|b| bad.contains(&b.row)) {
             inv.not_screened.push(NotScreened {
                 sheet: "buildings".into(),
                 row: b.row,
                 id: b.id.clone(),
-                reasons,
+                reasons: reasons.remove(&b.row).unwrap_or_default(),
             });
         }
-        problems.extend(probs);
-        if !bad {
-            inv.buildings.push(b);
-        }
+        c.buildings.retain(|b| !bad.contains(&b.row));
     }
+    problems.extend(row_problems);
     problems.extend(later);
+    inv.buildings = c.buildings;
     inv.walls = walls;
     inv.storeys = storeys;
     inv.footprints = footprints;

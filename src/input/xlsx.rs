@@ -73,6 +73,15 @@ pub fn check_zip<R: Read + Seek>(
                 ),
             });
         }
+        if name == "xl/sharedStrings.xml" && size > budget.max_shared_strings_bytes {
+            return Err(InputError::TooLarge {
+                path: path.to_string(),
+                message: format!(
+                    "the shared text of the workbook expands to {size} bytes, more than the budget of {} bytes",
+                    budget.max_shared_strings_bytes
+                ),
+            });
+        }
         match name.as_str() {
             "xl/workbook.xml" => kind = Some(WorkbookKind::Xlsx),
             "xl/workbook.bin" => {
@@ -388,21 +397,6 @@ pub fn sniff(path: &Path) -> std::io::Result<Option<[u8; 8]>> {
     Ok((n == 8).then_some(head))
 }
 
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn serials_give_their_calendar_year() {
-        // 1972-05-01 is serial 26420 in the 1900 system (spreadsheet convention).
-        assert_eq!(year_of_serial(26420.0, false), Some(1972));
-        assert_eq!(year_of_serial(25569.0, false), Some(1970));
-        assert_eq!(year_of_serial(25568.0, false), Some(1969));
-        assert_eq!(year_of_serial(24107.0, true), Some(1970));
-        assert_eq!(year_of_serial(45658.0, false), Some(2025));
-    }
-}
-
 fn repeat_attr(e: &quick_xml::events::BytesStart<'_>, name: &str) -> u64 {
     e.try_get_attribute(name)
         .ok()
@@ -518,4 +512,19 @@ pub fn check_ods_extent<R: Read + Seek>(
         }
     }
     Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn serials_give_their_calendar_year() {
+        // 1972-05-01 is serial 26420 in the 1900 system (spreadsheet convention).
+        assert_eq!(year_of_serial(26420.0, false), Some(1972));
+        assert_eq!(year_of_serial(25569.0, false), Some(1970));
+        assert_eq!(year_of_serial(25568.0, false), Some(1969));
+        assert_eq!(year_of_serial(24107.0, true), Some(1970));
+        assert_eq!(year_of_serial(45658.0, false), Some(2025));
+    }
 }

@@ -74,9 +74,9 @@ fn render(
     let d = &b.detail;
     let mark = |key: &str| {
         if b.defaults_used.iter().any(|k| k == key) {
-            "  [default]"
+            format!("  [default: {key}]")
         } else {
-            ""
+            String::new()
         }
     };
     let mut o = String::new();
@@ -238,7 +238,7 @@ fn render(
                     "wall_length_y_m"
                 })
             } else {
-                ""
+                String::new()
             },
             n(w.tw),
             mark("wall_thickness_m"),
@@ -427,7 +427,15 @@ fn render(
             r.capacity.walls.as_ref().map_or("null".into(), lv),
             r.capacity.columns.as_ref().map_or("null".into(), lv)
         );
-        let _ = writeln!(o, "     DCR {}", lv(&r.dcr));
+        if let (Some(dw), Some(c)) = (r.drift_demand.walls, r.capacity.walls) {
+            let g = engine::dcr::group_dcr(dw, &c);
+            let _ = writeln!(o, "     walls δ_w/θ_w: {}", lv(&g));
+        }
+        if let (Some(dc), Some(c)) = (r.drift_demand.columns, r.capacity.columns) {
+            let g = engine::dcr::group_dcr(dc, &c);
+            let _ = writeln!(o, "     columns δ_c/θ_c: {}", lv(&g));
+        }
+        let _ = writeln!(o, "     DCR = max over groups: {}", lv(&r.dcr));
     }
     let _ = writeln!(o, "§10 Flags");
     if b.flags.is_empty() {
@@ -476,4 +484,93 @@ fn render(
         );
     }
     o
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::model::{BuildingRecord, GroundType, Inventory, NotScreened, Use, YesNo};
+    use crate::results::InputInfo;
+    use crate::settings::Settings;
+    use std::collections::HashMap;
+
+    fn rec(id: &str, agr: Option<f64>, row: usize) -> BuildingRecord {
+        BuildingRecord {
+            row,
+            id: id.into(),
+            name: "Invented".into(),
+            use_: Some(Use::School),
+            storeys: 3,
+            storey_height_m: Some(3.0),
+            plan_area_m2: 150.0,
+            column_area_m2: 1.5,
+            rc_wall_area_x_m2: Some(2.0),
+            boundary_elements: Some(YesNo::Unknown),
+            ground_type: Some(GroundType::B),
+            agr_g: agr,
+            occupants: Some(40),
+            ..Default::default()
+        }
+    }
+
+    fn loaded() -> Loaded {
+        let inventory = Inventory {
+            buildings: vec![
+                rec("E1", Some(0.25), 2),
+                rec("E2", None, 3),
+                rec("E3", Some(0.4), 4),
+            ],
+            not_screened: vec![NotScreened {
+                sheet: "buildings".into(),
+                row: 5,
+                id: "E4".into(),
+                reasons: vec!["plan_area_m2 missing".into()],
+            }],
+            rows: 4,
+            ..Default::default()
+        };
+        Loaded {
+            input: InputInfo::default(),
+            inventory,
+            settings: Settings::default(),
+            sites: HashMap::new(),
+        }
+    }
+
+    #[test]
+    fn explain_reproduces_screen_numbers() {
+        let l = loaded();
+        let report = pipeline::screen(&l);
+        let b = report.buildings.iter().find(|b| b.id == "E1").unwrap();
+        let text = explain(&l, "E1").unwrap();
+        if std::env::var_os("SHOW_EXPLAIN").is_some() {
+            println!("{text}");
+        }
+        assert!(text.contains(&format!("score {}", b.score)), "{text}");
+        assert!(text.contains(&format!("rank {} of 2", b.rank)));
+        assert!(text.contains(&format!(
+            "roof drift δ_r = d_t/H = {}",
+            b.directions.x.roof_drift_demand
+        )));
+        assert!(text.contains("[default: "), "defaults are marked");
+        assert!(text.contains("fc = 20 MPa  [default: fc_mpa]"));
+        for step in [
+            "§0", "§1", "§2", "§3", "§4", "§5", "§6", "§7", "§8", "§9", "§10", "§11",
+        ] {
+            assert!(text.contains(step), "{step}");
+        }
+    }
+
+    #[test]
+    fn explain_says_why_not_screened() {
+        let l = loaded();
+        let t = explain(&l, "E2").unwrap();
+        assert!(
+            t.contains("could not be screened") && t.contains("no hazard given"),
+            "{t}"
+        );
+        let t = explain(&l, "E4").unwrap();
+        assert!(t.contains("plan_area_m2 missing"));
+        assert!(explain(&l, "nope").is_none());
+    }
 }

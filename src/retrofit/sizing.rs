@@ -111,6 +111,13 @@ pub fn walls_in(d: Dir, area: f64) -> NewWalls {
 /// Sizes one direction (method §12): `Some(0.0)` when its DCR_LS is already at or below
 /// the target, `Some(ΔA_d)` from [`bisect`], `None` when no area within the cap suffices.
 /// `dcr(area)` is the direction's DCR_LS re-screened with `area` of new walls in it alone.
+///
+/// Under the EN 1998-3 capacity model DCR_LS,d is non-increasing in ΔA_d on
+/// [one wall, cap] (method §12), so the result is the smallest area within the tolerance.
+/// Under `capacity_model` = asce41 or lower-of-both it need not be (the wall shear demand
+/// of ASCE 41-17 Table 10-19 can rise as the period shortens); the reported area is then
+/// still one at which the DCR was evaluated and found ≤ target (see [`bisect`]), i.e. the
+/// reported area itself is checked, though a smaller feasible area may exist.
 pub fn size_direction(
     base_dcr_ls: f64,
     floor_area_m2: f64,

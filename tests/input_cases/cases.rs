@@ -556,7 +556,7 @@ fn optional_sheets_are_read_and_unknown_building_ids_reported_and_ignored() {
     let settings = vec![
         vec![S("key"), S("value")],
         vec![S("agr_g"), N(0.3)],
-        vec![S("default_ground_type"), S("B")],
+        vec![S("Default Ground-Type"), S("B")],
     ];
     let mut u1 = good("U1");
     u1[5] = N(1.0); // 4 × 0.25 = 1.0 m² along X: agrees
@@ -771,4 +771,188 @@ fn an_ods_stray_far_away_cell_is_refused_before_the_grid_is_allocated() {
     let e = read_inventory(&ods(dir.path(), "far.ods", &xml), &ReadOptions::default()).unwrap_err();
     let msg = e.to_string();
     assert!(msg.contains("1000003 rows × 201 columns"), "{msg}");
+}
+
+/// A minimal compound file (CFB v3, 512-byte sectors) holding the given streams in regular
+/// sectors (streams shorter than 4096 bytes are padded to 4096 so that no mini stream is
+/// needed). Layout from [MS-CFB] §2 (from memory).
+pub fn compound_file(streams: &[(&str, Vec<u8>)]) -> Vec<u8> {
+    let put16 =
+        |f: &mut Vec<u8>, at: usize, v: u16| f[at..at + 2].copy_from_slice(&v.to_le_bytes());
+    let put32 =
+        |f: &mut Vec<u8>, at: usize, v: u32| f[at..at + 4].copy_from_slice(&v.to_le_bytes());
+    let streams: Vec<(&str, Vec<u8>)> = streams
+        .iter()
+        .map(|(n, b)| {
+            let mut b = b.clone();
+            if b.len() < 4096 {
+                b.resize(4096, 0);
+            }
+            (*n, b)
+        })
+        .collect();
+    let data_sectors: Vec<usize> = streams.iter().map(|(_, b)| b.len().div_ceil(512)).collect();
+    let total = 2 + data_sectors.iter().sum::<usize>();
+    assert!(total <= 128, "one FAT sector only");
+    let mut f = vec![0u8; 512 * (1 + total)];
+    f[..8].copy_from_slice(&[0xD0, 0xCF, 0x11, 0xE0, 0xA1, 0xB1, 0x1A, 0xE1]);
+    put16(&mut f, 24, 0x003E);
+    put16(&mut f, 26, 3);
+    put16(&mut f, 28, 0xFFFE);
+    put16(&mut f, 30, 9);
+    put16(&mut f, 32, 6);
+    put32(&mut f, 44, 1); // one FAT sector
+    put32(&mut f, 48, 1); // directory in sector 1
+    put32(&mut f, 56, 4096);
+    put32(&mut f, 60, 0xFFFF_FFFE);
+    put32(&mut f, 68, 0xFFFF_FFFE);
+    for i in 0..109 {
+        put32(&mut f, 76 + 4 * i, if i == 0 { 0 } else { 0xFFFF_FFFF });
+    }
+    let fat = 512;
+    for i in 0..128 {
+        put32(&mut f, fat + 4 * i, 0xFFFF_FFFF);
+    }
+    put32(&mut f, fat, 0xFFFF_FFFD);
+    put32(&mut f, fat + 4, 0xFFFF_FFFE);
+    let mut next = 2usize;
+    let mut starts = Vec::new();
+    for ((_, b), n) in streams.iter().zip(&data_sectors) {
+        starts.push(next);
+        for k in 0..*n {
+            let id = next + k;
+            put32(
+                &mut f,
+                fat + 4 * id,
+                if k + 1 == *n {
+                    0xFFFF_FFFE
+                } else {
+                    (id + 1) as u32
+                },
+            );
+        }
+        let at = 512 * (1 + next);
+        f[at..at + b.len()].copy_from_slice(b);
+        next += n;
+    }
+    let mut entries = vec![("Root Entry", 5u8, 0xFFFF_FFFEu32, 0u32)];
+    for ((n, b), s) in streams.iter().zip(&starts) {
+        entries.push((n, 2u8, *s as u32, b.len() as u32));
+    }
+    assert!(entries.len() <= 4);
+    for (k, (name, kind, start, size)) in entries.iter().enumerate() {
+        let at = 1024 + 128 * k;
+        let utf16: Vec<u8> = name.encode_utf16().flat_map(u16::to_le_bytes).collect();
+        f[at..at + utf16.len()].copy_from_slice(&utf16);
+        put16(&mut f, at + 64, (utf16.len() + 2) as u16);
+        f[at + 66] = *kind;
+        put32(&mut f, at + 68, 0xFFFF_FFFF);
+        put32(
+            &mut f,
+            at + 72,
+            if k >= 1 && k + 1 < entries.len() {
+                (k + 1) as u32
+            } else {
+                0xFFFF_FFFF
+            },
+        );
+        put32(&mut f, at + 76, if k == 0 { 1 } else { 0xFFFF_FFFF });
+        put32(&mut f, at + 116, *start);
+        put32(&mut f, at + 120, *size);
+    }
+    f
+}
+
+/// What a spreadsheet program writes for a password-protected .xlsx: a compound file with an
+/// `EncryptedPackage` stream ([MS-OFFCRYPTO] §2.3.4.4, from memory).
+pub fn encrypted_ooxml() -> Vec<u8> {
+    compound_file(&[
+        ("EncryptionInfo", vec![4, 0, 4, 0]),
+        ("EncryptedPackage", vec![1; 64]),
+    ])
+}
+
+/// BIFF8 records: globals BOF/EOF, then one worksheet with cells at the given positions.
+pub fn biff_workbook(cells: &[(u16, u16)]) -> Vec<u8> {
+    let rec = |typ: u16, data: &[u8]| -> Vec<u8> {
+        let mut r = typ.to_le_bytes().to_vec();
+        r.extend((data.len() as u16).to_le_bytes());
+        r.extend(data);
+        r
+    };
+    let bof = |dt: u16| {
+        rec(
+            0x0809,
+            &[&0x0600u16.to_le_bytes()[..], &dt.to_le_bytes(), &[0u8; 12]].concat(),
+        )
+    };
+    let mut w = bof(0x0005);
+    w.extend(rec(0x000A, &[]));
+    w.extend(bof(0x0010));
+    for (r, c) in cells {
+        let data = [
+            &r.to_le_bytes()[..],
+            &c.to_le_bytes(),
+            &0u16.to_le_bytes(),
+            &1.5f64.to_le_bytes(),
+        ]
+        .concat();
+        w.extend(rec(0x0203, &data));
+    }
+    w.extend(rec(0x000A, &[]));
+    w
+}
+
+#[test]
+fn an_xls_stray_far_away_cell_is_refused_before_calamine_expands_it() {
+    let dir = tempfile::tempdir().unwrap();
+    let wb = biff_workbook(&[(0, 0), (1, 3), (65_535, 255)]);
+    let bytes = compound_file(&[("Workbook", wb.clone())]);
+    let ext = seistriage::input::xls_scan::sheet_extents(&bytes).unwrap();
+    assert_eq!(
+        ext,
+        vec![seistriage::input::xls_scan::Extent {
+            rows: 65_536,
+            cols: 256
+        }]
+    );
+    let path = text_file(dir.path(), "far.xls", &bytes);
+    let e = read_inventory(&path, &ReadOptions::default()).unwrap_err();
+    assert!(
+        e.to_string()
+            .contains("65536 rows × 256 columns = 16777216 cells"),
+        "{e}"
+    );
+    // A small sheet passes the scan (calamine then reads or refuses it).
+    let small = compound_file(&[("Workbook", biff_workbook(&[(0, 0), (9, 4)]))]);
+    assert_eq!(
+        seistriage::input::xls_scan::sheet_extents(&small).unwrap(),
+        vec![seistriage::input::xls_scan::Extent { rows: 10, cols: 5 }]
+    );
+}
+
+#[test]
+fn password_protected_workbooks_are_refused_in_one_line() {
+    let dir = tempfile::tempdir().unwrap();
+    for name in ["secret.xlsx", "secret.xls"] {
+        let path = text_file(dir.path(), name, &encrypted_ooxml());
+        let e = read_inventory(&path, &ReadOptions::default()).unwrap_err();
+        assert!(matches!(e, InputError::Protected { .. }), "{name}: {e}");
+        assert!(e.to_string().contains("password-protected") && !e.to_string().contains('\n'));
+    }
+}
+
+#[test]
+fn csv_row_numbers_hold_for_a_last_line_without_a_line_end_and_multi_line_fields() {
+    let dir = tempfile::tempdir().unwrap();
+    let text = "id,name,storeys,plan_area_m2,column_area_m2\r\nA,\"two\r\nlines\",3,200,2\r\n\r\nB,x,3,200,2\r\n\r\n\r\nC,y,3,200,2";
+    let inv = read(&text_file(dir.path(), "m.csv", text.as_bytes()));
+    let rows: Vec<_> = inv
+        .buildings
+        .iter()
+        .map(|b| (b.id.as_str(), b.row))
+        .collect();
+    assert_eq!(rows, vec![("A", 2), ("B", 4), ("C", 7)]);
+    assert_eq!(inv.blank_rows, 3);
+    assert_eq!(inv.buildings[0].name, "two\r\nlines");
 }

@@ -72,3 +72,28 @@ fn check_takes_the_header_row_option() {
     assert_eq!(check(&path, &[]).status.code(), Some(1));
     assert_eq!(check(&path, &["--header-row", "33"]).status.code(), Some(0));
 }
+
+#[test]
+fn check_on_a_password_protected_workbook_says_so_and_exits_1() {
+    let dir = tempfile::tempdir().unwrap();
+    let path = text_file(dir.path(), "secret.xlsx", &super::cases::encrypted_ooxml());
+    let out = check(&path, &[]);
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(out.status.code(), Some(1));
+    assert_eq!(stderr.trim().lines().count(), 1, "{stderr}");
+    assert!(stderr.contains("password-protected"), "{stderr}");
+}
+
+#[test]
+fn check_on_a_file_that_makes_the_spreadsheet_library_fail_prints_one_line() {
+    let dir = tempfile::tempdir().unwrap();
+    let wb = super::cases::biff_workbook(&[(0, 0)]);
+    let mut b = super::cases::compound_file(&[("Workbook", wb)]);
+    b.truncate(512 + 301);
+    let path = text_file(dir.path(), "cut.xls", &b);
+    let out = check(&path, &[]);
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(out.status.code(), Some(1));
+    assert_eq!(stderr.trim().lines().count(), 1, "{stderr}");
+    assert!(!stderr.contains("panicked"), "{stderr}");
+}

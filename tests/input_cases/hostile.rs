@@ -6,7 +6,44 @@ use seistriage::input::{ReadOptions, read_inventory};
 
 use super::*;
 
+fn cases() -> u32 {
+    std::env::var("PROPTEST_CASES")
+        .ok()
+        .and_then(|v| v.parse().ok())
+        .unwrap_or(48)
+}
+
 fn valid_xlsx() -> Vec<u8> {
+    static BYTES: std::sync::OnceLock<Vec<u8>> = std::sync::OnceLock::new();
+    BYTES.get_or_init(make_valid_xlsx).clone()
+}
+
+/// The parts of the valid workbook, unzipped (name, bytes).
+fn valid_parts() -> Vec<(String, Vec<u8>)> {
+    let bytes = valid_xlsx();
+    let mut z = zip::ZipArchive::new(std::io::Cursor::new(bytes)).unwrap();
+    (0..z.len())
+        .map(|i| {
+            let mut f = z.by_index(i).unwrap();
+            let mut b = Vec::new();
+            std::io::Read::read_to_end(&mut f, &mut b).unwrap();
+            (f.name().unwrap().to_string(), b)
+        })
+        .collect()
+}
+
+fn rezip(parts: &[(String, Vec<u8>)]) -> Vec<u8> {
+    use std::io::Write;
+    let mut z = zip::ZipWriter::new(std::io::Cursor::new(Vec::new()));
+    for (name, b) in parts {
+        z.start_file(name.as_str(), zip::write::SimpleFileOptions::default())
+            .unwrap();
+        z.write_all(b).unwrap();
+    }
+    z.finish().unwrap().into_inner()
+}
+
+fn make_valid_xlsx() -> Vec<u8> {
     let dir = tempfile::tempdir().unwrap();
     let walls = vec![
         vec![S("building_id"), S("direction"), S("length_m")],
@@ -36,7 +73,8 @@ fn read_bytes(name: &str, bytes: &[u8]) {
 }
 
 proptest! {
-    #![proptest_config(ProptestConfig { cases: 48, .. ProptestConfig::default() })]
+    // 48 cases per property in the suite; `PROPTEST_CASES=N` runs a longer fuzzing session.
+    #![proptest_config(ProptestConfig { cases: cases(), .. ProptestConfig::default() })]
 
     #[test]
     fn arbitrary_bytes_never_panic(bytes in proptest::collection::vec(any::<u8>(), 0..2048), ext in prop_oneof![Just("xlsx"), Just("csv"), Just("ods"), Just("xls")]) {
@@ -69,5 +107,44 @@ proptest! {
         }
         b.truncate(cut.index(b.len() + 1));
         read_bytes("m.csv", &b);
+    }
+
+    #[test]
+    fn workbooks_with_mutated_xml_parts_never_panic(
+        part in 0usize..64,
+        edits in proptest::collection::vec((any::<prop::sample::Index>(), prop_oneof![any::<u8>(), Just(b'<'), Just(b'"'), Just(b'9'), Just(b'>')]), 1..12),
+        cut in proptest::option::of(any::<prop::sample::Index>()),
+    ) {
+        let mut parts = valid_parts();
+        let k = part % parts.len();
+        let b = &mut parts[k].1;
+        for (i, v) in edits {
+            let at = i.index(b.len());
+            b[at] = v;
+        }
+        if let Some(c) = cut {
+            let at = c.index(b.len() + 1);
+            b.truncate(at);
+        }
+        read_bytes("x.xlsx", &rezip(&parts));
+    }
+
+    #[test]
+    fn mutated_compound_files_never_panic(
+        edits in proptest::collection::vec((any::<prop::sample::Index>(), any::<u8>()), 1..16),
+        cut in proptest::option::of(any::<prop::sample::Index>()),
+    ) {
+        let wb = super::cases::biff_workbook(&[(0, 0), (3, 2), (700, 9)]);
+        let mut b = super::cases::compound_file(&[("Workbook", wb)]);
+        for (i, v) in edits {
+            let at = i.index(b.len());
+            b[at] = v;
+        }
+        if let Some(c) = cut {
+            let at = c.index(b.len() + 1);
+            b.truncate(at);
+        }
+        let _ = seistriage::input::xls_scan::sheet_extents(&b);
+        read_bytes("c.xls", &b);
     }
 }

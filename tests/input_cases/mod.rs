@@ -1,7 +1,7 @@
 //! Input-reading cases of inventory.md "Bad input" and issue 2: every case generates its
 //! inventory (rust_xlsxwriter / csv) into a temporary folder and reads it back.
 
-mod cases;
+pub(crate) mod cases;
 mod check_cli;
 mod hostile;
 mod settings_file;

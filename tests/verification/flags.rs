@@ -369,3 +369,139 @@ fn not_screened_reasons() {
     let e = Case::new(record("N3")).try_screen(&s).unwrap_err();
     assert!(e.iter().any(|m| m.contains("no hazard given")));
 }
+
+#[test]
+fn wall_geometry_axial_and_calibration_flags_both_sides() {
+    // Method §10 thresholds: slender-wall H/lw > 12 [practice]; squat-wall Lv/lw < 1.5
+    // [practice]; high-axial-wall ν > 0.40 and high-axial-column ν > 0.65 (EN 1998-1
+    // §5.4.3.4.1 / §5.4.3.2.1, DCM, mem-H); outside-calibration ν > 0.5, boundary steel outside
+    // 0.5–4 %, Lv/h outside 1–8 [practice].
+    let s = Settings::default();
+    // H = 12 m (4 × 3 m), Lv = 9 m. lw = 1.0 → H/lw = 12 (not > 12); lw 0.99 → 12.12.
+    let mut c = Case::new(record("G1"));
+    c.walls = vec![
+        wall("A", Dir::X, 1.0, 0.0, 0.0),
+        wall("B", Dir::Y, 6.0, 0.0, 0.0),
+    ];
+    let r = c.screen(&s);
+    assert!(!has_flag(&r, "slender-wall", Some(Dir::X)));
+    // lw 6 → Lv/lw = 1.5 (not < 1.5); Lv/h for wall A = 9 > 8 → outside calibration.
+    assert!(!has_flag(&r, "squat-wall", Some(Dir::Y)));
+    let oc = r
+        .flags
+        .iter()
+        .find(|f| f.code == "outside-calibration" && f.direction == Some(Dir::X))
+        .unwrap();
+    assert!(oc.detail.contains("wall A"), "{}", oc.detail);
+    assert!(!has_flag(&r, "outside-calibration", Some(Dir::Y)));
+    c.walls = vec![
+        wall("A", Dir::X, 0.99, 0.0, 0.0),
+        wall("B", Dir::Y, 6.01, 0.0, 0.0),
+    ];
+    let r = c.screen(&s);
+    let f = r.flags.iter().find(|f| f.code == "slender-wall").unwrap();
+    assert_eq!(f.direction, Some(Dir::X));
+    assert!(f.detail.contains("wall A"));
+    assert!(has_flag(&r, "squat-wall", Some(Dir::Y)));
+    // Boundary steel 4 % is inside, 4.1 % outside.
+    let mut w = wall("B", Dir::Y, 4.0, 0.0, 0.0);
+    w.boundary_steel_pct = Some(4.0);
+    c.walls = vec![wall("A", Dir::X, 4.0, 0.0, 0.0), w.clone()];
+    assert!(!has_flag(
+        &c.screen(&s),
+        "outside-calibration",
+        Some(Dir::Y)
+    ));
+    w.boundary_steel_pct = Some(4.1);
+    c.walls = vec![wall("A", Dir::X, 4.0, 0.0, 0.0), w];
+    assert!(has_flag(&c.screen(&s), "outside-calibration", Some(Dir::Y)));
+    // Axial ratio: ν = W/((A_col + A_cw)·fc·1000) with W = 12·800 = 9600 kN, fc 20.
+    // A_col + A_cw = 1.2 m² → ν = 0.40 (not > 0.40); 1.19 → 0.4034.
+    let nu_case = |col: f64| {
+        let mut rec = record("G2");
+        rec.column_area_m2 = col;
+        rec.rc_wall_area_x_m2 = Some(0.2);
+        rec.rc_wall_area_y_m2 = Some(0.0);
+        Case::new(rec).screen(&s)
+    };
+    let r = nu_case(1.0);
+    assert_abs_diff_eq!(r.axial_load_ratio, 0.40, epsilon = 1e-12);
+    assert!(!has_flag(&r, "high-axial-wall", None));
+    let r = nu_case(0.99);
+    assert!(has_flag(&r, "high-axial-wall", None));
+    assert!(!has_flag(&r, "high-axial-column", None));
+    // ν = 0.65 at A = 9600/13000 = 0.73846 m²; just below that area the column flag appears.
+    let r = nu_case(9600.0 / 13000.0 - 0.2 + 1e-9);
+    assert!(!has_flag(&r, "high-axial-column", None));
+    let r = nu_case(9600.0 / 13000.0 - 0.2 - 1e-3);
+    assert!(has_flag(&r, "high-axial-column", None));
+    assert!(
+        has_flag(&r, "outside-calibration", None),
+        "columns with ν > 0.5"
+    );
+}
+
+#[test]
+fn boundary_missing_and_unknown_follow_the_rule_of_section_0() {
+    // Method §0/§10: "unknown" is present only when year ≥ boundary_elements_from_year (both
+    // known); older → boundary-missing; either unknown → boundary-unknown.
+    let mut rec = record("H1");
+    rec.boundary_elements = Some(YesNo::Unknown);
+    rec.year_built = Some(1995);
+    let c = Case::new(rec);
+    let r = c.screen(&Settings::default());
+    assert!(has_flag(&r, "boundary-unknown", Some(Dir::X)));
+    assert!(!has_flag(&r, "boundary-missing", Some(Dir::X)));
+    let s = Settings {
+        boundary_elements_from_year: Some(1996),
+        ..Settings::default()
+    };
+    let r = c.screen(&s);
+    assert!(has_flag(&r, "boundary-missing", Some(Dir::X)));
+    assert!(!has_flag(&r, "boundary-unknown", Some(Dir::X)));
+    let s = Settings {
+        boundary_elements_from_year: Some(1995),
+        ..Settings::default()
+    };
+    let r = c.screen(&s);
+    assert!(
+        !has_flag(&r, "boundary-missing", Some(Dir::X))
+            && !has_flag(&r, "boundary-unknown", Some(Dir::X))
+    );
+    assert!(
+        r.walls[0].boundary_elements,
+        "present by the year rule, also for capacity"
+    );
+    // A wall row's own value overrides the building's.
+    let mut c2 = Case::new(record("H2"));
+    let mut w = wall("W1", Dir::X, 4.0, 0.0, 0.0);
+    w.boundary_elements = Some(YesNo::Yes);
+    c2.walls = vec![w, wall("W2", Dir::X, 4.0, 0.0, 0.0)];
+    let r = c2.screen(&Settings::default());
+    let f = r
+        .flags
+        .iter()
+        .find(|f| f.code == "boundary-missing")
+        .unwrap();
+    assert!(f.detail.contains("W2") && !f.detail.contains("W1"));
+}
+
+#[test]
+fn brittle_flag_when_theta_um_below_theta_y() {
+    // Method §8/§10: θum < θy → brittle. A heavily loaded, unconfined wall of low-strength
+    // concrete in a tall building: ν high → 0.3^ν small.
+    let mut rec = record("K1");
+    rec.storeys = 12;
+    rec.column_area_m2 = 1.0;
+    rec.rc_wall_area_x_m2 = Some(3.0);
+    rec.wall_length_x_m = Some(12.0);
+    rec.fc_mpa = Some(8.0);
+    let r = Case::new(rec).screen(&Settings::default());
+    let w = &r.walls[0];
+    assert!(w.theta_um < w.theta_y, "{} {}", w.theta_um, w.theta_y);
+    assert!(has_flag(&r, "brittle", Some(Dir::X)));
+    // IO = min(θy, LS) keeps the levels ordered.
+    assert!(w.capacity.io <= w.capacity.ls);
+    let ok = Case::new(record("K2")).screen(&Settings::default());
+    assert!(!has_flag(&ok, "brittle", Some(Dir::X)));
+}

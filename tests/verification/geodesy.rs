@@ -6,7 +6,7 @@
 //!   68(2):159, on the sphere of mean radius R = 6 371 008.8 m (inventory.md);
 //! - the cross-track and along-track distance formulas of the Aviation Formulary
 //!   (E. Williams, "Aviation Formulary V1.47"):
-//!     XTD = asin(sin d13 · sin(θ13 − θ12)),  ATD = acos(cos d13 / cos XTD),
+//!   XTD = asin(sin d13 · sin(θ13 − θ12)),  ATD = acos(cos d13 / cos XTD),
 //!   with the initial course θ = atan2(sin Δλ cos φ2, cos φ1 sin φ2 − sin φ1 cos φ2 cos Δλ);
 //!   the closest point is abreast of the segment when 0 ≤ ATD ≤ segment length, otherwise
 //!   it is the nearer end (then the Haversine distance to that end).

@@ -1,0 +1,181 @@
+//! Whole-run benchmark of large invented stocks (issue "scale"): reading, engine, writing
+//! and the whole `screen` run, against the floor of reading the same file without screening
+//! plus writing the same number of cells without computing — all measured in one run, so
+//! that the figures can be reported as ratios on a noisy machine.
+//!
+//! Not a criterion bench: each size runs once (a 1,000,000-row run takes minutes).
+//!
+//!     cargo bench --bench stock                       # 10,000 buildings, .xlsx
+//!     STOCK_SIZES=10000:xlsx,100000:xlsx,1000000:csv cargo bench --bench stock
+//!
+//! Peak resident memory of the whole run is read from /proc/<pid>/status (VmHWM) of the
+//! `seistriage screen` child process.
+
+#![allow(clippy::unwrap_used, clippy::expect_used)]
+
+use std::path::{Path, PathBuf};
+use std::process::Command;
+use std::time::{Duration, Instant};
+
+use calamine::{Reader, open_workbook_auto};
+use rust_xlsxwriter::Workbook;
+use seistriage::input::{ReadOptions, read_inventory};
+use seistriage::pipeline::{self, RunOptions};
+
+fn secs(d: Duration) -> f64 {
+    d.as_secs_f64()
+}
+
+/// Sheet name and (rows, columns) of every sheet of a written workbook.
+fn sheet_shapes(path: &Path) -> Vec<(String, usize, usize)> {
+    let mut wb = open_workbook_auto(path).expect("open written workbook");
+    let names = wb.sheet_names().to_vec();
+    names
+        .into_iter()
+        .filter_map(|n| {
+            let r = wb.worksheet_range(&n).ok()?;
+            let (h, w) = r.get_size();
+            Some((n, h, w))
+        })
+        .collect()
+}
+
+/// The writing floor: the same sheets with the same shapes, filled with numbers that need
+/// no computing, in constant-memory mode (the cheapest way rust_xlsxwriter writes).
+fn write_floor(shapes: &[(String, usize, usize)], out: &Path) -> Duration {
+    let t = Instant::now();
+    let mut wb = Workbook::new();
+    wb.use_zip_large_file(true);
+    for (name, rows, cols) in shapes {
+        let ws = wb.add_worksheet_with_constant_memory().unwrap();
+        ws.set_name(name).unwrap();
+        for r in 0..*rows {
+            for c in 0..*cols {
+                ws.write_number(r as u32, c as u16, (r * 7 + c) as f64 * 0.001)
+                    .unwrap();
+            }
+        }
+    }
+    wb.save(out).unwrap();
+    t.elapsed()
+}
+
+/// Runs `seistriage screen` as a child and returns (wall time, peak RSS in MiB).
+fn whole_run(bin: &Path, inventory: &Path, out: &Path) -> (Duration, f64) {
+    let t = Instant::now();
+    let mut child = Command::new(bin)
+        .args([
+            "screen",
+            inventory.to_str().unwrap(),
+            "--quiet",
+            "--out",
+            out.to_str().unwrap(),
+        ])
+        .spawn()
+        .expect("spawn seistriage");
+    let status_path = format!("/proc/{}/status", child.id());
+    let mut peak_kib = 0u64;
+    loop {
+        if let Ok(s) = std::fs::read_to_string(&status_path) {
+            for line in s.lines() {
+                if let Some(v) = line.strip_prefix("VmHWM:") {
+                    let kib: u64 = v.trim().trim_end_matches("kB").trim().parse().unwrap_or(0);
+                    peak_kib = peak_kib.max(kib);
+                }
+            }
+        }
+        if let Some(status) = child.try_wait().unwrap() {
+            assert!(status.success(), "screen failed");
+            break;
+        }
+        std::thread::sleep(Duration::from_millis(20));
+    }
+    (t.elapsed(), peak_kib as f64 / 1024.0)
+}
+
+fn release_binary() -> PathBuf {
+    let status = Command::new(env!("CARGO"))
+        .args(["build", "--release", "--quiet", "--bin", "seistriage"])
+        .status()
+        .expect("cargo build --release");
+    assert!(status.success());
+    PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("target/release/seistriage")
+}
+
+fn main() {
+    // `cargo bench` passes `--bench`; `cargo test --benches` passes nothing useful: skip then.
+    if !std::env::args().any(|a| a == "--bench") {
+        return;
+    }
+    let sizes = std::env::var("STOCK_SIZES").unwrap_or_else(|_| "10000:xlsx".into());
+    let dir = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("output/bench");
+    std::fs::create_dir_all(&dir).unwrap();
+    let bin = release_binary();
+    println!(
+        "{:>9} {:>4} | {:>8} {:>8} {:>8} {:>8} | {:>8} {:>8} | {:>6} {:>6} {:>6} | {:>8}",
+        "buildings",
+        "fmt",
+        "read s",
+        "engine s",
+        "write s",
+        "whole s",
+        "floor-r",
+        "floor-w",
+        "whole/floor",
+        "eng/whole",
+        "",
+        "peak MiB"
+    );
+    for spec in sizes.split(',') {
+        let (n, ext) = spec.split_once(':').unwrap_or((spec, "xlsx"));
+        let n: usize = n.trim().parse().expect("size");
+        let inv = dir.join(format!("stock-{n}.{ext}"));
+        if !inv.exists() {
+            seistriage::demo::write_generated(n, &inv, 7).expect("generate");
+        }
+        let out = dir.join(format!("stock-{n}-screening.xlsx"));
+        // Phases in-process.
+        let t = Instant::now();
+        let inventory = read_inventory(&inv, &ReadOptions::default()).expect("read");
+        let read = t.elapsed();
+        drop(inventory);
+        let loaded = pipeline::load(&inv, &RunOptions::default()).expect("load");
+        let t = Instant::now();
+        let report = pipeline::screen(&loaded);
+        let engine = t.elapsed();
+        let t = Instant::now();
+        let extra = seistriage::report::workbook::write(&report, &out).expect("write");
+        let write = t.elapsed();
+        drop(report);
+        drop(loaded);
+        // Floor: reading the same file (measured above) plus writing the same cells.
+        let mut shapes = sheet_shapes(&out);
+        for (_, p) in &extra {
+            // Large stocks: per-row sheets went to CSV; count them as cells of the floor.
+            if let Ok(mut r) = csv::Reader::from_path(p) {
+                let cols = r.headers().map(|h| h.len()).unwrap_or(0);
+                let rows = r.records().count() + 1;
+                shapes.push((format!("csv{}", shapes.len()), rows.min(1_048_576), cols));
+            }
+        }
+        let floor_w = write_floor(&shapes, &dir.join("floor.xlsx"));
+        // Whole run in a child process (time and peak memory).
+        let (whole, peak) = whole_run(&bin, &inv, &out);
+        let floor = read + floor_w;
+        println!(
+            "{:>9} {:>4} | {:>8.2} {:>8.2} {:>8.2} {:>8.2} | {:>8.2} {:>8.2} | {:>11.2} {:>9.3} {:>6} | {:>8.0}",
+            n,
+            ext,
+            secs(read),
+            secs(engine),
+            secs(write),
+            secs(whole),
+            secs(read),
+            secs(floor_w),
+            secs(whole) / secs(floor),
+            secs(engine) / secs(whole),
+            "",
+            peak
+        );
+    }
+}
