@@ -207,10 +207,11 @@ fn write_table_sheet(
         _ => 0,
     };
     ws.set_freeze_panes(1, freeze_cols)?;
-    // Printing: landscape, header repeated on every page; Priority fits the page width.
+    // Printing: landscape, header repeated on every page; the tables an official prints
+    // (Priority, Retrofit plan, Flags) fit the page width.
     ws.set_landscape();
     ws.set_repeat_rows(0, 0)?;
-    if table == Table::Priority {
+    if matches!(table, Table::Priority | Table::Retrofit | Table::Flags) {
         ws.set_print_fit_to_pages(1, 0);
     }
     let last_col = cols.len().saturating_sub(1) as u16;
