@@ -491,3 +491,25 @@ fn progress_reports_every_row_written() {
         c.priority + c.retrofit + c.directions + c.walls + c.flags + c.not_screened + c.problems;
     assert_eq!(last.get(), total as u64);
 }
+
+#[test]
+fn summary_counts_the_buildings_per_flag() {
+    let report = sample::report(24);
+    let (_d, out) = write(&report);
+    let s = sheet(&out, "Summary");
+    let row = (0..s.height())
+        .find(|r| text(&s, *r, 0).as_deref() == Some("soft-storey"))
+        .unwrap();
+    let with = report
+        .buildings
+        .iter()
+        .filter(|b| b.flags.iter().any(|f| f.code == "soft-storey"))
+        .count();
+    let severe = report
+        .buildings
+        .iter()
+        .filter(|b| b.class <= 2 && b.flags.iter().any(|f| f.code == "soft-storey"))
+        .count();
+    assert_eq!(num(&s, row, 1), Some(with as f64));
+    assert_eq!(num(&s, row, 2), Some(severe as f64));
+}

@@ -609,6 +609,32 @@ pub fn write(
         styles,
     )?;
 
+    w.section("Flags raised", styles)?;
+    w.header(&["Flag", "Buildings", "Of which class 1–2"], styles)?;
+    let mut flags: BTreeMap<&str, (usize, usize)> = BTreeMap::new();
+    for b in &report.buildings {
+        for code in b.flag_codes() {
+            let e = flags.entry(code).or_default();
+            e.0 += 1;
+            if b.class <= 2 {
+                e.1 += 1;
+            }
+        }
+    }
+    let mut flags: Vec<(&str, (usize, usize))> = flags.into_iter().collect();
+    flags.sort_by(|a, b| b.1.0.cmp(&a.1.0).then(a.0.cmp(b.0)));
+    if flags.is_empty() {
+        w.ws.write_string(w.r, 0, "(none)")?;
+        w.r += 1;
+    }
+    for (code, (n, severe)) in flags {
+        w.ws.write_string(w.r, 0, cut(code))?;
+        w.ws.write_number_with_format(w.r, 1, n as f64, styles.kind(Kind::Thousands))?;
+        w.ws.write_number_with_format(w.r, 2, severe as f64, styles.kind(Kind::Thousands))?;
+        w.r += 1;
+    }
+    w.label("Reasons", "see the Flags sheet", styles)?;
+
     w.section("Budget", styles)?;
     let line = budget_line(report);
     w.ws.merge_range(w.r, 0, w.r + 1, 7, &line, &styles.wrap)?;
