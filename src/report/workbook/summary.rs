@@ -356,7 +356,7 @@ impl Rows<'_> {
 /// Effective hazard and method settings shown on the Summary: (key, plain label).
 const HAZARD_KEYS: &[(&str, &str)] = &[
     ("agr_g", "Reference PGA on rock agR (g)"),
-    ("default_ground_type", "Ground type where none given"),
+    ("default_ground_type", "Default ground type"),
     ("spectrum", "Spectrum"),
     ("sds_g", "SDS (g), two-parameter spectrum"),
     ("sd1_g", "SD1 (g), two-parameter spectrum"),
@@ -585,7 +585,7 @@ pub fn write(
         if b.score.is_finite() {
             w.ws.write_number_with_format(r, 5, b.score, styles.kind(Kind::Dcr))?;
         }
-        w.ws.write_string(
+        w.ws.write_string_with_format(
             r,
             6,
             format!(
@@ -597,6 +597,7 @@ pub fn write(
                 },
                 b.governing.level.code().to_uppercase()
             ),
+            &styles.indent,
         )?;
         if let Some(o) = b.occupants {
             w.ws.write_number_with_format(r, 7, o as f64, styles.kind(Kind::Thousands))?;
