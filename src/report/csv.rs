@@ -43,20 +43,19 @@ pub fn write_table<W: Write>(
     let mut w = ::csv::Writer::from_writer(out);
     w.write_record(table.columns().iter().map(|c| c.key))?;
     let mut num = String::new();
-    let mut record: Vec<String> = Vec::with_capacity(table.columns().len());
     table.for_each_row(report, Target::Csv, limit, |cells| {
-        record.clear();
         for c in cells {
             match c {
-                Cell::Blank => record.push(String::new()),
+                Cell::Blank => w.write_field("")?,
                 Cell::Num(v) => {
                     number_text(*v, &mut num);
-                    record.push(num.clone());
+                    w.write_field(&num)?;
                 }
-                Cell::Text(t) => record.push(guard(t).into_owned()),
+                Cell::Text(t) => w.write_field(guard(t).as_ref())?,
             }
         }
-        w.write_record(&record)?;
+        // Ends the record (the fields above were written one by one, without copies).
+        w.write_record(None::<&[u8]>)?;
         Ok::<(), ReportError>(())
     })?;
     w.flush()?;

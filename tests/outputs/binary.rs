@@ -110,6 +110,7 @@ struct Run {
     out: PathBuf,
     json: Value,
     stdout: String,
+    stderr: String,
 }
 
 fn screen(inventory: &str, quiet: bool) -> Run {
@@ -150,6 +151,7 @@ fn screen(inventory: &str, quiet: bool) -> Run {
         _dir: dir,
         json,
         stdout: String::from_utf8_lossy(&o.stdout).into_owned(),
+        stderr: String::from_utf8_lossy(&o.stderr).into_owned(),
     }
 }
 
@@ -315,4 +317,18 @@ fn terminal_summary_names_the_outputs_and_the_caution() {
     assert!(run.stdout.contains(seistriage::CAUTION));
     let first = run.json["buildings"][0]["id"].as_str().unwrap();
     assert!(run.stdout.contains(first));
+}
+
+#[test]
+fn quiet_prints_nothing_and_no_progress_reaches_a_non_terminal() {
+    let run = screen("inv.xlsx", true);
+    assert_eq!(run.stdout, "");
+    let run = screen("inv.xlsx", false);
+    // stderr is a pipe here: the progress indicator stays hidden (no carriage returns or
+    // escape sequences).
+    assert!(
+        !run.stderr.contains('\r') && !run.stderr.contains('\x1b'),
+        "{:?}",
+        run.stderr
+    );
 }

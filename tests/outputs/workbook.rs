@@ -479,3 +479,37 @@ fn sample_workbook_for_visual_check() {
         }
     }
 }
+
+#[test]
+fn progress_reports_every_row_written() {
+    let report = sample::report(24);
+    let dir = tempfile::tempdir().unwrap();
+    let last = std::cell::Cell::new(0u64);
+    workbook::write_with_progress(&report, &dir.path().join("p.xlsx"), &|n| last.set(n)).unwrap();
+    let c = workbook::tables::RowCounts::of(&report);
+    let total =
+        c.priority + c.retrofit + c.directions + c.walls + c.flags + c.not_screened + c.problems;
+    assert_eq!(last.get(), total as u64);
+}
+
+#[test]
+fn summary_counts_the_buildings_per_flag() {
+    let report = sample::report(24);
+    let (_d, out) = write(&report);
+    let s = sheet(&out, "Summary");
+    let row = (0..s.height())
+        .find(|r| text(&s, *r, 0).as_deref() == Some("soft-storey"))
+        .unwrap();
+    let with = report
+        .buildings
+        .iter()
+        .filter(|b| b.flags.iter().any(|f| f.code == "soft-storey"))
+        .count();
+    let severe = report
+        .buildings
+        .iter()
+        .filter(|b| b.class <= 2 && b.flags.iter().any(|f| f.code == "soft-storey"))
+        .count();
+    assert_eq!(num(&s, row, 1), Some(with as f64));
+    assert_eq!(num(&s, row, 2), Some(severe as f64));
+}

@@ -45,6 +45,13 @@ pub const CELL_TEXT_LIMIT: usize = 32_767;
 /// use.
 pub const ZIP_LEVEL: u8 = 3;
 
+/// Generous estimate of the XML bytes of one cell (measured about 43 for full-precision
+/// numbers with a style).
+const BYTES_PER_CELL: f64 = 64.0;
+/// Sheet size (uncompressed estimate) from which Zip64 is switched on; the zip limit without
+/// it is 4 GiB per part, and Zip64 is only used when needed because some older readers lack it.
+const ZIP64_FROM_BYTES: f64 = 2_147_483_648.0;
+
 /// Where each table goes.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct Layout {
@@ -54,6 +61,8 @@ pub struct Layout {
     pub csv: Vec<Table>,
     /// Per-row sheets streamed in constant-memory mode.
     pub constant_memory: bool,
+    /// Zip64 extensions on: some sheet may pass 4 GiB uncompressed.
+    pub zip64: bool,
 }
 
 impl Layout {
@@ -72,6 +81,7 @@ impl Layout {
             counts,
             csv: Vec::new(),
             constant_memory: buildings > CONSTANT_MEMORY_FROM,
+            zip64: false,
         };
         if !fits(Table::Directions) {
             layout = layout.large_stock();
@@ -81,6 +91,10 @@ impl Layout {
                 layout.csv.push(t);
             }
         }
+        layout.zip64 = Table::ALL.iter().any(|t| {
+            let rows = layout.sheet_rows(*t).unwrap_or(0) as f64;
+            rows * t.columns().len() as f64 * BYTES_PER_CELL > ZIP64_FROM_BYTES
+        });
         layout
     }
 
@@ -193,10 +207,11 @@ fn write_table_sheet(
         _ => 0,
     };
     ws.set_freeze_panes(1, freeze_cols)?;
-    // Printing: landscape, header repeated on every page; Priority fits the page width.
+    // Printing: landscape, header repeated on every page; the tables an official prints
+    // (Priority, Retrofit plan, Flags) fit the page width.
     ws.set_landscape();
     ws.set_repeat_rows(0, 0)?;
-    if table == Table::Priority {
+    if matches!(table, Table::Priority | Table::Retrofit | Table::Flags) {
         ws.set_print_fit_to_pages(1, 0);
     }
     let last_col = cols.len().saturating_sub(1) as u16;
@@ -283,6 +298,7 @@ fn build_and_save(
     let styles = Styles::new();
     let mut wb = Workbook::new();
     wb.set_zip_compression_level(ZIP_LEVEL);
+    wb.use_zip_large_file(layout.zip64);
     let now = ExcelDateTime::from_timestamp(now_timestamp())?;
     let file_name = Path::new(&report.input.file)
         .file_name()
@@ -373,6 +389,8 @@ mod tests {
         assert!(!l.large());
         assert!(l.constant_memory);
         assert_eq!(l.sheet_rows(Table::Directions), Some(1_048_574));
+        // A full Directions sheet may pass 4 GiB uncompressed: Zip64 is on.
+        assert!(l.zip64);
         // One more building passes the limit: the per-row tables go to CSV.
         let l = Layout::plan(counts(524_288, 0), 524_288);
         assert!(l.large());
@@ -396,6 +414,7 @@ mod tests {
         assert_eq!(l.csv, vec![Table::Walls]);
         assert_eq!(l.sheet_rows(Table::Priority), Some(1_000));
         assert!(!l.constant_memory);
+        assert!(!l.zip64);
     }
 
     #[test]

@@ -48,6 +48,8 @@ pub struct Styles {
     pub text: Format,
     /// Whole number aligned left (ranks in the Summary's top ten).
     pub int_left: Format,
+    /// Text indented one step (keeps a text column apart from a number to its left).
+    pub indent: Format,
 }
 
 fn kind_index(k: Kind) -> usize {
@@ -120,6 +122,7 @@ impl Styles {
             datetime: num("yyyy-mm-dd hh:mm \"UTC\"").set_align(FormatAlign::Left),
             text: Format::new(),
             int_left: num("0").set_align(FormatAlign::Left),
+            indent: Format::new().set_indent(1),
         }
     }
 

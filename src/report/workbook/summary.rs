@@ -356,7 +356,7 @@ impl Rows<'_> {
 /// Effective hazard and method settings shown on the Summary: (key, plain label).
 const HAZARD_KEYS: &[(&str, &str)] = &[
     ("agr_g", "Reference PGA on rock agR (g)"),
-    ("default_ground_type", "Ground type where none given"),
+    ("default_ground_type", "Default ground type"),
     ("spectrum", "Spectrum"),
     ("sds_g", "SDS (g), two-parameter spectrum"),
     ("sd1_g", "SD1 (g), two-parameter spectrum"),
@@ -585,7 +585,7 @@ pub fn write(
         if b.score.is_finite() {
             w.ws.write_number_with_format(r, 5, b.score, styles.kind(Kind::Dcr))?;
         }
-        w.ws.write_string(
+        w.ws.write_string_with_format(
             r,
             6,
             format!(
@@ -597,6 +597,7 @@ pub fn write(
                 },
                 b.governing.level.code().to_uppercase()
             ),
+            &styles.indent,
         )?;
         if let Some(o) = b.occupants {
             w.ws.write_number_with_format(r, 7, o as f64, styles.kind(Kind::Thousands))?;
@@ -608,6 +609,32 @@ pub fn write(
         &format!("see the {} sheet", Table::Priority.sheet_name()),
         styles,
     )?;
+
+    w.section("Flags raised", styles)?;
+    w.header(&["Flag", "Buildings", "Of which class 1–2"], styles)?;
+    let mut flags: BTreeMap<&str, (usize, usize)> = BTreeMap::new();
+    for b in &report.buildings {
+        for code in b.flag_codes() {
+            let e = flags.entry(code).or_default();
+            e.0 += 1;
+            if b.class <= 2 {
+                e.1 += 1;
+            }
+        }
+    }
+    let mut flags: Vec<(&str, (usize, usize))> = flags.into_iter().collect();
+    flags.sort_by(|a, b| b.1.0.cmp(&a.1.0).then(a.0.cmp(b.0)));
+    if flags.is_empty() {
+        w.ws.write_string(w.r, 0, "(none)")?;
+        w.r += 1;
+    }
+    for (code, (n, severe)) in flags {
+        w.ws.write_string(w.r, 0, cut(code))?;
+        w.ws.write_number_with_format(w.r, 1, n as f64, styles.kind(Kind::Thousands))?;
+        w.ws.write_number_with_format(w.r, 2, severe as f64, styles.kind(Kind::Thousands))?;
+        w.r += 1;
+    }
+    w.label("Reasons", "see the Flags sheet", styles)?;
 
     w.section("Budget", styles)?;
     let line = budget_line(report);
