@@ -1,7 +1,7 @@
 //! Tests: the bundled invented demo (committed files current, geography consistent) and
 //! the generator of invented inventories.
 //!
-//! Set `SEISTRIAGE_REGENERATE=1` when running `committed_demo_files_are_current` to rewrite
+//! Set `SEISTRIAGE_BLESS=1` when running `committed_demo_files_are_current` to rewrite
 //! `inventories/demo.xlsx`, `demo-districts.geojson` and `demo-faults.geojson` after a
 //! deliberate change to `src/demo/`.
 
@@ -37,7 +37,7 @@ fn committed_demo_files_are_current() {
     let workbook = demo::demo_workbook().unwrap();
     let districts = demo::demo_districts_geojson();
     let faults = demo::demo_faults_geojson();
-    if std::env::var_os("SEISTRIAGE_REGENERATE").is_some() {
+    if std::env::var_os("SEISTRIAGE_BLESS").is_some() {
         std::fs::write(dir.join(demo::INVENTORY_FILE), &workbook).unwrap();
         std::fs::write(dir.join(demo::DISTRICTS_FILE), &districts).unwrap();
         std::fs::write(dir.join(demo::FAULTS_FILE), &faults).unwrap();
@@ -46,7 +46,7 @@ fn committed_demo_files_are_current() {
     assert_eq!(
         sheets(&committed),
         sheets(&workbook),
-        "inventories/demo.xlsx is stale: rerun this test with SEISTRIAGE_REGENERATE=1"
+        "inventories/demo.xlsx is stale: rerun this test with SEISTRIAGE_BLESS=1"
     );
     let normalise = |s: String| s.replace("\r\n", "\n");
     let read = |name: &str| normalise(std::fs::read_to_string(dir.join(name)).unwrap());

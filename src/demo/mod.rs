@@ -5,7 +5,7 @@ The bundled invented demo inventory and the generator of invented inventories of
   [`demo_workbook`], [`demo_districts_geojson`] and [`demo_faults_geojson`] from a fixed
   seed and committed; `inventories/demo-settings.toml` is written by hand. All four are
   embedded in the binary, so `seistriage demo` works from any folder. A test regenerates
-  them and checks the committed files still match (set `SEISTRIAGE_REGENERATE=1` when
+  them and checks the committed files still match (set `SEISTRIAGE_BLESS=1` when
   running that test to rewrite them after a deliberate change).
 - The demo is an invented town (Karsavel, four districts, two fault traces; see
   [`invent`]) of 64 buildings — schools and apartment blocks from the 1960s to the 2010s,
