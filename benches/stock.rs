@@ -41,10 +41,12 @@ fn sheet_shapes(path: &Path) -> Vec<(String, usize, usize)> {
 }
 
 /// The writing floor: the same sheets with the same shapes, filled with numbers that need
-/// no computing, in constant-memory mode (the cheapest way rust_xlsxwriter writes).
+/// no computing, in constant-memory mode (the cheapest way rust_xlsxwriter writes), at the
+/// zip compression level of the real writer (like for like).
 fn write_floor(shapes: &[(String, usize, usize)], out: &Path) -> Duration {
     let t = Instant::now();
     let mut wb = Workbook::new();
+    wb.set_zip_compression_level(seistriage::report::workbook::ZIP_LEVEL);
     wb.use_zip_large_file(true);
     for (name, rows, cols) in shapes {
         let ws = wb.add_worksheet_with_constant_memory().unwrap();
