@@ -162,6 +162,15 @@ pub fn cut(text: &str) -> &str {
     text
 }
 
+/// Whether a column of this kind carries its number format as a column format (every
+/// numeric kind but the class, whose format depends on the value). A number written without
+/// a format in such a column takes the column's format; this saves rust_xlsxwriter hashing
+/// the whole `Format` on every cell (measured an eighth of the whole run at 100,000
+/// buildings).
+fn column_formatted(kind: Kind) -> bool {
+    !matches!(kind, Kind::Text | Kind::Class)
+}
+
 /// Writes one cell; non-finite numbers and blanks leave the cell empty.
 fn put(
     ws: &mut Worksheet,
@@ -174,6 +183,9 @@ fn put(
     match cell {
         Cell::Blank => {}
         Cell::Num(v) if !v.is_finite() => {}
+        Cell::Num(v) if column_formatted(kind) => {
+            ws.write_number(row, col, *v)?;
+        }
         Cell::Num(v) => {
             let f = if kind == Kind::Class {
                 styles.class_format(*v)
@@ -205,6 +217,9 @@ fn write_table_sheet(
     ws.set_name(table.sheet_name())?;
     for (i, c) in cols.iter().enumerate() {
         ws.set_column_width(i as u16, c.width)?;
+        if column_formatted(c.kind) {
+            ws.set_column_format(i as u16, styles.kind(c.kind))?;
+        }
     }
     ws.set_row_height(0, 45)?;
     let freeze_cols = match table {
