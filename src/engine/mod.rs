@@ -124,7 +124,10 @@ pub fn screen_all(inputs: &[BuildingInput<'_>], settings: &Settings) -> Screenin
         .par_iter()
         .map(|i| screen_building(i, settings))
         .collect();
-    let mut out = Screening::default();
+    let mut out = Screening {
+        buildings: Vec::with_capacity(results.len()),
+        not_screened: Vec::new(),
+    };
     for (i, r) in inputs.iter().zip(results) {
         match r {
             Ok(r) => out.buildings.push(r),
