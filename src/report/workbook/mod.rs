@@ -36,9 +36,10 @@ pub const SHEET_ROWS: usize = 1_048_576;
 /// In normal mode rust_xlsxwriter holds every cell until the file is saved (at 100,000
 /// buildings, 17 million cells: about 4 GB resident and a third of the run spent in page
 /// faults); constant-memory mode streams each row to a temporary file and measured as fast
-/// or faster. Below the threshold normal mode is kept for its shared-string table (smaller
-/// files); the chart series are always on a normal sheet.
-pub const CONSTANT_MEMORY_FROM: usize = 10_000;
+/// or faster (10,000 buildings, release build: 1.52 s and 70 MB peak for the whole run
+/// against 1.72 s and 445 MB in normal mode). Below the threshold normal mode is kept for
+/// its shared-string table (smaller files); the chart series are always on a normal sheet.
+pub const CONSTANT_MEMORY_FROM: usize = 1_000;
 /// Priority rows kept in the workbook when the per-row tables go to CSV.
 pub const LARGE_PRIORITY_ROWS: usize = 10_000;
 /// Longest text a cell holds (UTF-16 code units).
