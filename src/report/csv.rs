@@ -113,19 +113,36 @@ mod tests {
     #[test]
     fn numbers_read_back_exactly_and_whole_numbers_have_no_decimal_point() {
         let mut s = String::new();
-        for (v, text) in [(12.0, "12"), (0.0, "0"), (-3.0, "-3"), (1500000.0, "1500000")] {
+        for (v, text) in [
+            (12.0, "12"),
+            (0.0, "0"),
+            (-3.0, "-3"),
+            (1500000.0, "1500000"),
+        ] {
             number_text(v, &mut s);
             assert_eq!(s, text);
         }
         let mut x = 0.123_456_789_012_345_67_f64;
         for _ in 0..400 {
-            for v in [x, -x, x * 1e-9, x * 1e12, x * 1e20, -0.0, f64::MIN_POSITIVE, f64::MAX] {
+            for v in [
+                x,
+                -x,
+                x * 1e-9,
+                x * 1e12,
+                x * 1e20,
+                -0.0,
+                f64::MIN_POSITIVE,
+                f64::MAX,
+            ] {
                 number_text(v, &mut s);
                 let back: f64 = s.parse().unwrap();
                 assert_eq!(back.to_bits(), v.to_bits(), "{v:e} written as {s}");
                 // Shortest: never longer than the standard library's shortest form in
                 // scientific notation plus the exponent.
-                assert!(s.len() <= format!("{v:e}").len() + 2, "{v:e} written as {s}");
+                assert!(
+                    s.len() <= format!("{v:e}").len() + 2,
+                    "{v:e} written as {s}"
+                );
             }
             x = (x * 7.3 + 0.37).fract() * 10f64.powi((x * 13.0) as i32 % 9 - 4);
         }
