@@ -111,6 +111,8 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
     }
     let progress = Progress::spinner(o.quiet, "screening");
     let report = pipeline::screen(&loaded);
+    // The report holds everything the writers need: free the inventory before writing.
+    drop(loaded);
     progress.finish();
     if report.buildings.is_empty() {
         const SHOWN: usize = 20;

@@ -8,6 +8,7 @@ use crate::model::{
     BuildingRecord, FootprintVertex, Inventory, NotScreened, PerDir, SiteInfo, StoreyRecord,
     WallRecord,
 };
+use rayon::iter::Either;
 use rayon::prelude::*;
 
 use crate::results::BuildingResult;
@@ -120,22 +121,24 @@ pub struct Screening {
 /// not depend on row order or thread count: each building is screened independently and the
 /// order is the total order of [`rank::priority_order`].
 pub fn screen_all(inputs: &[BuildingInput<'_>], settings: &Settings) -> Screening {
-    let results: Vec<Result<BuildingResult, Vec<String>>> = inputs
+    // Split straight into results and not-screened rows (order kept), so that a large stock
+    // never holds two vectors of results at once.
+    let (buildings, not_screened): (Vec<BuildingResult>, Vec<NotScreened>) = inputs
         .par_iter()
-        .map(|i| screen_building(i, settings))
-        .collect();
-    let mut out = Screening::default();
-    for (i, r) in inputs.iter().zip(results) {
-        match r {
-            Ok(r) => out.buildings.push(r),
-            Err(reasons) => out.not_screened.push(NotScreened {
+        .map(|i| (i, screen_building(i, settings)))
+        .partition_map(|(i, r)| match r {
+            Ok(r) => Either::Left(r),
+            Err(reasons) => Either::Right(NotScreened {
                 sheet: "buildings".into(),
                 row: i.record.row,
                 id: i.record.id.clone(),
                 reasons,
             }),
-        }
-    }
+        });
+    let mut out = Screening {
+        buildings,
+        not_screened,
+    };
     rank::rank(&mut out.buildings);
     out.not_screened.sort_by_key(|n| n.row);
     out

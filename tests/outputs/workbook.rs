@@ -513,3 +513,54 @@ fn summary_counts_the_buildings_per_flag() {
     assert_eq!(num(&s, row, 1), Some(with as f64));
     assert_eq!(num(&s, row, 2), Some(severe as f64));
 }
+
+/// The `s` (style) attribute of an XML element's opening tag, if any.
+fn style_attr(tag: &str) -> Option<u32> {
+    let at = tag.find(" s=\"")? + 4;
+    tag[at..].split('"').next()?.parse().ok()
+}
+
+/// The style index of the `<col>` range that covers a 1-based column.
+fn col_style(xml: &str, col: u32) -> Option<u32> {
+    xml.split("<col ").skip(1).find_map(|t| {
+        let t = t.split('>').next()?;
+        let attr = |name: &str| -> Option<u32> {
+            let at = t.find(&format!("{name}=\""))? + name.len() + 2;
+            t[at..].split('"').next()?.parse().ok()
+        };
+        let (min, max) = (attr("min")?, attr("max")?);
+        (min..=max).contains(&col).then(|| attr("style")).flatten()
+    })
+}
+
+#[test]
+fn number_cells_carry_their_columns_number_format_in_both_modes() {
+    // The numeric columns carry their number format as a column format and the cells are
+    // written without one; the writer must still give every number cell that format.
+    let report = sample::report(12);
+    let dir = tempfile::tempdir().unwrap();
+    for constant_memory in [false, true] {
+        let out = dir.path().join(format!("f{constant_memory}.xlsx"));
+        let mut layout = Layout::of(&report);
+        layout.constant_memory = constant_memory;
+        workbook::write_with_layout(&report, &out, &layout, &|_| {}).unwrap();
+        let files = package(&out);
+        // sheet2 = Priority; column H (8) is the score, a two-decimal DCR.
+        let xml = &files
+            .iter()
+            .find(|(f, _)| f == "xl/worksheets/sheet2.xml")
+            .unwrap()
+            .1;
+        let want = col_style(xml, 8).expect("score column has a format");
+        assert_ne!(want, 0);
+        let mut cells = 0;
+        for r in 2..=(report.buildings.len() + 1) {
+            let open = format!("<c r=\"H{r}\"");
+            let at = xml.find(&open).unwrap_or_else(|| panic!("no cell H{r}"));
+            let tag = xml[at..].split('>').next().unwrap();
+            assert_eq!(style_attr(tag), Some(want), "H{r} ({constant_memory})");
+            cells += 1;
+        }
+        assert_eq!(cells, 12);
+    }
+}

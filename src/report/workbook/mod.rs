@@ -32,8 +32,14 @@ use tables::{Cell, Kind, RowCounts, Table, Target};
 
 /// Rows of a worksheet, header included (Excel and LibreOffice limit).
 pub const SHEET_ROWS: usize = 1_048_576;
-/// From this many screened buildings the per-row sheets use constant-memory mode.
-pub const CONSTANT_MEMORY_FROM: usize = 100_000;
+/// From this many screened buildings (exclusive) the per-row sheets use constant-memory mode.
+/// In normal mode rust_xlsxwriter holds every cell until the file is saved (at 100,000
+/// buildings, 17 million cells: about 4 GB resident and a third of the run spent in page
+/// faults); constant-memory mode streams each row to a temporary file and measured as fast
+/// or faster (10,000 buildings, release build: 1.52 s and 70 MB peak for the whole run
+/// against 1.72 s and 445 MB in normal mode). Below the threshold normal mode is kept for
+/// its shared-string table (smaller files); the chart series are always on a normal sheet.
+pub const CONSTANT_MEMORY_FROM: usize = 1_000;
 /// Priority rows kept in the workbook when the per-row tables go to CSV.
 pub const LARGE_PRIORITY_ROWS: usize = 10_000;
 /// Longest text a cell holds (UTF-16 code units).
@@ -157,6 +163,15 @@ pub fn cut(text: &str) -> &str {
     text
 }
 
+/// Whether a column of this kind carries its number format as a column format (every
+/// numeric kind but the class, whose format depends on the value). A number written without
+/// a format in such a column takes the column's format; this saves rust_xlsxwriter hashing
+/// the whole `Format` on every cell (measured an eighth of the whole run at 100,000
+/// buildings).
+fn column_formatted(kind: Kind) -> bool {
+    !matches!(kind, Kind::Text | Kind::Class)
+}
+
 /// Writes one cell; non-finite numbers and blanks leave the cell empty.
 fn put(
     ws: &mut Worksheet,
@@ -169,6 +184,9 @@ fn put(
     match cell {
         Cell::Blank => {}
         Cell::Num(v) if !v.is_finite() => {}
+        Cell::Num(v) if column_formatted(kind) => {
+            ws.write_number(row, col, *v)?;
+        }
         Cell::Num(v) => {
             let f = if kind == Kind::Class {
                 styles.class_format(*v)
@@ -200,6 +218,9 @@ fn write_table_sheet(
     ws.set_name(table.sheet_name())?;
     for (i, c) in cols.iter().enumerate() {
         ws.set_column_width(i as u16, c.width)?;
+        if column_formatted(c.kind) {
+            ws.set_column_format(i as u16, styles.kind(c.kind))?;
+        }
     }
     ws.set_row_height(0, 45)?;
     let freeze_cols = match table {
