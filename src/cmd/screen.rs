@@ -126,7 +126,7 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
         }
         if report.not_screened.len() > SHOWN {
             eprintln!(
-                "… and {} more rows not screened (`seistriage check` lists them all)",
+                "… and {} more rows not screened (the first reasons above usually apply to them too)",
                 report.not_screened.len() - SHOWN
             );
         }
