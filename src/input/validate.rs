@@ -151,11 +151,7 @@ pub fn finish(mut c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
         if let Some(rows) = seen.get(&(s.building_id.clone(), s.storey))
             && rows.len() > 1
         {
-            let list = rows
-                .iter()
-                .map(|r| r.to_string())
-                .collect::<Vec<_>>()
-                .join(", ");
+            let list = join_rows(rows);
             probs.push(err(
                 "storeys",
                 s.row,
@@ -222,11 +218,7 @@ pub fn finish(mut c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
         if let Some(rows) = ids.get(&b.id)
             && rows.len() > 1
         {
-            let list = rows
-                .iter()
-                .map(|r| r.to_string())
-                .collect::<Vec<_>>()
-                .join(", ");
+            let list = join_rows(rows);
             row_problems.push(err(
                 "buildings",
                 b.row,
@@ -322,4 +314,12 @@ pub fn finish(mut c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
     inv.footprints = footprints;
     inv.problems = problems;
     inv
+}
+
+/// Spreadsheet rows as "22, 29" for messages that name every row of a repeated key.
+fn join_rows(rows: &[usize]) -> String {
+    rows.iter()
+        .map(|r| r.to_string())
+        .collect::<Vec<_>>()
+        .join(", ")
 }
