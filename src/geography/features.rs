@@ -67,6 +67,27 @@ pub(crate) struct FeatureAt<'a> {
 }
 
 impl FeatureAt<'_> {
+    /// Parses the feature; one that does not parse is reported as an error (the `what` is
+    /// skipped) and gives `None`.
+    fn parsed(
+        &self,
+        value: &JsonValue,
+        what: &str,
+        problems: &mut Vec<Problem>,
+    ) -> Option<Feature> {
+        match parse_feature(value) {
+            Ok(f) => Some(f),
+            Err(m) => {
+                problems.push(self.problem(
+                    "geometry",
+                    format!("{m}; {what} skipped"),
+                    Severity::Error,
+                ));
+                None
+            }
+        }
+    }
+
     pub(crate) fn problem(&self, column: &str, message: String, severity: Severity) -> Problem {
         let index = self.feature.saturating_sub(1);
         let who = match self.name {
@@ -257,16 +278,8 @@ pub(crate) fn districts(values: &[JsonValue], problems: &mut Vec<Problem>) -> Ve
             feature: number,
             name: name.as_deref(),
         };
-        let feature = match parse_feature(value) {
-            Ok(f) => f,
-            Err(m) => {
-                problems.push(at.problem(
-                    "geometry",
-                    format!("{m}; feature skipped"),
-                    Severity::Error,
-                ));
-                continue;
-            }
+        let Some(feature) = at.parsed(value, "feature", problems) else {
+            continue;
         };
         let shape = match feature.geometry.as_ref().map(|g| &g.value) {
             Some(GeometryValue::Polygon { coordinates }) => {
@@ -368,16 +381,8 @@ pub(crate) fn faults(values: &[JsonValue], problems: &mut Vec<Problem>) -> Vec<F
             feature: number,
             name: name.as_deref(),
         };
-        let feature = match parse_feature(value) {
-            Ok(f) => f,
-            Err(m) => {
-                problems.push(at.problem(
-                    "geometry",
-                    format!("{m}; trace skipped"),
-                    Severity::Error,
-                ));
-                continue;
-            }
+        let Some(feature) = at.parsed(value, "trace", problems) else {
+            continue;
         };
         let parts = match feature.geometry.as_ref().map(|g| &g.value) {
             Some(GeometryValue::LineString { coordinates }) => {
