@@ -151,7 +151,9 @@ struct Compact {
     row: usize,
     dcr: PerDir<Levels>,
     priority_index_pct: PerDir<f64>,
-    flags: Vec<Flag>,
+    /// The distinct flag codes, `;`-joined (what Priority shows; the details are in the
+    /// Flags file).
+    flag_codes: String,
     floor_area_m2: f64,
     retrofit: Option<Box<Retrofit>>,
 }
@@ -159,15 +161,7 @@ struct Compact {
 impl Compact {
     fn of(b: BuildingResult) -> Self {
         // Flag details are in the Flags file already; the codes are what Priority shows.
-        let flags = b
-            .flags
-            .into_iter()
-            .map(|f| Flag {
-                code: f.code,
-                direction: f.direction,
-                detail: String::new(),
-            })
-            .collect();
+        let flag_codes = b.flag_codes().join(";");
         Compact {
             priority_index_pct: PerDir {
                 x: b.directions.x.priority_index_pct,
@@ -190,7 +184,7 @@ impl Compact {
             score: b.score,
             governing: b.governing,
             row: b.row,
-            flags,
+            flag_codes,
             floor_area_m2: b.detail.floor_area_m2,
             retrofit: b.retrofit.map(Box::new),
         }
@@ -234,7 +228,16 @@ impl Compact {
                 x: dir(Dir::X),
                 y: dir(Dir::Y),
             },
-            flags: self.flags.clone(),
+            flags: self
+                .flag_codes
+                .split(';')
+                .filter(|c| !c.is_empty())
+                .map(|c| Flag {
+                    code: c.to_string(),
+                    direction: None,
+                    detail: String::new(),
+                })
+                .collect(),
             defaults_used: Vec::new(),
             retrofit: self.retrofit.as_deref().cloned(),
             row: self.row,
@@ -443,19 +446,10 @@ pub fn screen_to_files(
     drop(duplicates);
 
     // 3. Rank, budget, write.
-    let mut order: Vec<usize> = (0..kept.len()).collect();
-    order.sort_by(|&a, &b| match (kept.get(a), kept.get(b)) {
-        (Some(x), Some(y)) => rank::key_order(&x.key(), &y.key()),
-        _ => std::cmp::Ordering::Equal,
-    });
-    let mut ranked: Vec<Compact> = Vec::with_capacity(kept.len());
-    let mut slots: Vec<Option<Compact>> = kept.into_iter().map(Some).collect();
-    for i in order {
-        if let Some(c) = slots.get_mut(i).and_then(Option::take) {
-            ranked.push(c);
-        }
-    }
-    drop(slots);
+    // In place and without a buffer (the keys end with id and row, a total order, so an
+    // unstable sort gives the same order as the stable one of the whole-stock path).
+    let mut ranked = kept;
+    ranked.sort_unstable_by(|a, b| rank::key_order(&a.key(), &b.key()));
     for (i, c) in ranked.iter_mut().enumerate() {
         c.rank = i + 1;
     }
