@@ -524,7 +524,10 @@ pub fn write(
                  only the first {} rows. The Priority and Retrofit plan files are in rank \
                  order; the Directions, Walls and Flags files are in file order (the order of \
                  the inventory rows) with the rank column left empty: join them to Priority \
-                 on the building id.",
+                 on the building id. The charts and per-district figures of this workbook are \
+                 built from those first {} buildings in rank order; the counts above cover \
+                 every row.",
+                money(super::LARGE_PRIORITY_ROWS as f64),
                 money(super::LARGE_PRIORITY_ROWS as f64)
             ));
         } else if layout.large() {
