@@ -321,6 +321,14 @@ impl RowFile {
     }
 }
 
+impl Drop for RowFile {
+    /// A file not finished (an error on the way) leaves nothing behind; once renamed, the
+    /// temporary name no longer exists and this does nothing.
+    fn drop(&mut self) {
+        let _ = std::fs::remove_file(&self.tmp);
+    }
+}
+
 /// What the streaming path produced: a report of the first [`LARGE_PRIORITY_ROWS`] buildings
 /// in rank order with the counts, budget plan, not-screened rows and problems of the whole
 /// stock (for the terminal summary), and the files written.
