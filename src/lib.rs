@@ -25,6 +25,7 @@ pub mod report;
 pub mod results;
 pub mod retrofit;
 pub mod settings;
+pub mod stream;
 pub mod template;
 
 /// The screening caution printed on every output.

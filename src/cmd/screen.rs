@@ -88,6 +88,10 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
             .num_threads(n)
             .build_global();
     }
+    let from = seistriage::stream::threshold();
+    if seistriage::stream::applies(&o.inventory, from) {
+        return run_streamed(o, &out, from);
+    }
     let progress = Progress::spinner(o.quiet, "reading the inventory");
     let loaded = pipeline::load(&o.inventory, &o.run);
     progress.finish();
@@ -184,6 +188,60 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
         let text = report::terminal::summary(&report, &written);
         let mut stdout = std::io::stdout().lock();
         // A closed stdout (`| head`) is a broken pipe: main maps it to exit 0.
+        stdout
+            .write_all(text.as_bytes())
+            .and_then(|()| stdout.flush())
+            .context("writing the summary to stdout")?;
+    }
+    Ok(ExitCode::SUCCESS)
+}
+
+/// `screen` on the streaming path (a CSV stock above the threshold; see
+/// `seistriage::stream`): bounded memory, per-row tables as CSV files beside the workbook.
+fn run_streamed(o: &Options, out: &Path, from: usize) -> anyhow::Result<ExitCode> {
+    if o.json.is_some() || o.geojson.is_some() {
+        bail!(
+            "--json and --geojson are not available for a CSV inventory of more than {from} rows \
+             (it is screened in chunks to bound memory); use --csv and the workbook"
+        );
+    }
+    for p in [Some(out), o.csv.as_deref()].into_iter().flatten() {
+        if let Some(parent) = p.parent().filter(|p| !p.as_os_str().is_empty()) {
+            std::fs::create_dir_all(parent)
+                .with_context(|| format!("creating {}", parent.display()))?;
+        }
+    }
+    let progress = Progress::spinner(o.quiet, "screening in chunks");
+    let streamed = seistriage::stream::screen_to_files(
+        &o.inventory,
+        &o.run,
+        out,
+        o.csv.as_deref(),
+        seistriage::stream::chunk_rows(),
+        &|n| progress.set(n),
+    );
+    progress.finish();
+    let streamed = streamed?;
+    let report = &streamed.report;
+    if report.counts.screened == 0 {
+        const SHOWN: usize = 20;
+        for n in report.not_screened.iter().take(SHOWN) {
+            eprintln!(
+                "buildings, row {}: {}: {}",
+                n.row,
+                n.id,
+                n.reasons.join("; ")
+            );
+        }
+        eprintln!(
+            "seistriage: {}: no building could be screened",
+            o.inventory.display()
+        );
+        return Ok(ExitCode::from(1));
+    }
+    if !o.quiet {
+        let text = report::terminal::summary(report, &streamed.written);
+        let mut stdout = std::io::stdout().lock();
         stdout
             .write_all(text.as_bytes())
             .and_then(|()| stdout.flush())

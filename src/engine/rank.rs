@@ -31,19 +31,55 @@ pub fn class_name(class: u8) -> &'static str {
     }
 }
 
-/// Priority order (method §11): class ascending, score descending, occupants descending
-/// (missing = 0), min PI ascending, id by UTF-8 bytes.
-pub fn priority_order(a: &BuildingResult, b: &BuildingResult) -> Ordering {
+/// The keys of the priority order (method §11) of one building, so that the order can be
+/// applied to a compact row as well as to a [`BuildingResult`] (the streaming path of a large
+/// stock ranks compact rows with exactly this order).
+#[derive(Debug, Clone, Copy)]
+pub struct RankKey<'a> {
+    /// Class 1–4.
+    pub class: u8,
+    /// Score.
+    pub score: f64,
+    /// Occupants (missing = 0).
+    pub occupants: u64,
+    /// Smaller priority index of the two directions (%).
+    pub min_pi_pct: f64,
+    /// Building id.
+    pub id: &'a str,
+    /// Spreadsheet row (last tie-break: ids can repeat in rows that are screened apart).
+    pub row: usize,
+}
+
+impl<'a> RankKey<'a> {
+    /// The keys of a result.
+    pub fn of(b: &'a BuildingResult) -> Self {
+        RankKey {
+            class: b.class,
+            score: b.score,
+            occupants: b.occupants.unwrap_or(0),
+            min_pi_pct: b.min_priority_index_pct(),
+            id: &b.id,
+            row: b.row,
+        }
+    }
+}
+
+/// Priority order on keys (method §11): class ascending, score descending, occupants
+/// descending (missing = 0), min PI ascending, id by UTF-8 bytes, then row.
+pub fn key_order(a: &RankKey<'_>, b: &RankKey<'_>) -> Ordering {
     a.class
         .cmp(&b.class)
         .then_with(|| b.score.total_cmp(&a.score))
-        .then_with(|| b.occupants.unwrap_or(0).cmp(&a.occupants.unwrap_or(0)))
-        .then_with(|| {
-            a.min_priority_index_pct()
-                .total_cmp(&b.min_priority_index_pct())
-        })
+        .then_with(|| b.occupants.cmp(&a.occupants))
+        .then_with(|| a.min_pi_pct.total_cmp(&b.min_pi_pct))
         .then_with(|| a.id.as_bytes().cmp(b.id.as_bytes()))
         .then_with(|| a.row.cmp(&b.row))
+}
+
+/// Priority order (method §11): class ascending, score descending, occupants descending
+/// (missing = 0), min PI ascending, id by UTF-8 bytes.
+pub fn priority_order(a: &BuildingResult, b: &BuildingResult) -> Ordering {
+    key_order(&RankKey::of(a), &RankKey::of(b))
 }
 
 /// Sorts into priority order and numbers the ranks 1..N.

@@ -442,6 +442,117 @@ fn read_csv_files(
     Ok(())
 }
 
+/// Whether a CSV inventory has sibling sheet files (`<stem>.walls.csv`, `.storeys.csv`,
+/// `.footprints.csv`, `.settings.csv`) beside it.
+pub fn csv_has_siblings(path: &Path) -> bool {
+    let stem = path
+        .file_stem()
+        .map(|s| s.to_string_lossy().into_owned())
+        .unwrap_or_default();
+    let dir = path.parent().unwrap_or(Path::new("."));
+    [&WALLS, &STOREYS, &FOOTPRINTS, &SETTINGS]
+        .iter()
+        .any(|spec| dir.join(format!("{stem}.{}.csv", spec.name)).is_file())
+}
+
+/// Reads a CSV buildings file (no sibling sheets) in chunks of about `chunk_rows` rows for
+/// the streaming path of a large stock. Every chunk is validated on its own except for the
+/// id check, which uses `duplicates` (ids seen on more than one row of the whole file → those
+/// rows, from a first pass) so that a repeated id is refused on every one of its rows as in
+/// [`read_inventory`]. `on_chunk` gets each chunk as an [`Inventory`] (accepted buildings,
+/// not-screened rows and the chunk's row problems; `rows` counts the chunk's rows), in file
+/// order. Returns what is known only at the end: sheet-level problems and blank rows (its
+/// `rows` is the total number of building rows).
+pub fn read_csv_chunks(
+    path: &Path,
+    opts: &ReadOptions,
+    chunk_rows: usize,
+    duplicates: &std::collections::HashMap<String, Vec<usize>>,
+    on_chunk: &mut dyn FnMut(Inventory),
+) -> Result<Inventory, InputError> {
+    let p = path.display().to_string();
+    let meta = std::fs::metadata(path).map_err(|e| unreadable(&p, e))?;
+    if meta.is_dir() {
+        return Err(unreadable(&p, "a folder, not an inventory file"));
+    }
+    let collected = RefCell::new(Collected::default());
+    let mut counter = CellCounter {
+        cells: 0,
+        max: opts.budget.max_cells,
+        path: p.clone(),
+    };
+    let decimal_comma = csv_info(path, &opts.budget)?;
+    let wall_pct = opts.limits.wall_area_mismatch_pct;
+    let mut total_rows = 0usize;
+    let mut hand_over = |collected: &RefCell<Collected>, at_least: usize| {
+        let part = {
+            let mut c = collected.borrow_mut();
+            if c.buildings.len() < at_least.max(1) {
+                return;
+            }
+            Collected {
+                buildings: std::mem::take(&mut c.buildings),
+                building_problems: std::mem::take(&mut c.building_problems),
+                ..Default::default()
+            }
+        };
+        total_rows += part.buildings.len();
+        on_chunk(validate::finish_with_ids(part, wall_pct, Some(duplicates)));
+    };
+    let run = SheetRun {
+        spec: &BUILDINGS,
+        decimal_comma,
+        limits: opts.limits,
+        collected: &collected,
+    };
+    let mut cut = Vec::new();
+    let info;
+    {
+        let mut reader = SheetReader::new(
+            &BUILDINGS,
+            BUILDINGS.name,
+            opts.header_row,
+            &opts.budget,
+            &p,
+            |row| run.consume(row),
+        );
+        info = csv::read_csv(
+            path,
+            &opts.budget,
+            &mut counter,
+            &mut |row: RawRow, truncated: &[usize]| {
+                if !truncated.is_empty() {
+                    cut.extend(truncation_problems(&BUILDINGS, &row, truncated));
+                }
+                reader.push(row)?;
+                hand_over(&collected, chunk_rows);
+                Ok(())
+            },
+        )?;
+        let summary = reader.finish()?;
+        let mut c = collected.borrow_mut();
+        c.sheet_problems.extend(summary.problems);
+        c.sheet_problems.extend(cut);
+        c.blank_rows = summary.blank_rows;
+    }
+    hand_over(&collected, 1);
+    let mut c = collected.into_inner();
+    if info.windows_1252 {
+        c.sheet_problems.push(Problem {
+            sheet: BUILDINGS.name.into(),
+            row: None,
+            column: String::new(),
+            message: format!(
+                "expected UTF-8 text in {p}, found other bytes; read as Windows-1252 (save as CSV UTF-8 to be sure of accents)"
+            ),
+            severity: Severity::Warning,
+        });
+    }
+    let mut rest = validate::finish(c, wall_pct);
+    rest.rows = total_rows;
+    Ok(rest)
+}
+
 /// Whether a CSV file uses `;` (and so decimal commas), read from its first line.
 fn csv_info(file: &Path, budget: &Budget) -> Result<bool, InputError> {
     use std::io::Read;

@@ -111,7 +111,19 @@ fn sort_out<T>(
 
 /// Cross-checks and the final split into accepted and not-screened rows. The accepted
 /// rows stay in the vector they were read into (no second copy of a large stock).
-pub fn finish(mut c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
+pub fn finish(c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
+    finish_with_ids(c, wall_area_mismatch_pct, None)
+}
+
+/// [`finish`] for one chunk of a streamed file: `duplicates` (ids on more than one row of the
+/// whole file → their rows, from a first pass) replaces the chunk's own id → rows map for
+/// those ids, so a repeated id is refused on all its rows even when they fall in different
+/// chunks, with the same message as the whole-file read.
+pub fn finish_with_ids(
+    mut c: Collected,
+    wall_area_mismatch_pct: f64,
+    duplicates: Option<&HashMap<String, Vec<usize>>>,
+) -> Inventory {
     let mut inv = Inventory {
         settings_rows: std::mem::take(&mut c.settings_rows),
         blank_rows: c.blank_rows,
@@ -125,6 +137,13 @@ pub fn finish(mut c: Collected, wall_area_mismatch_pct: f64) -> Inventory {
     for b in &c.buildings {
         if !b.id.is_empty() {
             ids.entry(b.id.clone()).or_default().push(b.row);
+        }
+    }
+    if let Some(dups) = duplicates {
+        for (id, rows) in ids.iter_mut() {
+            if let Some(all) = dups.get(id) {
+                rows.clone_from(all);
+            }
         }
     }
     let mut extra: HashMap<String, Vec<Problem>> = HashMap::new();

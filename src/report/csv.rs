@@ -54,24 +54,57 @@ pub fn write_table<W: Write>(
     out: W,
 ) -> Result<(), ReportError> {
     let mut w = ::csv::Writer::from_writer(out);
+    write_header(table, &mut w)?;
+    write_rows(report, table, limit, false, &mut w)?;
+    w.flush()?;
+    Ok(())
+}
+
+/// Writes the header record of a table (the columns' machine names).
+pub fn write_header<W: Write>(table: Table, w: &mut ::csv::Writer<W>) -> Result<(), ReportError> {
     w.write_record(table.columns().iter().map(|c| c.key))?;
+    Ok(())
+}
+
+/// Appends up to `limit` rows of a table to a CSV writer. With `blank_rank` the first column
+/// (the rank, for the tables that start with it) is left empty: the streaming path of a large
+/// stock writes Directions, Walls and Flags in file order, chunk by chunk, before the ranks
+/// are known.
+pub fn write_rows<W: Write>(
+    report: &Report,
+    table: Table,
+    limit: usize,
+    blank_rank: bool,
+    w: &mut ::csv::Writer<W>,
+) -> Result<(), ReportError> {
     let mut num = String::new();
     table.for_each_row(report, Target::Csv, limit, |cells| {
-        for c in cells {
-            match c {
-                Cell::Blank => w.write_field("")?,
-                Cell::Num(v) => {
-                    number_text(*v, &mut num);
-                    w.write_field(&num)?;
-                }
-                Cell::Text(t) => w.write_field(guard(t).as_ref())?,
-            }
-        }
-        // Ends the record (the fields above were written one by one, without copies).
-        w.write_record(None::<&[u8]>)?;
-        Ok::<(), ReportError>(())
+        write_cells(cells, blank_rank, &mut num, w)
     })?;
-    w.flush()?;
+    Ok(())
+}
+
+/// Writes one record of cells (`num` is a scratch buffer for number text); with
+/// `blank_first` the first cell is written empty.
+pub fn write_cells<W: Write>(
+    cells: &[Cell<'_>],
+    blank_first: bool,
+    num: &mut String,
+    w: &mut ::csv::Writer<W>,
+) -> Result<(), ReportError> {
+    for (i, c) in cells.iter().enumerate() {
+        match c {
+            _ if blank_first && i == 0 => w.write_field("")?,
+            Cell::Blank => w.write_field("")?,
+            Cell::Num(v) => {
+                number_text(*v, num);
+                w.write_field(&*num)?;
+            }
+            Cell::Text(t) => w.write_field(guard(t).as_ref())?,
+        }
+    }
+    // Ends the record (the fields above were written one by one, without copies).
+    w.write_record(None::<&[u8]>)?;
     Ok(())
 }
 

@@ -100,8 +100,8 @@ pub fn summary(report: &Report, written: &[(String, PathBuf)]) -> String {
         if written.iter().any(|(what, _)| what.ends_with("(CSV)")) {
             let _ = writeln!(
                 s,
-                "Some tables are too long for a spreadsheet sheet ({} rows): they were written \
-                 as CSV files beside the workbook (listed below).",
+                "Some tables were written as CSV files beside the workbook (listed below): too \
+                 long for a spreadsheet sheet ({} rows), or a large stock screened in chunks.",
                 super::workbook::SHEET_ROWS
             );
         }

@@ -20,7 +20,7 @@ use std::collections::HashMap;
 use rayon::prelude::*;
 
 use crate::engine::{self, BuildingInput};
-use crate::results::{BudgetPlan, BuildingResult};
+use crate::results::{BudgetPlan, BuildingResult, Retrofit};
 use crate::settings::Settings;
 
 /// Sizes the wall retrofit of every building that needs one and fills `retrofit` (method
@@ -76,31 +76,31 @@ pub fn budget_plan_unavailable(settings: &Settings) -> Option<String> {
 /// Makes the budget plan (priority walk and max-occupants knapsack, method §12) and marks
 /// `funded` (walk) and `funded_best` (max-occupants plan) on every retrofit. `None` without
 /// a budget or without all three unit costs (see [`budget_plan_unavailable`]).
-pub fn budget_plan(results: &mut [BuildingResult], settings: &Settings) -> Option<BudgetPlan> {
+pub fn budget_plan<T: Fundable>(results: &mut [T], settings: &Settings) -> Option<BudgetPlan> {
     let amount = settings.budget?;
     cost::UnitCosts::from_settings(settings)?;
     let mut order: Vec<usize> = (0..results.len())
-        .filter(|&i| results[i].retrofit.is_some())
+        .filter(|&i| results[i].retrofit().is_some())
         .collect();
-    order.sort_by_key(|&i| (results[i].rank, i));
+    order.sort_by_key(|&i| (results[i].rank(), i));
     let items: Vec<budget::Item> = order
         .iter()
         .filter_map(|&i| {
             let r = &results[i];
-            let c = cost::funding_cost(r.retrofit.as_ref()?)?;
+            let c = cost::funding_cost(r.retrofit()?)?;
             Some(budget::Item {
                 index: i,
-                id: r.id.clone(),
-                rank: r.rank,
+                id: r.id().to_string(),
+                rank: r.rank(),
                 cost: c,
-                occupants: r.occupants.unwrap_or(0),
-                life_safety: matches!(r.class, 1 | 2),
+                occupants: r.occupants().unwrap_or(0),
+                life_safety: matches!(r.class(), 1 | 2),
             })
         })
         .collect();
     let plans = budget::plans(&items, amount, settings.knapsack_resolution);
     for r in results.iter_mut() {
-        if let Some(rf) = r.retrofit.as_mut() {
+        if let Some(rf) = r.retrofit_mut() {
             rf.funded = Some(false);
             rf.funded_best = Some(false);
         }
@@ -108,7 +108,7 @@ pub fn budget_plan(results: &mut [BuildingResult], settings: &Settings) -> Optio
     for (sel, best) in [(&plans.walk, false), (&plans.best, true)] {
         for &m in &sel.members {
             let Some(it) = items.get(m) else { continue };
-            if let Some(rf) = results.get_mut(it.index).and_then(|r| r.retrofit.as_mut()) {
+            if let Some(rf) = results.get_mut(it.index).and_then(|r| r.retrofit_mut()) {
                 if best {
                     rf.funded_best = Some(true);
                 } else {
@@ -122,6 +122,44 @@ pub fn budget_plan(results: &mut [BuildingResult], settings: &Settings) -> Optio
         priority_walk: budget::funding_plan(&items, &plans.walk, None),
         max_occupants: budget::funding_plan(&items, &plans.best, Some(plans.method)),
     })
+}
+
+/// What the budget plan needs of a ranked building: a [`BuildingResult`], or the compact row
+/// of the streaming path of a large stock.
+pub trait Fundable {
+    /// Rank 1..N.
+    fn rank(&self) -> usize;
+    /// Building id.
+    fn id(&self) -> &str;
+    /// Occupants.
+    fn occupants(&self) -> Option<u64>;
+    /// Class 1–4.
+    fn class(&self) -> u8;
+    /// The sized retrofit.
+    fn retrofit(&self) -> Option<&Retrofit>;
+    /// The sized retrofit, to mark it funded.
+    fn retrofit_mut(&mut self) -> Option<&mut Retrofit>;
+}
+
+impl Fundable for BuildingResult {
+    fn rank(&self) -> usize {
+        self.rank
+    }
+    fn id(&self) -> &str {
+        &self.id
+    }
+    fn occupants(&self) -> Option<u64> {
+        self.occupants
+    }
+    fn class(&self) -> u8 {
+        self.class
+    }
+    fn retrofit(&self) -> Option<&Retrofit> {
+        self.retrofit.as_ref()
+    }
+    fn retrofit_mut(&mut self) -> Option<&mut Retrofit> {
+        self.retrofit.as_mut()
+    }
 }
 
 /// Ids funded by one plan and not by the other: (walk only, max-occupants only), in rank

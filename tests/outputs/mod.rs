@@ -5,4 +5,5 @@
 pub mod binary;
 pub mod exports;
 mod sample;
+pub mod streaming;
 pub mod workbook;

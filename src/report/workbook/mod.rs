@@ -69,6 +69,9 @@ pub struct Layout {
     pub constant_memory: bool,
     /// Zip64 extensions on: some sheet may pass 4 GiB uncompressed.
     pub zip64: bool,
+    /// The inventory was screened in chunks (the streaming path of a large CSV stock): the
+    /// Directions, Walls and Flags CSV files are in file order with the rank column empty.
+    pub streamed: bool,
 }
 
 impl Layout {
@@ -88,6 +91,7 @@ impl Layout {
             csv: Vec::new(),
             constant_memory: buildings > CONSTANT_MEMORY_FROM,
             zip64: false,
+            streamed: false,
         };
         if !fits(Table::Directions) {
             layout = layout.large_stock();
@@ -278,10 +282,25 @@ pub fn write_with_layout(
     layout: &Layout,
     progress: Progress<'_>,
 ) -> Result<Vec<(String, PathBuf)>, ReportError> {
+    write_with_layout_except(report, path, layout, &[], progress)
+}
+
+/// [`write_with_layout`] where the CSV files of the tables in `written` are already written
+/// (the streaming path writes Directions, Walls and Flags chunk by chunk): they are listed on
+/// Summary but not written again.
+pub fn write_with_layout_except(
+    report: &Report,
+    path: &Path,
+    layout: &Layout,
+    written: &[Table],
+    progress: Progress<'_>,
+) -> Result<Vec<(String, PathBuf)>, ReportError> {
     let mut extra = Vec::new();
     for t in &layout.csv {
         let p = csv_path(path, *t);
-        crate::report::csv::write_table_file(report, *t, &p)?;
+        if !written.contains(t) {
+            crate::report::csv::write_table_file(report, *t, &p)?;
+        }
         extra.push((format!("{} (CSV)", t.sheet_name()), p));
     }
     let tmp = temp_path(path);

@@ -517,7 +517,20 @@ pub fn write(
     )?;
     if !layout.csv.is_empty() {
         let mut note = String::new();
-        if layout.large() {
+        if layout.streamed {
+            note.push_str(&format!(
+                "Large stock, screened in chunks to bound memory: the per-row tables are \
+                 written as CSV files beside this workbook, and the Priority sheet here holds \
+                 only the first {} rows. The Priority and Retrofit plan files are in rank \
+                 order; the Directions, Walls and Flags files are in file order (the order of \
+                 the inventory rows) with the rank column left empty: join them to Priority \
+                 on the building id. The charts and per-district figures of this workbook are \
+                 built from those first {} buildings in rank order; the counts above cover \
+                 every row.",
+                money(super::LARGE_PRIORITY_ROWS as f64),
+                money(super::LARGE_PRIORITY_ROWS as f64)
+            ));
+        } else if layout.large() {
             note.push_str(&format!(
                 "Large stock: the Directions sheet would pass the spreadsheet row limit \
                  ({} rows), so the per-row tables are written as CSV files beside this \

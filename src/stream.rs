@@ -1,0 +1,601 @@
+/*!
+The streaming path of `screen` for a large CSV stock: bounded memory instead of holding every
+record and every full result.
+
+Used for a `.csv` inventory with no sibling sheet files (`<stem>.walls.csv`, …) and more
+lines than a threshold ([`STREAM_FROM_ROWS`], overridable with the `SEISTRIAGE_STREAM_FROM`
+environment variable for tests). The steps:
+1. a first pass over the file: id → rows, kept only for ids on more than one row, so that a
+   repeated id is refused on every one of its rows as in the whole-file read;
+2. a second pass in chunks of [`CHUNK_ROWS`] rows: validate (with the duplicates of step 1),
+   place (geography), screen, size retrofits; the Directions, Walls and Flags rows are
+   appended to their `<out stem>.<sheet>.csv` files as each chunk completes, in FILE order
+   (the ranks are known only at the end, so their rank column is left empty; every row
+   carries the building id), and one compact row per building is kept;
+3. the compact rows are ranked with the order of method §11 ([`rank::key_order`], the same
+   order as the whole-stock path), the budget plan is made on them, the Priority and Retrofit
+   plan CSV files are written in rank order and the workbook gets Summary, the first
+   [`LARGE_PRIORITY_ROWS`] Priority rows, Not screened, Input problems and Assumptions
+   (interface.md, large stocks). The Summary's charts and per-district figures are built from
+   those first rows only (it says so); its counts cover every row.
+
+`--json` and `--geojson` are refused on this path (they need every full result).
+*/
+
+use std::collections::HashMap;
+use std::fs::File;
+use std::io::{BufWriter, Read};
+use std::path::{Path, PathBuf};
+
+use sha2::Digest;
+
+use crate::engine::{self, rank};
+use crate::geography::{self, Geography};
+use crate::input::{self, InputError};
+use crate::model::{Dir, FaultDistance, PerDir, Problem, Severity, Use};
+use crate::pipeline::{self, PipelineError, RunOptions};
+use crate::report::ReportError;
+use crate::report::atomic::temp_path;
+use crate::report::workbook::tables::{self, RowCounts, Table, Target};
+use crate::report::workbook::{self, LARGE_PRIORITY_ROWS, Layout};
+use crate::results::{
+    BuildingDetail, BuildingResult, Counts, DirectionResult, Flag, Governing, InputInfo, Levels,
+    Report, Retrofit,
+};
+use crate::retrofit::{self, Fundable};
+
+/// Inventories with more lines than this are screened on the streaming path.
+pub const STREAM_FROM_ROWS: usize = 200_000;
+
+/// Rows per chunk.
+pub const CHUNK_ROWS: usize = 20_000;
+
+/// Environment variable that overrides [`STREAM_FROM_ROWS`] (tests).
+pub const STREAM_FROM_ENV: &str = "SEISTRIAGE_STREAM_FROM";
+
+/// Environment variable that overrides [`CHUNK_ROWS`] (tests, to cross chunk boundaries).
+pub const CHUNK_ENV: &str = "SEISTRIAGE_STREAM_CHUNK";
+
+/// Rows per chunk in force: [`CHUNK_ENV`] when set to a positive number, else [`CHUNK_ROWS`].
+pub fn chunk_rows() -> usize {
+    std::env::var(CHUNK_ENV)
+        .ok()
+        .and_then(|v| v.trim().parse().ok())
+        .filter(|n| *n > 0)
+        .unwrap_or(CHUNK_ROWS)
+}
+
+/// Failures of the streaming path.
+#[derive(Debug, thiserror::Error)]
+pub enum StreamError {
+    /// Reading, settings or geography.
+    #[error(transparent)]
+    Pipeline(#[from] PipelineError),
+    /// Writing an output.
+    #[error("writing {path}: {source}")]
+    Write {
+        /// Output path.
+        path: String,
+        /// What failed.
+        source: ReportError,
+    },
+}
+
+impl From<InputError> for StreamError {
+    fn from(e: InputError) -> Self {
+        StreamError::Pipeline(PipelineError::Input(e))
+    }
+}
+
+fn write_err(path: &Path) -> impl Fn(ReportError) -> StreamError + '_ {
+    move |source| StreamError::Write {
+        path: path.display().to_string(),
+        source,
+    }
+}
+
+/// The threshold in force: [`STREAM_FROM_ENV`] when set to a number, else
+/// [`STREAM_FROM_ROWS`].
+pub fn threshold() -> usize {
+    std::env::var(STREAM_FROM_ENV)
+        .ok()
+        .and_then(|v| v.trim().parse().ok())
+        .unwrap_or(STREAM_FROM_ROWS)
+}
+
+/// Whether `path` is screened on the streaming path: a `.csv` file with no sibling sheet
+/// files and more lines than `from_rows` (lines, counted without parsing: the header and any
+/// blank lines count too, so this is a cheap upper bound of the data rows).
+pub fn applies(path: &Path, from_rows: usize) -> bool {
+    let is_csv = path
+        .extension()
+        .is_some_and(|e| e.to_string_lossy().eq_ignore_ascii_case("csv"));
+    if !is_csv || input::csv_has_siblings(path) {
+        return false;
+    }
+    let Ok(mut f) = File::open(path) else {
+        return false;
+    };
+    let mut buf = vec![0u8; 1 << 16];
+    let mut lines = 0usize;
+    loop {
+        match f.read(&mut buf) {
+            Ok(0) | Err(_) => break,
+            Ok(n) => {
+                lines += buf.iter().take(n).filter(|b| **b == b'\n').count();
+                if lines > from_rows {
+                    return true;
+                }
+            }
+        }
+    }
+    false
+}
+
+/// One building kept between the chunks and the end: what the Priority and Retrofit plan
+/// rows, the ranking and the budget plan need (a few hundred bytes instead of a full result).
+#[derive(Debug, Clone)]
+struct Compact {
+    id: String,
+    name: String,
+    district: String,
+    use_: Use,
+    occupants: Option<u64>,
+    latitude: Option<f64>,
+    longitude: Option<f64>,
+    fault: Option<FaultDistance>,
+    rank: usize,
+    class: u8,
+    score: f64,
+    governing: Governing,
+    row: usize,
+    dcr: PerDir<Levels>,
+    priority_index_pct: PerDir<f64>,
+    /// The distinct flag codes, `;`-joined (what Priority shows; the details are in the
+    /// Flags file).
+    flag_codes: String,
+    floor_area_m2: f64,
+    retrofit: Option<Box<Retrofit>>,
+}
+
+impl Compact {
+    fn of(b: BuildingResult) -> Self {
+        // Flag details are in the Flags file already; the codes are what Priority shows.
+        let flag_codes = b.flag_codes().join(";");
+        Compact {
+            priority_index_pct: PerDir {
+                x: b.directions.x.priority_index_pct,
+                y: b.directions.y.priority_index_pct,
+            },
+            dcr: PerDir {
+                x: b.directions.x.dcr,
+                y: b.directions.y.dcr,
+            },
+            id: b.id,
+            name: b.name,
+            district: b.district,
+            use_: b.use_,
+            occupants: b.occupants,
+            latitude: b.latitude,
+            longitude: b.longitude,
+            fault: b.fault,
+            rank: b.rank,
+            class: b.class,
+            score: b.score,
+            governing: b.governing,
+            row: b.row,
+            flag_codes,
+            floor_area_m2: b.detail.floor_area_m2,
+            retrofit: b.retrofit.map(Box::new),
+        }
+    }
+
+    fn key(&self) -> rank::RankKey<'_> {
+        rank::RankKey {
+            class: self.class,
+            score: self.score,
+            occupants: self.occupants.unwrap_or(0),
+            min_pi_pct: self.priority_index_pct.x.min(self.priority_index_pct.y),
+            id: &self.id,
+            row: self.row,
+        }
+    }
+
+    /// A result holding what the Priority and Retrofit plan rows and the Summary read
+    /// (other numbers are zero: they are in the per-row files).
+    fn result(&self) -> BuildingResult {
+        let dir = |d: Dir| DirectionResult {
+            priority_index_pct: *self.priority_index_pct.get(d),
+            dcr: *self.dcr.get(d),
+            ..Default::default()
+        };
+        BuildingResult {
+            id: self.id.clone(),
+            name: self.name.clone(),
+            district: self.district.clone(),
+            use_: self.use_,
+            occupants: self.occupants,
+            latitude: self.latitude,
+            longitude: self.longitude,
+            fault: self.fault.clone(),
+            rank: self.rank,
+            class: self.class,
+            score: self.score,
+            governing: self.governing,
+            axial_load_ratio: 0.0,
+            strength_coefficient: PerDir::default(),
+            directions: PerDir {
+                x: dir(Dir::X),
+                y: dir(Dir::Y),
+            },
+            flags: self
+                .flag_codes
+                .split(';')
+                .filter(|c| !c.is_empty())
+                .map(|c| Flag {
+                    code: c.to_string(),
+                    direction: None,
+                    detail: String::new(),
+                })
+                .collect(),
+            defaults_used: Vec::new(),
+            retrofit: self.retrofit.as_deref().cloned(),
+            row: self.row,
+            detail: BuildingDetail {
+                floor_area_m2: self.floor_area_m2,
+                ..Default::default()
+            },
+            walls: Vec::new(),
+        }
+    }
+}
+
+impl Fundable for Compact {
+    fn rank(&self) -> usize {
+        self.rank
+    }
+    fn id(&self) -> &str {
+        &self.id
+    }
+    fn occupants(&self) -> Option<u64> {
+        self.occupants
+    }
+    fn class(&self) -> u8 {
+        self.class
+    }
+    fn retrofit(&self) -> Option<&Retrofit> {
+        self.retrofit.as_deref()
+    }
+    fn retrofit_mut(&mut self) -> Option<&mut Retrofit> {
+        self.retrofit.as_deref_mut()
+    }
+}
+
+/// SHA-256 of a file, hex, read in blocks.
+fn sha256_streamed(path: &Path) -> String {
+    let Ok(mut f) = File::open(path) else {
+        return String::new();
+    };
+    let mut h = sha2::Sha256::new();
+    let mut buf = vec![0u8; 1 << 16];
+    loop {
+        match f.read(&mut buf) {
+            Ok(0) => break,
+            Ok(n) => h.update(buf.get(..n).unwrap_or(&[])),
+            Err(_) => return String::new(),
+        }
+    }
+    h.finalize().iter().map(|b| format!("{b:02x}")).collect()
+}
+
+/// A per-row CSV file written chunk by chunk under a temporary name.
+struct RowFile {
+    table: Table,
+    path: PathBuf,
+    tmp: PathBuf,
+    w: ::csv::Writer<BufWriter<File>>,
+}
+
+impl RowFile {
+    fn create(out: &Path, table: Table) -> Result<Self, StreamError> {
+        let path = workbook::csv_path(out, table);
+        let tmp = temp_path(&path);
+        let f = File::create(&tmp).map_err(|e| write_err(&path)(ReportError::Io(e)))?;
+        let mut w = ::csv::Writer::from_writer(BufWriter::new(f));
+        crate::report::csv::write_header(table, &mut w).map_err(write_err(&path))?;
+        Ok(RowFile {
+            table,
+            path,
+            tmp,
+            w,
+        })
+    }
+
+    fn finish(mut self) -> Result<PathBuf, StreamError> {
+        let path = self.path.clone();
+        self.w
+            .flush()
+            .map_err(|e| write_err(&path)(ReportError::Io(e)))?;
+        std::fs::rename(&self.tmp, &path).map_err(|e| write_err(&path)(ReportError::Io(e)))?;
+        Ok(path)
+    }
+}
+
+impl Drop for RowFile {
+    /// A file not finished (an error on the way) leaves nothing behind; once renamed, the
+    /// temporary name no longer exists and this does nothing.
+    fn drop(&mut self) {
+        let _ = std::fs::remove_file(&self.tmp);
+    }
+}
+
+/// What the streaming path produced: a report of the first [`LARGE_PRIORITY_ROWS`] buildings
+/// in rank order with the counts, budget plan, not-screened rows and problems of the whole
+/// stock (for the terminal summary), and the files written.
+#[derive(Debug)]
+pub struct Streamed {
+    /// Report with the top buildings only (its counts cover the whole stock).
+    pub report: Report,
+    /// Files written, with a label.
+    pub written: Vec<(String, PathBuf)>,
+}
+
+/// Screens a large CSV stock in chunks and writes the workbook `out`, its per-row CSV files
+/// beside it and, if asked, the Priority CSV `priority_csv`. `progress` gets rows screened.
+pub fn screen_to_files(
+    path: &Path,
+    opts: &RunOptions,
+    out: &Path,
+    priority_csv: Option<&Path>,
+    chunk_rows: usize,
+    progress: &dyn Fn(u64),
+) -> Result<Streamed, StreamError> {
+    let mut problems: Vec<Problem> = Vec::new();
+    let settings = pipeline::settle_settings(&[], &mut problems, opts)?;
+    let (geo, geo_problems) = Geography::load(opts.districts.as_deref(), opts.faults.as_deref())
+        .map_err(PipelineError::from)?;
+
+    // 1. Ids on more than one row.
+    let mut duplicates: HashMap<String, Vec<usize>> = HashMap::new();
+    {
+        let none = HashMap::new();
+        input::read_csv_chunks(path, &opts.read, chunk_rows, &none, &mut |inv| {
+            for (id, row) in inv
+                .buildings
+                .iter()
+                .map(|b| (&b.id, b.row))
+                .chain(inv.not_screened.iter().map(|n| (&n.id, n.row)))
+            {
+                if !id.is_empty() {
+                    duplicates.entry(id.clone()).or_default().push(row);
+                }
+            }
+        })?;
+        duplicates.retain(|_, rows| rows.len() > 1);
+        for rows in duplicates.values_mut() {
+            rows.sort_unstable();
+        }
+        duplicates.shrink_to_fit();
+    }
+
+    // 2. Chunks.
+    let mut files = Vec::new();
+    for t in [Table::Directions, Table::Walls, Table::Flags] {
+        files.push(RowFile::create(out, t)?);
+    }
+    let mut kept: Vec<Compact> = Vec::new();
+    let mut not_screened = Vec::new();
+    let mut row_problems = Vec::new();
+    let mut site_problems = Vec::new();
+    let mut rows_done = 0u64;
+    let mut counts = RowCounts {
+        priority: 0,
+        retrofit: 0,
+        directions: 0,
+        walls: 0,
+        flags: 0,
+        not_screened: 0,
+        problems: 0,
+    };
+    let mut failure: Option<StreamError> = None;
+    let mut part = Report {
+        tool: "seistriage",
+        version: env!("CARGO_PKG_VERSION"),
+        input: InputInfo {
+            file: path.display().to_string(),
+            sha256: String::new(),
+        },
+        settings: settings.clone(),
+        counts: Counts::tally(0, 0, 0, &[]),
+        buildings: Vec::new(),
+        budget_plan: None,
+        not_screened: Vec::new(),
+        problems: Vec::new(),
+    };
+    let rest =
+        input::read_csv_chunks(path, &opts.read, chunk_rows, &duplicates, &mut |mut inv| {
+            if failure.is_some() {
+                return;
+            }
+            rows_done += inv.rows as u64;
+            let (sites, sp) = geography::locate(&inv.buildings, &geo, &settings);
+            site_problems.extend(sp);
+            row_problems.append(&mut inv.problems);
+            not_screened.append(&mut inv.not_screened);
+            let inputs = engine::building_inputs(&inv, &sites);
+            let screening = engine::screen_all(&inputs, &settings);
+            let mut chunk = screening.buildings;
+            retrofit::size_all(&mut chunk, &inputs, &settings);
+            not_screened.extend(screening.not_screened);
+            // File order for the per-row files (ranks come at the end).
+            chunk.sort_by_key(|b| b.row);
+            part.buildings = chunk;
+            for f in &mut files {
+                if let Err(e) =
+                    crate::report::csv::write_rows(&part, f.table, usize::MAX, true, &mut f.w)
+                {
+                    failure = Some(write_err(&f.path)(e));
+                    return;
+                }
+            }
+            counts.directions += 2 * part.buildings.len();
+            counts.walls += part.buildings.iter().map(|b| b.walls.len()).sum::<usize>();
+            counts.flags += part.buildings.iter().map(|b| b.flags.len()).sum::<usize>();
+            kept.extend(
+                std::mem::take(&mut part.buildings)
+                    .into_iter()
+                    .map(Compact::of),
+            );
+            progress(rows_done);
+        })?;
+    if let Some(e) = failure {
+        return Err(e);
+    }
+    drop(duplicates);
+
+    // 3. Rank, budget, write.
+    // In place and without a buffer (the keys end with id and row, a total order, so an
+    // unstable sort gives the same order as the stable one of the whole-stock path).
+    let mut ranked = kept;
+    ranked.sort_unstable_by(|a, b| rank::key_order(&a.key(), &b.key()));
+    for (i, c) in ranked.iter_mut().enumerate() {
+        c.rank = i + 1;
+    }
+    let budget_plan = retrofit::budget_plan(&mut ranked, &settings);
+    not_screened.sort_by(|a, b| (a.sheet.as_str(), a.row).cmp(&(b.sheet.as_str(), b.row)));
+
+    let mut all_problems = rest.problems;
+    all_problems.extend(row_problems);
+    all_problems.extend(problems);
+    all_problems.extend(geo_problems);
+    all_problems.extend(site_problems);
+    if let Some(message) = retrofit::budget_plan_unavailable(&settings) {
+        all_problems.push(Problem {
+            sheet: "settings".into(),
+            row: None,
+            column: "budget".into(),
+            message,
+            severity: Severity::Warning,
+        });
+    }
+    let mut by_class = [0usize; 4];
+    for c in &ranked {
+        let i = usize::from(c.class.clamp(1, 4)) - 1;
+        if let Some(n) = by_class.get_mut(i) {
+            *n += 1;
+        }
+    }
+    let top: Vec<BuildingResult> = ranked
+        .iter()
+        .take(LARGE_PRIORITY_ROWS)
+        .map(Compact::result)
+        .collect();
+    let mut report_counts = Counts::tally(rest.rows, rest.blank_rows, not_screened.len(), &top);
+    report_counts.screened = ranked.len();
+    report_counts.by_class.c1 = by_class[0];
+    report_counts.by_class.c2 = by_class[1];
+    report_counts.by_class.c3 = by_class[2];
+    report_counts.by_class.c4 = by_class[3];
+
+    let mut written = Vec::new();
+    // Priority and Retrofit plan in rank order.
+    let priority_path = workbook::csv_path(out, Table::Priority);
+    let retrofit_path = workbook::csv_path(out, Table::Retrofit);
+    write_ranked(&ranked, &priority_path, &retrofit_path, &mut counts)?;
+    let mut moved = Vec::new();
+    for f in files {
+        moved.push(f.finish()?);
+    }
+    counts.priority = ranked.len();
+    counts.not_screened = not_screened.len();
+    counts.problems = all_problems.len();
+
+    let report = Report {
+        tool: "seistriage",
+        version: env!("CARGO_PKG_VERSION"),
+        input: InputInfo {
+            file: path.display().to_string(),
+            sha256: sha256_streamed(path),
+        },
+        settings,
+        counts: report_counts,
+        buildings: top,
+        budget_plan,
+        not_screened,
+        problems: all_problems,
+    };
+    let mut layout = Layout::plan(counts, ranked.len()).large_stock();
+    layout.streamed = true;
+    drop(ranked);
+    let extra = workbook::write_with_layout_except(
+        &report,
+        out,
+        &layout,
+        &[
+            Table::Priority,
+            Table::Retrofit,
+            Table::Directions,
+            Table::Walls,
+            Table::Flags,
+        ],
+        &|_| {},
+    )
+    .map_err(write_err(out))?;
+    written.push(("workbook".to_string(), out.to_path_buf()));
+    written.extend(extra);
+    if let Some(p) = priority_csv {
+        std::fs::copy(&priority_path, p).map_err(|e| write_err(p)(ReportError::Io(e)))?;
+        written.push(("CSV (Priority)".into(), p.to_path_buf()));
+    }
+    Ok(Streamed { report, written })
+}
+
+/// Writes the Priority and Retrofit plan CSV files in rank order (through temporary files).
+fn write_ranked(
+    ranked: &[Compact],
+    priority_path: &Path,
+    retrofit_path: &Path,
+    counts: &mut RowCounts,
+) -> Result<(), StreamError> {
+    use crate::report::csv::{write_cells, write_header};
+    let mut num = String::new();
+    crate::report::atomic::write_atomic(priority_path, |w| {
+        let mut w = ::csv::Writer::from_writer(w);
+        write_header(Table::Priority, &mut w)?;
+        for c in ranked {
+            let b = c.result();
+            let mut cells = Vec::with_capacity(Table::Priority.columns().len());
+            tables::priority_row(&b, Target::Csv, &mut cells);
+            write_cells(&cells, false, &mut num, &mut w)?;
+        }
+        w.flush()?;
+        Ok(())
+    })
+    .map_err(write_err(priority_path))?;
+    let mut n = 0usize;
+    crate::report::atomic::write_atomic(retrofit_path, |w| {
+        let mut w = ::csv::Writer::from_writer(w);
+        write_header(Table::Retrofit, &mut w)?;
+        // The running total as in the whole-stock Retrofit plan table.
+        let mut cumulative = 0.0;
+        let mut cum_known = true;
+        for c in ranked.iter().filter(|c| c.retrofit.is_some()) {
+            let b = c.result();
+            let cost = tables::funding_cost(&b);
+            match cost {
+                Some(v) if cum_known => cumulative += v,
+                _ => cum_known = false,
+            }
+            let cum = (cum_known && cost.is_some()).then_some(cumulative);
+            let mut cells = Vec::with_capacity(Table::Retrofit.columns().len());
+            tables::retrofit_row(&b, cum, Target::Csv, &mut cells);
+            write_cells(&cells, false, &mut num, &mut w)?;
+            n += 1;
+        }
+        w.flush()?;
+        Ok(())
+    })
+    .map_err(write_err(retrofit_path))?;
+    counts.retrofit = n;
+    Ok(())
+}
