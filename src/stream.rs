@@ -44,8 +44,13 @@ use crate::results::{
 };
 use crate::retrofit::{self, Fundable};
 
-/// Inventories with more lines than this are screened on the streaming path.
-pub const STREAM_FROM_ROWS: usize = 200_000;
+/// Inventories with more lines than this are screened on the streaming path: from here on
+/// the Directions sheet (two rows per building plus its header) would pass the sheet row
+/// limit (lines count the header: 524,288 lines = 524,287 buildings still fit), so interface.md's large-stock rule sends the per-row tables to CSV files anyway
+/// and the streamed outputs have the same shape as the whole-stock path's. Below it the
+/// whole-stock path keeps every table in the workbook (at the cost of memory that grows
+/// with the stock: about 0.63 GB at 100,000 buildings).
+pub const STREAM_FROM_ROWS: usize = workbook::SHEET_ROWS / 2;
 
 /// Rows per chunk.
 pub const CHUNK_ROWS: usize = 20_000;
