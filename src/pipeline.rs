@@ -120,15 +120,23 @@ pub fn settle_settings(
     Ok(settings)
 }
 
-/// SHA-256 of a file, hex.
-fn sha256_hex(path: &Path) -> String {
-    match std::fs::read(path) {
-        Ok(bytes) => {
-            let digest = sha2::Sha256::digest(&bytes);
-            digest.iter().map(|b| format!("{b:02x}")).collect()
+/// SHA-256 of a file, hex, read in blocks (an inventory may be gigabytes); empty when the
+/// file cannot be read.
+pub fn sha256_hex(path: &Path) -> String {
+    use std::io::Read;
+    let Ok(mut f) = std::fs::File::open(path) else {
+        return String::new();
+    };
+    let mut h = sha2::Sha256::new();
+    let mut buf = vec![0u8; 1 << 16];
+    loop {
+        match f.read(&mut buf) {
+            Ok(0) => break,
+            Ok(n) => h.update(buf.get(..n).unwrap_or(&[])),
+            Err(_) => return String::new(),
         }
-        Err(_) => String::new(),
     }
+    h.finalize().iter().map(|b| format!("{b:02x}")).collect()
 }
 
 /// Reads the inventory, settles the settings and places the buildings.

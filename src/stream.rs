@@ -27,8 +27,6 @@ use std::fs::File;
 use std::io::{BufWriter, Read};
 use std::path::{Path, PathBuf};
 
-use sha2::Digest;
-
 use crate::engine::{self, rank};
 use crate::geography::{self, Geography};
 use crate::input::{self, InputError};
@@ -276,23 +274,6 @@ impl Fundable for Compact {
     }
 }
 
-/// SHA-256 of a file, hex, read in blocks.
-fn sha256_streamed(path: &Path) -> String {
-    let Ok(mut f) = File::open(path) else {
-        return String::new();
-    };
-    let mut h = sha2::Sha256::new();
-    let mut buf = vec![0u8; 1 << 16];
-    loop {
-        match f.read(&mut buf) {
-            Ok(0) => break,
-            Ok(n) => h.update(buf.get(..n).unwrap_or(&[])),
-            Err(_) => return String::new(),
-        }
-    }
-    h.finalize().iter().map(|b| format!("{b:02x}")).collect()
-}
-
 /// A per-row CSV file written chunk by chunk under a temporary name.
 struct RowFile {
     table: Table,
@@ -520,7 +501,7 @@ pub fn screen_to_files(
         version: env!("CARGO_PKG_VERSION"),
         input: InputInfo {
             file: path.display().to_string(),
-            sha256: sha256_streamed(path),
+            sha256: crate::pipeline::sha256_hex(path),
         },
         settings,
         counts: report_counts,
