@@ -338,6 +338,10 @@ pub struct Inventory {
     pub footprints: Vec<FootprintVertex>,
     /// Key/value rows of the `settings` sheet (key, value text), in order.
     pub settings_rows: Vec<(String, String)>,
+    /// The spreadsheet row of each entry of `settings_rows` (same order; 1-based, title and
+    /// header rows included; CSV: the record number, header = 1).
+    #[serde(default)]
+    pub settings_row_numbers: Vec<usize>,
     /// Building rows rejected by the reader, with reasons.
     pub not_screened: Vec<NotScreened>,
     /// Every problem found (errors and warnings).

@@ -75,22 +75,44 @@ pub struct Loaded {
 }
 
 /// Settles the settings: built-in defaults < inventory `settings` sheet < TOML file < flags.
-/// Problems of the settings sheet are appended to `problems`.
+/// Problems of the settings sheet are appended to `problems` (without row numbers; see
+/// [`settle_sheet_settings`]).
 pub fn settle_settings(
     inventory_rows: &[(String, String)],
     problems: &mut Vec<Problem>,
     opts: &RunOptions,
 ) -> Result<Settings, PipelineError> {
+    settle_sheet_settings(inventory_rows, &[], problems, opts)
+}
+
+/// [`settle_settings`] with the spreadsheet row of each settings-sheet row (`row_numbers`,
+/// same order as `inventory_rows`), which its problems carry.
+///
+/// A sheet row whose key is unknown, whose value cannot be read, or whose value is out of
+/// range ([`Settings::validate`]) is reported as a warning and ignored: the value in force
+/// before it (the built-in default, or an earlier row) stays. A bad `--settings` file or
+/// flag stops the run.
+pub fn settle_sheet_settings(
+    inventory_rows: &[(String, String)],
+    row_numbers: &[usize],
+    problems: &mut Vec<Problem>,
+    opts: &RunOptions,
+) -> Result<Settings, PipelineError> {
     let mut settings = Settings::default();
-    for (key, value) in inventory_rows {
-        if let Err(e) = settings.set_from_text(key.trim(), value) {
-            problems.push(Problem {
+    for (i, (key, value)) in inventory_rows.iter().enumerate() {
+        let mut trial = settings.clone();
+        match trial
+            .set_from_text(key.trim(), value)
+            .and_then(|()| trial.validate())
+        {
+            Ok(()) => settings = trial,
+            Err(e) => problems.push(Problem {
                 sheet: "settings".into(),
-                row: None,
+                row: row_numbers.get(i).copied(),
                 column: key.clone(),
-                message: format!("{e}; the built-in default is kept"),
+                message: format!("{e}; the row is ignored"),
                 severity: Severity::Warning,
-            });
+            }),
         }
     }
     if let Some(path) = &opts.settings_file {
@@ -139,11 +161,35 @@ pub fn sha256_hex(path: &Path) -> String {
     h.finalize().iter().map(|b| format!("{b:02x}")).collect()
 }
 
-/// Reads the inventory, settles the settings and places the buildings.
+/// Reads the inventory, settles the settings and places the buildings. The settings are
+/// settled as soon as the inventory's settings sheet is read, so the rows are checked
+/// against the plausibility limits of the effective settings ([`input::Limits`]).
 pub fn load(path: &Path, opts: &RunOptions) -> Result<Loaded, PipelineError> {
-    let mut inventory = input::read_inventory(path, &opts.read)?;
+    let mut settled: Option<Result<Settings, PipelineError>> = None;
+    let mut sheet_problems = Vec::new();
+    let read = input::read_inventory_settled(path, &opts.read, &mut |rows, row_numbers| {
+        let result = settle_sheet_settings(rows, row_numbers, &mut sheet_problems, opts);
+        let limits = result.as_ref().ok().map(input::Limits::from_settings);
+        settled = Some(result);
+        limits
+    });
+    let (mut inventory, settings) = match (read, settled) {
+        (_, Some(Err(e))) => return Err(e),
+        (Err(e), _) => return Err(e.into()),
+        (Ok(inventory), Some(Ok(settings))) => (inventory, settings),
+        // The reader always asks before reading the buildings; kept for safety.
+        (Ok(inventory), None) => {
+            let settings = settle_sheet_settings(
+                &inventory.settings_rows,
+                &inventory.settings_row_numbers,
+                &mut sheet_problems,
+                opts,
+            )?;
+            (inventory, settings)
+        }
+    };
     let mut problems = std::mem::take(&mut inventory.problems);
-    let settings = settle_settings(&inventory.settings_rows, &mut problems, opts)?;
+    problems.append(&mut sheet_problems);
     let (geo, geo_problems) = Geography::load(opts.districts.as_deref(), opts.faults.as_deref())?;
     problems.extend(geo_problems);
     let (sites, site_problems) = crate::geography::locate(&inventory.buildings, &geo, &settings);
@@ -196,5 +242,62 @@ pub fn screen(loaded: &Loaded) -> Report {
         budget_plan,
         not_screened,
         problems,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn rows(pairs: &[(&str, &str)]) -> Vec<(String, String)> {
+        pairs
+            .iter()
+            .map(|(k, v)| ((*k).to_string(), (*v).to_string()))
+            .collect()
+    }
+
+    #[test]
+    fn settings_sheet_problems_name_their_row_and_the_row_is_ignored() {
+        let sheet = rows(&[
+            ("floor_weight_kpa", "10"),
+            ("floor_weight_kpa", "0"),
+            ("nonsense", "1"),
+            ("max_storeys", "many"),
+        ]);
+        let mut problems = Vec::new();
+        let s = settle_sheet_settings(&sheet, &[3, 4, 5, 6], &mut problems, &RunOptions::default())
+            .unwrap();
+        // Row 4's 0 kPa is out of range: row 3's 10 kPa stays in force.
+        assert_eq!(s.floor_weight_kpa, 10.0);
+        assert_eq!(s.max_storeys, 60.0);
+        let at: Vec<_> = problems
+            .iter()
+            .map(|p| (p.row, p.column.as_str(), p.severity))
+            .collect();
+        assert_eq!(
+            at,
+            vec![
+                (Some(4), "floor_weight_kpa", Severity::Warning),
+                (Some(5), "nonsense", Severity::Warning),
+                (Some(6), "max_storeys", Severity::Warning)
+            ]
+        );
+    }
+
+    #[test]
+    fn the_settings_file_and_flags_win_over_the_sheet() {
+        let dir = tempfile::tempdir().unwrap();
+        let f = dir.path().join("s.toml");
+        std::fs::write(&f, "max_storeys = 65\nranking_level = \"cp\"\n").unwrap();
+        let opts = RunOptions {
+            settings_file: Some(f),
+            level: Some(Level::Io),
+            ..Default::default()
+        };
+        let sheet = rows(&[("max_storeys", "80"), ("storey_height_max_m", "7")]);
+        let s = settle_sheet_settings(&sheet, &[2, 3], &mut Vec::new(), &opts).unwrap();
+        assert_eq!(s.max_storeys, 65.0);
+        assert_eq!(s.storey_height_max_m, 7.0);
+        assert_eq!(s.ranking_level, Level::Io);
     }
 }

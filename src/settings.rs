@@ -572,6 +572,8 @@ impl Settings {
             ("new_wall_fy_mpa", self.new_wall_fy_mpa),
             ("knapsack_resolution", self.knapsack_resolution),
             ("es_mpa", self.es_mpa),
+            ("storey_height_max_m", self.storey_height_max_m),
+            ("floor_weight_max_kpa", self.floor_weight_max_kpa),
         ];
         for (key, v) in positive {
             if v <= 0.0 {
@@ -580,6 +582,24 @@ impl Settings {
                     message: format!("must be greater than 0, found {v}"),
                 });
             }
+        }
+        for (key, v) in [
+            ("storey_height_min_m", self.storey_height_min_m),
+            ("floor_weight_min_kpa", self.floor_weight_min_kpa),
+            ("wall_area_mismatch_pct", self.wall_area_mismatch_pct),
+        ] {
+            if v < 0.0 {
+                return Err(SettingsError::OutOfRange {
+                    key: key.into(),
+                    message: format!("must not be negative, found {v}"),
+                });
+            }
+        }
+        if self.max_storeys < 1.0 {
+            return Err(SettingsError::OutOfRange {
+                key: "max_storeys".into(),
+                message: format!("must be at least 1, found {}", self.max_storeys),
+            });
         }
         for (key, v) in [("agr_g", self.agr_g), ("budget", self.budget)] {
             if let Some(v) = v
@@ -647,6 +667,25 @@ mod tests {
             s.apply_toml("gamma_el = \"x\""),
             Err(SettingsError::BadValue { .. })
         ));
+    }
+
+    #[test]
+    fn plausibility_limits_that_would_refuse_or_warn_every_row_are_refused() {
+        for (key, value) in [
+            ("max_storeys", "0"),
+            ("storey_height_max_m", "0"),
+            ("floor_weight_min_kpa", "-1"),
+            ("wall_area_mismatch_pct", "-5"),
+        ] {
+            let mut s = Settings::default();
+            s.set_from_text(key, value)
+                .unwrap_or_else(|e| panic!("{e}"));
+            assert!(
+                matches!(s.validate(), Err(SettingsError::OutOfRange { key: k, .. }) if k == key),
+                "{key}"
+            );
+        }
+        assert_eq!(Settings::default().validate(), Ok(()));
     }
 
     #[test]

@@ -337,7 +337,14 @@ pub fn screen_to_files(
     progress: &dyn Fn(u64),
 ) -> Result<Streamed, StreamError> {
     let mut problems: Vec<Problem> = Vec::new();
+    // No settings sheet on this path (a CSV with sibling files is read whole).
     let settings = pipeline::settle_settings(&[], &mut problems, opts)?;
+    // The rows are checked against the limits of the effective settings, as in
+    // `pipeline::load`.
+    let read = input::ReadOptions {
+        limits: input::Limits::from_settings(&settings),
+        ..opts.read.clone()
+    };
     let (geo, geo_problems) = Geography::load(opts.districts.as_deref(), opts.faults.as_deref())
         .map_err(PipelineError::from)?;
 
@@ -345,7 +352,7 @@ pub fn screen_to_files(
     let mut duplicates: HashMap<String, Vec<usize>> = HashMap::new();
     {
         let none = HashMap::new();
-        input::read_csv_chunks(path, &opts.read, chunk_rows, &none, &mut |inv| {
+        input::read_csv_chunks(path, &read, chunk_rows, &none, &mut |inv| {
             for (id, row) in inv
                 .buildings
                 .iter()
@@ -399,7 +406,7 @@ pub fn screen_to_files(
         problems: Vec::new(),
     };
     let rest =
-        input::read_csv_chunks(path, &opts.read, chunk_rows, &duplicates, &mut |mut inv| {
+        input::read_csv_chunks(path, &read, chunk_rows, &duplicates, &mut |mut inv| {
             if failure.is_some() {
                 return;
             }

@@ -115,3 +115,207 @@ fn csv_title_line_above_a_semicolon_header_does_not_hide_the_delimiter() {
     assert_eq!(inv.buildings[0].plan_area_m2, 212.5);
     assert_eq!(inv.buildings[0].row, 4);
 }
+
+/// An inventory CSV with a sibling settings file, and the problems `load` reports.
+fn load_with_settings_csv(
+    buildings: &str,
+    settings: &str,
+    toml: Option<&str>,
+) -> seistriage::pipeline::Loaded {
+    let dir = tempfile::tempdir().unwrap();
+    let p = dir.path().join("town.csv");
+    std::fs::write(&p, buildings).unwrap();
+    std::fs::write(dir.path().join("town.settings.csv"), settings).unwrap();
+    let mut opts = seistriage::pipeline::RunOptions::default();
+    if let Some(t) = toml {
+        let f = dir.path().join("s.toml");
+        std::fs::write(&f, t).unwrap();
+        opts.settings_file = Some(f);
+    }
+    seistriage::pipeline::load(&p, &opts).unwrap()
+}
+
+/// Settings-sheet problems (unknown key, unreadable value, value out of range) carried no
+/// row, unlike every other input problem: now the sheet row a person sees (CSV: record
+/// number, header = 1; inventory.md, "Bad input").
+#[test]
+fn settings_sheet_problems_carry_their_sheet_row() {
+    let loaded = load_with_settings_csv(
+        "id,storeys,plan_area_m2,column_area_m2\nA,3,200,2\n",
+        "key,value\nagr_g,0.25\nno_such_key,1\nfloor_weight_kpa,heavy\n\ngamma_el,-1\n",
+        None,
+    );
+    let rows: Vec<_> = loaded
+        .inventory
+        .problems
+        .iter()
+        .filter(|p| p.sheet == "settings")
+        .map(|p| (p.row, p.column.as_str()))
+        .collect();
+    assert_eq!(
+        rows,
+        vec![
+            (Some(3), "no_such_key"),
+            (Some(4), "floor_weight_kpa"),
+            (Some(6), "gamma_el")
+        ],
+        "{:#?}",
+        loaded.inventory.problems
+    );
+    // The refused rows leave the built-in defaults in force; the good row applies.
+    assert_eq!(loaded.settings.agr_g, Some(0.25));
+    assert_eq!(loaded.settings.floor_weight_kpa, 12.0);
+    assert_eq!(loaded.settings.gamma_el, 1.5);
+}
+
+/// The same in a workbook whose settings sheet has a title row above its header: the row is
+/// the spreadsheet's, title and header included.
+#[test]
+fn settings_sheet_problems_in_a_workbook_carry_the_spreadsheet_row() {
+    let dir = tempfile::tempdir().unwrap();
+    let p = dir.path().join("w.xlsx");
+    let mut wb = rust_xlsxwriter::Workbook::new();
+    let ws = wb.add_worksheet();
+    ws.set_name("buildings").unwrap();
+    for (c, h) in ["id", "storeys", "plan_area_m2", "column_area_m2"]
+        .iter()
+        .enumerate()
+    {
+        ws.write_string(0, c as u16, *h).unwrap();
+    }
+    ws.write_string(1, 0, "A").unwrap();
+    ws.write_number(1, 1, 3.0).unwrap();
+    ws.write_number(1, 2, 200.0).unwrap();
+    ws.write_number(1, 3, 2.0).unwrap();
+    let ws = wb.add_worksheet();
+    ws.set_name("settings").unwrap();
+    ws.write_string(0, 0, "Invented project settings").unwrap();
+    ws.write_string(1, 0, "key").unwrap();
+    ws.write_string(1, 1, "value").unwrap();
+    ws.write_string(2, 0, "agr_g").unwrap();
+    ws.write_number(2, 1, 0.2).unwrap();
+    ws.write_string(3, 0, "spectrum").unwrap();
+    ws.write_string(3, 1, "type-9").unwrap();
+    wb.save(&p).unwrap();
+    let loaded = seistriage::pipeline::load(&p, &Default::default()).unwrap();
+    let bad: Vec<_> = loaded
+        .inventory
+        .problems
+        .iter()
+        .filter(|p| p.sheet == "settings")
+        .collect();
+    assert_eq!(bad.len(), 1, "{bad:#?}");
+    assert_eq!(bad[0].row, Some(4));
+    assert!(
+        bad[0].to_string().starts_with("warning: settings, row 4, spectrum: "),
+        "{}",
+        bad[0]
+    );
+}
+
+/// 70 storeys; storey height 6.5 m and floor weight 22 kPa (both beyond the default warning
+/// ranges of inventory.md).
+const TALL: &str = "id,storeys,storey_height_m,floor_weight_kpa,plan_area_m2,column_area_m2\n\
+                    T,70,6.5,22,900,40\nS,5,3,12,200,2\n";
+
+fn storey_and_range_problems(loaded: &seistriage::pipeline::Loaded) -> Vec<String> {
+    loaded
+        .inventory
+        .problems
+        .iter()
+        .filter(|p| {
+            p.sheet == "buildings"
+                && ["storeys", "storey_height_m", "floor_weight_kpa"].contains(&p.column.as_str())
+        })
+        .map(|p| p.column.clone())
+        .collect()
+}
+
+/// The reader's plausibility limits (max_storeys, storey_height_min/max_m,
+/// floor_weight_min/max_kpa) are settings keys, but the rows were checked against the
+/// built-in defaults: overrides in the settings sheet or the --settings file never reached
+/// them. Precedence: defaults < settings sheet < settings file (inventory.md).
+#[test]
+fn settings_overrides_of_the_plausibility_limits_reach_the_row_checks() {
+    let toml_limits = "max_storeys = 80\nstorey_height_max_m = 7\nfloor_weight_max_kpa = 25\n";
+    // Defaults: 70 storeys refused, 6.5 m and 22 kPa warned.
+    let d = load_with_settings_csv(TALL, "key,value\n", None);
+    assert_eq!(d.inventory.buildings.len(), 1);
+    assert_eq!(
+        storey_and_range_problems(&d),
+        vec!["storeys", "storey_height_m", "floor_weight_kpa"]
+    );
+    // From the settings file.
+    let f = load_with_settings_csv(TALL, "key,value\n", Some(toml_limits));
+    assert_eq!(f.inventory.buildings.len(), 2, "{:#?}", f.inventory.problems);
+    assert!(storey_and_range_problems(&f).is_empty());
+    // From the settings sheet.
+    let s = load_with_settings_csv(
+        TALL,
+        "key,value\nmax_storeys,80\nstorey_height_max_m,7\nfloor_weight_max_kpa,25\n",
+        None,
+    );
+    assert_eq!(s.inventory.buildings.len(), 2, "{:#?}", s.inventory.problems);
+    assert!(storey_and_range_problems(&s).is_empty());
+    // The file wins over the sheet.
+    let both = load_with_settings_csv(
+        TALL,
+        "key,value\nmax_storeys,80\n",
+        Some("max_storeys = 65\n"),
+    );
+    assert_eq!(both.settings.max_storeys, 65.0);
+    assert_eq!(both.inventory.buildings.len(), 1);
+    assert!(
+        both.inventory.problems.iter().any(|p| p.column == "storeys"
+            && p.message.contains("from 1 to 65")),
+        "{:#?}",
+        both.inventory.problems
+    );
+}
+
+/// `check` and the streaming path of `screen` use the same effective limits as the
+/// whole-stock path.
+#[test]
+fn settings_overrides_of_the_plausibility_limits_reach_check_and_the_streaming_path() {
+    let dir = tempfile::tempdir().unwrap();
+    std::fs::write(dir.path().join("tall.csv"), TALL).unwrap();
+    std::fs::write(
+        dir.path().join("s.toml"),
+        "agr_g = 0.2\nmax_storeys = 80\nstorey_height_max_m = 7\nfloor_weight_max_kpa = 25\n",
+    )
+    .unwrap();
+    let out = crate::common::run_in(dir.path(), &["check", "tall.csv", "--settings", "s.toml"]);
+    let text = String::from_utf8_lossy(&out.stdout);
+    assert!(out.status.success(), "{text}");
+    assert!(text.contains("2 accepted, 0 rejected"), "{text}");
+    assert!(text.contains("0 errors, 0 warnings"), "{text}");
+    let out = std::process::Command::new(crate::common::bin())
+        .current_dir(dir.path())
+        .env("SEISTRIAGE_STREAM_FROM", "1")
+        .env("SEISTRIAGE_STREAM_CHUNK", "1")
+        .args([
+            "screen",
+            "tall.csv",
+            "--settings",
+            "s.toml",
+            "--out",
+            "o.xlsx",
+            "--csv",
+            "p.csv",
+            "--quiet",
+        ])
+        .output()
+        .unwrap();
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    // The per-row files beside the workbook show that the streaming path ran.
+    assert!(dir.path().join("o.directions.csv").exists());
+    let csv = std::fs::read_to_string(dir.path().join("p.csv")).unwrap();
+    assert!(
+        csv.lines().any(|l| l.split(',').nth(1) == Some("T")),
+        "{csv}"
+    );
+}

@@ -73,7 +73,19 @@ pub enum InputError {
         /// The numbers.
         message: String,
     },
+    /// The caller of [`read_inventory_settled`] refused the settings (its own error says
+    /// why); the other sheets were not read.
+    #[error("{path}: reading stopped: the settings were refused")]
+    SettingsRefused {
+        /// Path.
+        path: String,
+    },
 }
+
+/// What [`read_inventory_settled`] asks its caller once the `settings` sheet is read (and
+/// before any other sheet is): given the sheet's (key, value) rows and their spreadsheet
+/// rows, the plausibility limits of the effective settings — or `None` to stop reading.
+pub type Settle<'a> = dyn FnMut(&[(String, String)], &[usize]) -> Option<Limits> + 'a;
 
 const ZIP_MAGIC: [u8; 4] = [0x50, 0x4B, 0x03, 0x04];
 const CFB_MAGIC: [u8; 8] = [0xD0, 0xCF, 0x11, 0xE0, 0xA1, 0xB1, 0x1A, 0xE1];
@@ -121,6 +133,7 @@ impl SheetRun<'_> {
                 let key = header::normalise(&key);
                 if !key.is_empty() {
                     c.settings_rows.push((key, value.trim().to_string()));
+                    c.settings_row_numbers.push(row.row);
                 }
             }
         }
@@ -182,12 +195,27 @@ fn run_sheet(
     Ok(())
 }
 
-/// Reads an inventory file (workbook or CSV) into typed records and problems.
+/// Reads an inventory file (workbook or CSV) into typed records and problems, checking the
+/// rows against `opts.limits` whatever the file's `settings` sheet says (see
+/// [`read_inventory_settled`] for limits that follow the effective settings).
 ///
 /// The kind is decided by the file's content (zip → .xlsx/.ods, compound file → .xls or an
 /// encrypted workbook), else a `.csv`/`.txt`/`.tsv` extension means CSV; anything else is
 /// refused as not a spreadsheet.
 pub fn read_inventory(path: &Path, opts: &ReadOptions) -> Result<Inventory, InputError> {
+    let limits = opts.limits;
+    read_inventory_settled(path, opts, &mut |_, _| Some(limits))
+}
+
+/// [`read_inventory`] with the rows checked against the limits of the effective settings:
+/// the `settings` sheet (or `<stem>.settings.csv`) is read first and handed to `settle`,
+/// whose limits (in place of `opts.limits`) then apply to every other sheet. `settle`
+/// returning `None` stops the read with [`InputError::SettingsRefused`].
+pub fn read_inventory_settled(
+    path: &Path,
+    opts: &ReadOptions,
+    settle: &mut Settle<'_>,
+) -> Result<Inventory, InputError> {
     let p = path.display().to_string();
     let meta = std::fs::metadata(path).map_err(|e| unreadable(&p, e))?;
     if meta.is_dir() {
@@ -248,12 +276,12 @@ pub fn read_inventory(path: &Path, opts: &ReadOptions) -> Result<Inventory, Inpu
         max: opts.budget.max_cells,
         path: p.clone(),
     };
-    match kind {
+    let limits = match kind {
         Some(kind) => guarded_read(&p, || {
-            read_workbook(path, kind, opts, &collected, &mut counter)
+            read_workbook(path, kind, opts, settle, &collected, &mut counter)
         })?,
         None if matches!(ext.as_str(), "csv" | "txt" | "tsv") => {
-            read_csv_files(path, opts, &collected, &mut counter)?
+            read_csv_files(path, opts, settle, &collected, &mut counter)?
         }
         None => {
             return Err(unreadable(
@@ -261,9 +289,34 @@ pub fn read_inventory(path: &Path, opts: &ReadOptions) -> Result<Inventory, Inpu
                 "not a spreadsheet (expected .xlsx, .xlsm, .xls, .ods or .csv content)",
             ));
         }
-    }
-    let wall_pct = opts.limits.wall_area_mismatch_pct;
-    Ok(validate::finish(collected.into_inner(), wall_pct))
+    };
+    Ok(validate::finish(
+        collected.into_inner(),
+        limits.wall_area_mismatch_pct,
+    ))
+}
+
+/// After the settings sheet (if any) is read: asks `settle` for the limits and moves that
+/// sheet's own sheet-level problems aside (they are put back after the other sheets', the
+/// order of the file's sheets). Returns the options for the other sheets.
+fn settled_options(
+    path: &str,
+    opts: &ReadOptions,
+    settle: &mut Settle<'_>,
+    collected: &RefCell<Collected>,
+    settings_sheet_problems: &mut Vec<Problem>,
+) -> Result<ReadOptions, InputError> {
+    let mut c = collected.borrow_mut();
+    *settings_sheet_problems = std::mem::take(&mut c.sheet_problems);
+    let limits = settle(&c.settings_rows, &c.settings_row_numbers).ok_or_else(|| {
+        InputError::SettingsRefused {
+            path: path.to_string(),
+        }
+    })?;
+    Ok(ReadOptions {
+        limits,
+        ..opts.clone()
+    })
 }
 
 /// Runs a workbook read inside the panic guard (calamine can panic on malformed files).
@@ -303,13 +356,15 @@ fn check_xls_extent(path: &Path, budget: &Budget) -> Result<(), InputError> {
     Ok(())
 }
 
+/// Reads every sheet of a workbook, the settings sheet first; returns the limits used.
 fn read_workbook(
     path: &Path,
     kind: WorkbookKind,
     opts: &ReadOptions,
+    settle: &mut Settle<'_>,
     collected: &RefCell<Collected>,
     counter: &mut CellCounter,
-) -> Result<(), InputError> {
+) -> Result<Limits, InputError> {
     let p = path.display().to_string();
     let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
     let mut wb = match Workbook::open(std::io::BufReader::new(f), kind, &p) {
@@ -355,12 +410,29 @@ fn read_workbook(
         }
     };
     let budget = opts.budget;
-    let sheets: [(&'static SheetSpec, Option<String>); 5] = [
+    // The settings sheet first: its rows settle the limits the other sheets are read with.
+    // The "buildings" problem above (if any) is kept in front.
+    let first_problems = std::mem::take(&mut collected.borrow_mut().sheet_problems);
+    if let Some(name) = find(&SETTINGS).filter(|n| *n != buildings) {
+        run_sheet(
+            &SETTINGS,
+            &name,
+            None,
+            false,
+            opts,
+            &p,
+            collected,
+            |sink| wb.read_sheet(&name, &p, &budget, counter, sink),
+        )?;
+    }
+    let mut settings_problems = Vec::new();
+    let opts = &settled_options(&p, opts, settle, collected, &mut settings_problems)?;
+    collected.borrow_mut().sheet_problems = first_problems;
+    let sheets: [(&'static SheetSpec, Option<String>); 4] = [
         (&BUILDINGS, Some(buildings.clone())),
         (&WALLS, find(&WALLS).filter(|n| *n != buildings)),
         (&STOREYS, find(&STOREYS).filter(|n| *n != buildings)),
         (&FOOTPRINTS, find(&FOOTPRINTS).filter(|n| *n != buildings)),
-        (&SETTINGS, find(&SETTINGS).filter(|n| *n != buildings)),
     ];
     for (spec, name) in sheets {
         let Some(name) = name else { continue };
@@ -380,64 +452,97 @@ fn read_workbook(
             |sink| wb.read_sheet(&name, &p, &budget, counter, sink),
         )?;
     }
-    Ok(())
+    collected
+        .borrow_mut()
+        .sheet_problems
+        .extend(settings_problems);
+    Ok(opts.limits)
 }
 
+/// Reads a CSV inventory and its sibling files, the settings file first; returns the
+/// limits used.
 fn read_csv_files(
     path: &Path,
     opts: &ReadOptions,
+    settle: &mut Settle<'_>,
     collected: &RefCell<Collected>,
     counter: &mut CellCounter,
-) -> Result<(), InputError> {
+) -> Result<Limits, InputError> {
     let stem = path
         .file_stem()
         .map(|s| s.to_string_lossy().into_owned())
         .unwrap_or_default();
     let dir = path.parent().unwrap_or(Path::new("."));
+    let sibling = |spec: &SheetSpec| {
+        let file = dir.join(format!("{stem}.{}.csv", spec.name));
+        file.is_file().then_some(file)
+    };
+    // The settings file first: its rows settle the limits the other files are read with.
+    if let Some(file) = sibling(&SETTINGS) {
+        read_one_csv(&SETTINGS, &file, opts, collected, counter)?;
+    }
+    let mut settings_problems = Vec::new();
+    let p = path.display().to_string();
+    let opts = &settled_options(&p, opts, settle, collected, &mut settings_problems)?;
     let mut files: Vec<(&'static SheetSpec, std::path::PathBuf)> =
         vec![(&BUILDINGS, path.to_path_buf())];
-    for spec in [&WALLS, &STOREYS, &FOOTPRINTS, &SETTINGS] {
-        let sibling = dir.join(format!("{stem}.{}.csv", spec.name));
-        if sibling.is_file() {
-            files.push((spec, sibling));
+    for spec in [&WALLS, &STOREYS, &FOOTPRINTS] {
+        if let Some(file) = sibling(spec) {
+            files.push((spec, file));
         }
     }
     for (spec, file) in files {
-        let fp = file.display().to_string();
-        let mut info = None;
-        // The delimiter is known only once the file is sniffed; numbers are parsed after.
-        let bytes_info = csv_info(&file, &opts.budget)?;
-        let header_row = if spec.name == "buildings" {
-            opts.header_row
-        } else {
-            None
-        };
-        run_sheet(
-            spec,
-            spec.name,
-            header_row,
-            bytes_info,
-            opts,
-            &fp,
-            collected,
-            |sink| {
-                info = Some(csv::read_csv(&file, &opts.budget, counter, sink)?);
-                Ok(())
-            },
-        )?;
-        if let Some(i) = info
-            && i.windows_1252
-        {
-            collected.borrow_mut().sheet_problems.push(Problem {
-                sheet: spec.name.into(),
-                row: None,
-                column: String::new(),
-                message: format!(
-                    "expected UTF-8 text in {fp}, found other bytes; read as Windows-1252 (save as CSV UTF-8 to be sure of accents)"
-                ),
-                severity: Severity::Warning,
-            });
-        }
+        read_one_csv(spec, &file, opts, collected, counter)?;
+    }
+    collected
+        .borrow_mut()
+        .sheet_problems
+        .extend(settings_problems);
+    Ok(opts.limits)
+}
+
+/// Reads one CSV file of an inventory (the buildings file or a sibling).
+fn read_one_csv(
+    spec: &'static SheetSpec,
+    file: &Path,
+    opts: &ReadOptions,
+    collected: &RefCell<Collected>,
+    counter: &mut CellCounter,
+) -> Result<(), InputError> {
+    let fp = file.display().to_string();
+    let mut info = None;
+    // The delimiter is known only once the file is sniffed; numbers are parsed after.
+    let bytes_info = csv_info(file, &opts.budget)?;
+    let header_row = if spec.name == "buildings" {
+        opts.header_row
+    } else {
+        None
+    };
+    run_sheet(
+        spec,
+        spec.name,
+        header_row,
+        bytes_info,
+        opts,
+        &fp,
+        collected,
+        |sink| {
+            info = Some(csv::read_csv(file, &opts.budget, counter, sink)?);
+            Ok(())
+        },
+    )?;
+    if let Some(i) = info
+        && i.windows_1252
+    {
+        collected.borrow_mut().sheet_problems.push(Problem {
+            sheet: spec.name.into(),
+            row: None,
+            column: String::new(),
+            message: format!(
+                "expected UTF-8 text in {fp}, found other bytes; read as Windows-1252 (save as CSV UTF-8 to be sure of accents)"
+            ),
+            severity: Severity::Warning,
+        });
     }
     Ok(())
 }
@@ -583,3 +688,56 @@ and 'PLAN_AREA_M2' all match plan_area_m2. Extra accepted names: building_id for
 occupancy for use; construction_year, year_of_construction for year_built; lat for latitude; \
 lon, lng, long for longitude; stories, floors, number_of_storeys for storeys; building for \
 building_id (walls, storeys, footprints); story, floor for storey; setting, name for key.";
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn csv_with_settings(settings: &str) -> (tempfile::TempDir, std::path::PathBuf) {
+        let dir = tempfile::tempdir().unwrap();
+        let p = dir.path().join("town.csv");
+        std::fs::write(
+            &p,
+            "id,storeys,plan_area_m2,column_area_m2\nA,61,200,2\nB,3,200,2\n",
+        )
+        .unwrap();
+        std::fs::write(dir.path().join("town.settings.csv"), settings).unwrap();
+        (dir, p)
+    }
+
+    #[test]
+    fn settle_sees_the_settings_rows_and_its_limits_check_the_buildings() {
+        let (_dir, p) = csv_with_settings("key,value\nmax_storeys,61\nagr_g,0.2\n");
+        let mut seen = Vec::new();
+        let inv = read_inventory_settled(&p, &ReadOptions::default(), &mut |rows, numbers| {
+            seen = rows
+                .iter()
+                .zip(numbers)
+                .map(|((k, v), n)| (k.clone(), v.clone(), *n))
+                .collect();
+            let mut limits = Limits::default();
+            limits.max_storeys = 61.0;
+            Some(limits)
+        })
+        .unwrap();
+        assert_eq!(
+            seen,
+            vec![
+                ("max_storeys".to_string(), "61".to_string(), 2),
+                ("agr_g".to_string(), "0.2".to_string(), 3)
+            ]
+        );
+        assert_eq!(inv.buildings.len(), 2, "{:#?}", inv.problems);
+        assert_eq!(inv.settings_row_numbers, vec![2, 3]);
+        // Without settle, the options' limits apply whatever the sheet says.
+        let inv = read_inventory(&p, &ReadOptions::default()).unwrap();
+        assert_eq!(inv.buildings.len(), 1);
+    }
+
+    #[test]
+    fn settle_refusing_stops_the_read() {
+        let (_dir, p) = csv_with_settings("key,value\n");
+        let e = read_inventory_settled(&p, &ReadOptions::default(), &mut |_, _| None);
+        assert!(matches!(e, Err(InputError::SettingsRefused { .. })), "{e:?}");
+    }
+}

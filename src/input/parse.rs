@@ -31,9 +31,13 @@ pub struct Limits {
     pub wall_area_mismatch_pct: f64,
 }
 
-impl Default for Limits {
-    fn default() -> Self {
-        let s = crate::settings::Settings::default();
+impl Limits {
+    /// The limits of effective settings: the settings keys `max_storeys`,
+    /// `storey_height_min_m`/`_max_m`, `floor_weight_min_kpa`/`_max_kpa` and
+    /// `wall_area_mismatch_pct`. The fc, fy and year ranges are not settings keys: they
+    /// catch unit and typing mistakes (inventory.md, "Bad input": fc 5–120 MPa, fy 150–700
+    /// MPa) and stay fixed.
+    pub fn from_settings(s: &crate::settings::Settings) -> Self {
         Self {
             max_storeys: s.max_storeys,
             storey_height_m: (s.storey_height_min_m, s.storey_height_max_m),
@@ -43,6 +47,13 @@ impl Default for Limits {
             year: (1000, 2200),
             wall_area_mismatch_pct: s.wall_area_mismatch_pct,
         }
+    }
+}
+
+impl Default for Limits {
+    /// The limits of the built-in default settings.
+    fn default() -> Self {
+        Self::from_settings(&crate::settings::Settings::default())
     }
 }
 
@@ -736,6 +747,57 @@ mod tests {
         assert_eq!(p.whole("building_id", false), Some(3));
         assert_eq!(p.whole("storey", false), None);
         assert!(p.has_errors());
+    }
+
+    /// A buildings row with the given (canonical column, number) cells.
+    fn buildings_row(values: &[(&str, f64)]) -> DataRow {
+        let mut cells = vec![RawCell::Empty; BUILDINGS.columns.len()];
+        for (name, v) in values {
+            let i = BUILDINGS
+                .columns
+                .iter()
+                .position(|c| c.name == *name)
+                .unwrap_or_else(|| panic!("{name}"));
+            cells[i] = RawCell::Number(*v);
+        }
+        cells[0] = RawCell::Text("T".into());
+        DataRow { row: 7, cells }
+    }
+
+    #[test]
+    fn limits_follow_the_settings_they_are_made_from() {
+        let row = buildings_row(&[
+            ("storeys", 70.0),
+            ("storey_height_m", 6.5),
+            ("floor_weight_kpa", 22.0),
+            ("plan_area_m2", 900.0),
+            ("column_area_m2", 40.0),
+        ]);
+        // Built-in limits (inventory.md): above 60 storeys refused, 6.5 m and 22 kPa warned.
+        let (_, problems) = building(&row, false, &Limits::default());
+        let cols: Vec<_> = problems
+            .iter()
+            .map(|p| (p.column.as_str(), p.severity))
+            .collect();
+        assert_eq!(
+            cols,
+            vec![
+                ("storeys", Severity::Error),
+                ("storey_height_m", Severity::Warning),
+                ("floor_weight_kpa", Severity::Warning)
+            ]
+        );
+        let mut s = crate::settings::Settings::default();
+        s.max_storeys = 70.0;
+        s.storey_height_max_m = 6.5;
+        s.floor_weight_max_kpa = 22.0;
+        let limits = Limits::from_settings(&s);
+        let (b, problems) = building(&row, false, &limits);
+        assert!(problems.is_empty(), "{problems:#?}");
+        assert_eq!(b.storeys, 70);
+        // The unit-mistake ranges are not settings keys.
+        assert_eq!(limits.fc_mpa, Limits::default().fc_mpa);
+        assert_eq!(limits.fy_mpa, Limits::default().fy_mpa);
     }
 
     #[test]

@@ -32,6 +32,8 @@ pub struct Collected {
     pub sheet_problems: Vec<Problem>,
     /// Settings rows.
     pub settings_rows: Vec<(String, String)>,
+    /// The spreadsheet row of each settings row.
+    pub settings_row_numbers: Vec<usize>,
     /// Blank rows of the buildings sheet.
     pub blank_rows: usize,
 }
@@ -126,6 +128,7 @@ pub fn finish_with_ids(
 ) -> Inventory {
     let mut inv = Inventory {
         settings_rows: std::mem::take(&mut c.settings_rows),
+        settings_row_numbers: std::mem::take(&mut c.settings_row_numbers),
         blank_rows: c.blank_rows,
         rows: c.buildings.len(),
         ..Default::default()
