@@ -319,3 +319,46 @@ fn settings_overrides_of_the_plausibility_limits_reach_check_and_the_streaming_p
         "{csv}"
     );
 }
+
+/// A district ring that crosses the antimeridian without being cut (RFC 7946 §3.1.9 says
+/// SHOULD cut; producers do not always) jumps from 179° to −179° and, read as plane
+/// coordinates, covered every longitude except its own 2°. Now the ring is made continuous
+/// and a building is found in it on either side of ±180°; a district cut into a
+/// MultiPolygon at ±180° covers both sides too, and the R-tree lookup keeps file order.
+#[test]
+fn district_ring_crossing_the_antimeridian_unsplit_covers_its_own_side() {
+    use seistriage::geography::{Geography, LatLon};
+    let unsplit = r#"{"type":"Feature","properties":{"name":"Dateline"},"geometry":
+        {"type":"Polygon","coordinates":[[[179,-41],[-179,-41],[-179,-40],[179,-40],[179,-41]]]}}"#;
+    let cut = r#"{"type":"Feature","properties":{"name":"Cut"},"geometry":
+        {"type":"MultiPolygon","coordinates":[
+          [[[170,-31],[180,-31],[180,-30],[170,-30],[170,-31]]],
+          [[[-180,-31],[-170,-31],[-170,-30],[-180,-30],[-180,-31]]]]}}"#;
+    let plain = r#"{"type":"Feature","properties":{"name":"Plain"},"geometry":
+        {"type":"Polygon","coordinates":[[[-10,-41],[10,-41],[10,-40],[-10,-40],[-10,-41]]]}}"#;
+    // A later district overlapping Dateline east of 180°: Dateline comes first in the file.
+    let later = r#"{"type":"Feature","properties":{"name":"Later"},"geometry":
+        {"type":"Polygon","coordinates":[[[-179.6,-41],[-170,-41],[-170,-40],[-179.6,-40],[-179.6,-41]]]}}"#;
+    let text = format!(
+        r#"{{"type":"FeatureCollection","features":[{unsplit},{cut},{plain},{later}]}}"#
+    );
+    let (g, problems) = Geography::from_geojson_str(Some(&text), None).unwrap();
+    assert!(problems.is_empty(), "{problems:?}");
+    let name = |lat: f64, lon: f64| g.district_at(LatLon::new(lat, lon)).map(|d| d.name.clone());
+    let some = |s: &str| Some(s.to_string());
+    // Either side of ±180°, and on the antimeridian itself.
+    assert_eq!(name(-40.5, 179.5), some("Dateline"));
+    assert_eq!(name(-40.5, -179.5), some("Dateline"));
+    assert_eq!(name(-40.5, 180.0), some("Dateline"));
+    assert_eq!(name(-40.5, -180.0), some("Dateline"));
+    // Not the long way round: the prime meridian belongs to Plain, 178° E to nobody.
+    assert_eq!(name(-40.5, 0.0), some("Plain"));
+    assert_eq!(name(-40.5, 178.0), None);
+    assert_eq!(name(-40.5, -178.0), some("Later"));
+    // The cut MultiPolygon covers both parts and the cut line.
+    assert_eq!(name(-30.5, 175.0), some("Cut"));
+    assert_eq!(name(-30.5, -175.0), some("Cut"));
+    assert_eq!(name(-30.5, 180.0), some("Cut"));
+    assert_eq!(name(-30.5, -180.0), some("Cut"));
+    assert_eq!(name(-30.5, 0.0), None);
+}

@@ -36,7 +36,9 @@ pub struct District {
     /// Property `name`.
     pub name: String,
     /// Shape in longitude (x) / latitude (y) degrees. Edges are straight lines in those
-    /// coordinates, as RFC 7946 §3.1.1 prescribes for GeoJSON.
+    /// coordinates, as RFC 7946 §3.1.1 prescribes for GeoJSON. A polygon that crosses the
+    /// antimeridian without being cut has 360° added to its negative longitudes (so x may
+    /// reach 360; [`super::antimeridian`]).
     pub shape: MultiPolygon<f64>,
     /// Hazard properties.
     pub hazard: DistrictHazard,
@@ -221,7 +223,9 @@ fn polygon(rings: &[Vec<Position>], label: &str) -> Result<Polygon<f64>, String>
         .enumerate()
         .map(|(i, h)| ring(h, &format!("{label}hole {}", i + 1)))
         .collect::<Result<Vec<_>, _>>()?;
-    Ok(Polygon::new(exterior, interiors))
+    // An unsplit ring across ±180° is made continuous (RFC 7946 §3.1.9; [`super::antimeridian`]).
+    super::antimeridian::unwrap_polygon(&Polygon::new(exterior, interiors))
+        .map_err(|m| format!("{label}{m}"))
 }
 
 fn polyline(positions: &[Position], label: &str) -> Result<Vec<LatLon>, String> {

@@ -9,6 +9,9 @@ district hazard overrides and its distance to the nearest fault trace (inventory
   "covers" predicate for a point.) Candidates come from an R-tree of polygon bounding boxes,
   so a lookup costs O(log n) plus the few polygons whose box holds the point. Polygon edges
   are straight lines in longitude/latitude, as GeoJSON prescribes (RFC 7946 §3.1.1).
+  Districts across the antimeridian: cut into a MultiPolygon at ±180° (RFC 7946 §3.1.9) they
+  need nothing more; an unsplit ring is shifted to continuous longitudes up to 360°
+  ([`antimeridian`]) and a point is then also tested at its longitude + 360°.
 - Hazard: the district whose `name` equals the building's district (given or assigned)
   lends its `agr_g`, `ground_type`, `sds_g`, `sd1_g`; the engine applies them where the row
   gives none. Names are compared trimmed; an exact match wins, else a case-insensitive one.
@@ -22,6 +25,7 @@ district hazard overrides and its distance to the nearest fault trace (inventory
   reported and still screened.
 */
 
+pub mod antimeridian;
 pub mod features;
 pub mod sphere;
 
@@ -127,6 +131,9 @@ pub struct Geography {
     traces: Vec<IndexedTrace>,
     pieces: Vec<Piece>,
     piece_boxes: RTree<BoxEntry>,
+    /// Some district has longitudes beyond 180° (shifted across the antimeridian), so points
+    /// are also tested at longitude + 360°.
+    wraps: bool,
     /// A districts file was given (even if none of its features was usable).
     districts_given: bool,
     /// A faults file was given.
@@ -263,6 +270,23 @@ impl Geography {
     /// Builds and indexes a geography from checked districts and traces (as if both files
     /// had been given).
     pub fn new(districts: Vec<District>, traces: Vec<FaultTrace>) -> Geography {
+        // Districts made by hand (not read by `features`) get the same antimeridian
+        // normalisation; a polygon that cannot be normalised is kept as given.
+        let districts: Vec<District> = districts
+            .into_iter()
+            .map(|mut d| {
+                for p in &mut d.shape.0 {
+                    if let Ok(q) = antimeridian::unwrap_polygon(p) {
+                        *p = q;
+                    }
+                }
+                d
+            })
+            .collect();
+        let wraps = districts
+            .iter()
+            .filter_map(|d| d.shape.bounding_rect())
+            .any(|r| r.max().x > 180.0);
         let boxes = districts
             .iter()
             .enumerate()
@@ -311,6 +335,7 @@ impl Geography {
             traces,
             pieces,
             piece_boxes: RTree::bulk_load(piece_boxes),
+            wraps,
             districts_given: true,
             faults_given: true,
         }
@@ -327,18 +352,30 @@ impl Geography {
     }
 
     /// The first district in file order whose polygon covers the point (edges and vertices
-    /// included; a point in a hole is outside).
+    /// included; a point in a hole is outside). When a district was shifted across the
+    /// antimeridian ([`antimeridian`]), the point is also tested at longitude + 360°.
     pub fn district_at(&self, p: LatLon) -> Option<&District> {
-        let point = Point::new(p.lon, p.lat);
-        self.district_boxes
-            .locate_all_at_point(&[p.lon, p.lat])
-            .map(|entry| entry.data)
-            .filter(|&i| {
-                self.districts
-                    .get(i)
-                    // Intersects, not Contains: a point on an edge or vertex is covered.
-                    .is_some_and(|d| d.shape.intersects(&point))
-            })
+        let first_at = |lon: f64| {
+            let point = Point::new(lon, p.lat);
+            self.district_boxes
+                .locate_all_at_point(&[lon, p.lat])
+                .map(|entry| entry.data)
+                .filter(|&i| {
+                    self.districts
+                        .get(i)
+                        // Intersects, not Contains: a point on an edge or vertex is covered.
+                        .is_some_and(|d| d.shape.intersects(&point))
+                })
+                .min()
+        };
+        let here = first_at(p.lon);
+        let shifted = if self.wraps {
+            first_at(p.lon + 360.0)
+        } else {
+            None
+        };
+        here.into_iter()
+            .chain(shifted)
             .min()
             .and_then(|i| self.districts.get(i))
     }
