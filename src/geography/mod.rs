@@ -683,6 +683,67 @@ mod tests {
         )
     }
 
+    /// A trace across the antimeridian through the R-tree search (round 1 within the
+    /// near-fault limit, round 2 beyond it). Hand-computed with the Haversine formula
+    /// (Sinnott 1984) on the meridian through the point (Δλ = 0, d = R·Δφ, R = 6 371 008.8
+    /// m): 0.05° → 5 559.754 m, 0.3° → 33 358.524 m; 0.5° to the end point → 55 597.540 m.
+    /// Tolerance 1 mm (literals rounded to the millimetre).
+    #[test]
+    fn a_trace_across_the_antimeridian_is_measured_the_short_way() {
+        let faults = r#"{"type":"FeatureCollection","features":[
+            {"type":"Feature","properties":{"name":"Dateline"},"geometry":{"type":"LineString","coordinates":[[179.5,0],[-179.5,0]]}}]}"#;
+        let (g, p) = Geography::from_geojson_str(None, Some(faults)).unwrap();
+        assert!(p.is_empty(), "{p:?}");
+        let s = Settings::default();
+        // Within near_fault_km (10 km): nearest and trigger.
+        let (fault, near) = g.faults_near(LatLon::new(0.05, -179.9), &s);
+        let fault = fault.unwrap();
+        assert!((fault.distance_m - 5_559.754).abs() < 1e-3, "{fault:?}");
+        assert_eq!(near.unwrap().name, "Dateline");
+        // Beyond it: nearest only.
+        for (p, expected) in [
+            (LatLon::new(0.3, 180.0), 33_358.524),
+            (LatLon::new(-0.3, -180.0), 33_358.524),
+            (LatLon::new(0.3, 179.9), 33_358.524),
+            (LatLon::new(0.0, 179.0), 55_597.540),
+            (LatLon::new(0.0, -179.0), 55_597.540),
+        ] {
+            let (fault, near) = g.faults_near(p, &s);
+            let d = fault.unwrap().distance_m;
+            assert!((d - expected).abs() < 1e-3, "{p:?}: {d}");
+            assert!(near.is_none());
+        }
+        // On the far side of the globe the trace is half a turn away, not 0.
+        let (fault, _) = g.faults_near(LatLon::new(0.0, 0.0), &s);
+        let d = fault.unwrap().distance_m;
+        assert!((d - 179.5 * MEAN_EARTH_RADIUS_M.to_radians()).abs() < 1e-3, "{d}");
+    }
+
+    /// A district built by hand (not read from GeoJSON) across the antimeridian is
+    /// normalised by [`Geography::new`] too, and found through the R-tree.
+    #[test]
+    fn a_hand_made_district_across_the_antimeridian_is_found() {
+        use geo::{LineString, MultiPolygon, Polygon};
+        let ring: LineString<f64> = vec![
+            (178.0, 10.0),
+            (-178.0, 10.0),
+            (-178.0, 12.0),
+            (178.0, 12.0),
+            (178.0, 10.0),
+        ]
+        .into();
+        let d = District {
+            feature: 1,
+            name: "Hand".into(),
+            shape: MultiPolygon::new(vec![Polygon::new(ring, vec![])]),
+            hazard: DistrictHazard::default(),
+        };
+        let g = Geography::new(vec![d], vec![]);
+        assert_eq!(g.district_at(LatLon::new(11.0, -179.0)).unwrap().name, "Hand");
+        assert_eq!(g.district_at(LatLon::new(11.0, 179.0)).unwrap().name, "Hand");
+        assert!(g.district_at(LatLon::new(11.0, 0.0)).is_none());
+    }
+
     #[test]
     fn shared_border_goes_to_the_first_district_in_file_order() {
         let text = format!(

@@ -312,6 +312,50 @@ mod tests {
         );
     }
 
+    /// Segments across the antimeridian are the short (minor) arc through ±180°, never the
+    /// long way round. Hand-computed values: abreast of an equatorial segment the closest
+    /// point is on the point's own meridian, so the Haversine formula (Sinnott 1984) has
+    /// Δλ = 0 and reduces to d = R·Δφ: 0.3° → 6 371 008.8 × 0.3 × π/180 = 33 358.524 m;
+    /// past the segment's end d = R·0.5° = 55 597.540 m to the end point; abreast of a
+    /// meridian segment sin d = cos φ · sin Δλ (right spherical triangle, Napier's rules),
+    /// φ = 0.5°, Δλ = 0.2° → 22 238.169 m. Tolerance 1 mm: the vector arithmetic is exact
+    /// to about 1e-12 relative; the literals are rounded to the millimetre.
+    #[test]
+    fn segments_across_the_antimeridian_take_the_short_way() {
+        let (a, b) = (LatLon::new(0.0, 179.5), LatLon::new(0.0, -179.5));
+        for (p, expected) in [
+            (LatLon::new(0.3, 180.0), 33_358.524),
+            (LatLon::new(0.3, -180.0), 33_358.524),
+            (LatLon::new(-0.3, -179.8), 33_358.524),
+            (LatLon::new(0.3, 179.8), 33_358.524),
+            // Beyond the western end: the long way round would pass through this point.
+            (LatLon::new(0.0, 179.0), 55_597.540),
+            (LatLon::new(0.0, -179.0), 55_597.540),
+        ] {
+            for (x, y) in [(a, b), (b, a)] {
+                let d = point_segment_distance_m(p, x, y, R);
+                assert!((d - expected).abs() < 1e-3, "{p:?}: {d}");
+            }
+        }
+        let c = closest_point_on_segment(LatLon::new(0.3, -179.8), a, b);
+        assert!(c.lat.abs() < 1e-12 && (c.lon + 179.8).abs() < 1e-9, "{c:?}");
+        // The meridian ±180° written with both signs is one meridian, not 360° of longitude.
+        let d = point_segment_distance_m(
+            LatLon::new(0.5, -179.8),
+            LatLon::new(-1.0, -180.0),
+            LatLon::new(1.0, 180.0),
+            R,
+        );
+        assert!((d - 22_238.169).abs() < 1e-3, "{d}");
+        // The polyline form, and the Haversine of two points either side of ±180°:
+        // Δλ = 0.2° on the equator → R·0.2° = 22 239.016 m (not 359.8°).
+        let line = [a, b];
+        let d = point_polyline_distance_m(LatLon::new(0.3, 180.0), &line, R);
+        assert!((d - 33_358.524).abs() < 1e-3, "{d}");
+        let d = haversine_m(LatLon::new(0.0, 179.9), LatLon::new(0.0, -179.9), R);
+        assert!((d - 22_239.016).abs() < 1e-3, "{d}");
+    }
+
     #[test]
     fn arc_latitude_range_includes_the_poleward_bulge() {
         let (a, b) = (
