@@ -405,42 +405,41 @@ pub fn screen_to_files(
         not_screened: Vec::new(),
         problems: Vec::new(),
     };
-    let rest =
-        input::read_csv_chunks(path, &read, chunk_rows, &duplicates, &mut |mut inv| {
-            if failure.is_some() {
+    let rest = input::read_csv_chunks(path, &read, chunk_rows, &duplicates, &mut |mut inv| {
+        if failure.is_some() {
+            return;
+        }
+        rows_done += inv.rows as u64;
+        let (sites, sp) = geography::locate(&inv.buildings, &geo, &settings);
+        site_problems.extend(sp);
+        row_problems.append(&mut inv.problems);
+        not_screened.append(&mut inv.not_screened);
+        let inputs = engine::building_inputs(&inv, &sites);
+        let screening = engine::screen_all(&inputs, &settings);
+        let mut chunk = screening.buildings;
+        retrofit::size_all(&mut chunk, &inputs, &settings);
+        not_screened.extend(screening.not_screened);
+        // File order for the per-row files (ranks come at the end).
+        chunk.sort_by_key(|b| b.row);
+        part.buildings = chunk;
+        for f in &mut files {
+            if let Err(e) =
+                crate::report::csv::write_rows(&part, f.table, usize::MAX, true, &mut f.w)
+            {
+                failure = Some(write_err(&f.path)(e));
                 return;
             }
-            rows_done += inv.rows as u64;
-            let (sites, sp) = geography::locate(&inv.buildings, &geo, &settings);
-            site_problems.extend(sp);
-            row_problems.append(&mut inv.problems);
-            not_screened.append(&mut inv.not_screened);
-            let inputs = engine::building_inputs(&inv, &sites);
-            let screening = engine::screen_all(&inputs, &settings);
-            let mut chunk = screening.buildings;
-            retrofit::size_all(&mut chunk, &inputs, &settings);
-            not_screened.extend(screening.not_screened);
-            // File order for the per-row files (ranks come at the end).
-            chunk.sort_by_key(|b| b.row);
-            part.buildings = chunk;
-            for f in &mut files {
-                if let Err(e) =
-                    crate::report::csv::write_rows(&part, f.table, usize::MAX, true, &mut f.w)
-                {
-                    failure = Some(write_err(&f.path)(e));
-                    return;
-                }
-            }
-            counts.directions += 2 * part.buildings.len();
-            counts.walls += part.buildings.iter().map(|b| b.walls.len()).sum::<usize>();
-            counts.flags += part.buildings.iter().map(|b| b.flags.len()).sum::<usize>();
-            kept.extend(
-                std::mem::take(&mut part.buildings)
-                    .into_iter()
-                    .map(Compact::of),
-            );
-            progress(rows_done);
-        })?;
+        }
+        counts.directions += 2 * part.buildings.len();
+        counts.walls += part.buildings.iter().map(|b| b.walls.len()).sum::<usize>();
+        counts.flags += part.buildings.iter().map(|b| b.flags.len()).sum::<usize>();
+        kept.extend(
+            std::mem::take(&mut part.buildings)
+                .into_iter()
+                .map(Compact::of),
+        );
+        progress(rows_done);
+    })?;
     if let Some(e) = failure {
         return Err(e);
     }

@@ -207,7 +207,9 @@ fn settings_sheet_problems_in_a_workbook_carry_the_spreadsheet_row() {
     assert_eq!(bad.len(), 1, "{bad:#?}");
     assert_eq!(bad[0].row, Some(4));
     assert!(
-        bad[0].to_string().starts_with("warning: settings, row 4, spectrum: "),
+        bad[0]
+            .to_string()
+            .starts_with("warning: settings, row 4, spectrum: "),
         "{}",
         bad[0]
     );
@@ -247,7 +249,12 @@ fn settings_overrides_of_the_plausibility_limits_reach_the_row_checks() {
     );
     // From the settings file.
     let f = load_with_settings_csv(TALL, "key,value\n", Some(toml_limits));
-    assert_eq!(f.inventory.buildings.len(), 2, "{:#?}", f.inventory.problems);
+    assert_eq!(
+        f.inventory.buildings.len(),
+        2,
+        "{:#?}",
+        f.inventory.problems
+    );
     assert!(storey_and_range_problems(&f).is_empty());
     // From the settings sheet.
     let s = load_with_settings_csv(
@@ -255,7 +262,12 @@ fn settings_overrides_of_the_plausibility_limits_reach_the_row_checks() {
         "key,value\nmax_storeys,80\nstorey_height_max_m,7\nfloor_weight_max_kpa,25\n",
         None,
     );
-    assert_eq!(s.inventory.buildings.len(), 2, "{:#?}", s.inventory.problems);
+    assert_eq!(
+        s.inventory.buildings.len(),
+        2,
+        "{:#?}",
+        s.inventory.problems
+    );
     assert!(storey_and_range_problems(&s).is_empty());
     // The file wins over the sheet.
     let both = load_with_settings_csv(
@@ -266,8 +278,10 @@ fn settings_overrides_of_the_plausibility_limits_reach_the_row_checks() {
     assert_eq!(both.settings.max_storeys, 65.0);
     assert_eq!(both.inventory.buildings.len(), 1);
     assert!(
-        both.inventory.problems.iter().any(|p| p.column == "storeys"
-            && p.message.contains("from 1 to 65")),
+        both.inventory
+            .problems
+            .iter()
+            .any(|p| p.column == "storeys" && p.message.contains("from 1 to 65")),
         "{:#?}",
         both.inventory.problems
     );
@@ -339,9 +353,8 @@ fn district_ring_crossing_the_antimeridian_unsplit_covers_its_own_side() {
     // A later district overlapping Dateline east of 180°: Dateline comes first in the file.
     let later = r#"{"type":"Feature","properties":{"name":"Later"},"geometry":
         {"type":"Polygon","coordinates":[[[-179.6,-41],[-170,-41],[-170,-40],[-179.6,-40],[-179.6,-41]]]}}"#;
-    let text = format!(
-        r#"{{"type":"FeatureCollection","features":[{unsplit},{cut},{plain},{later}]}}"#
-    );
+    let text =
+        format!(r#"{{"type":"FeatureCollection","features":[{unsplit},{cut},{plain},{later}]}}"#);
     let (g, problems) = Geography::from_geojson_str(Some(&text), None).unwrap();
     assert!(problems.is_empty(), "{problems:?}");
     let name = |lat: f64, lon: f64| g.district_at(LatLon::new(lat, lon)).map(|d| d.name.clone());

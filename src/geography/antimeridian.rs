@@ -104,7 +104,13 @@ mod tests {
     #[test]
     fn a_polygon_away_from_the_antimeridian_is_unchanged() {
         let p = Polygon::new(
-            ring(&[(-10.0, 0.0), (10.0, 0.0), (10.0, 5.0), (-10.0, 5.0), (-10.0, 0.0)]),
+            ring(&[
+                (-10.0, 0.0),
+                (10.0, 0.0),
+                (10.0, 5.0),
+                (-10.0, 5.0),
+                (-10.0, 0.0),
+            ]),
             vec![],
         );
         assert_eq!(unwrap_polygon(&p).unwrap(), p);

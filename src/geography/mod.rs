@@ -716,7 +716,10 @@ mod tests {
         // On the far side of the globe the trace is half a turn away, not 0.
         let (fault, _) = g.faults_near(LatLon::new(0.0, 0.0), &s);
         let d = fault.unwrap().distance_m;
-        assert!((d - 179.5 * MEAN_EARTH_RADIUS_M.to_radians()).abs() < 1e-3, "{d}");
+        assert!(
+            (d - 179.5 * MEAN_EARTH_RADIUS_M.to_radians()).abs() < 1e-3,
+            "{d}"
+        );
     }
 
     /// A district built by hand (not read from GeoJSON) across the antimeridian is
@@ -739,8 +742,14 @@ mod tests {
             hazard: DistrictHazard::default(),
         };
         let g = Geography::new(vec![d], vec![]);
-        assert_eq!(g.district_at(LatLon::new(11.0, -179.0)).unwrap().name, "Hand");
-        assert_eq!(g.district_at(LatLon::new(11.0, 179.0)).unwrap().name, "Hand");
+        assert_eq!(
+            g.district_at(LatLon::new(11.0, -179.0)).unwrap().name,
+            "Hand"
+        );
+        assert_eq!(
+            g.district_at(LatLon::new(11.0, 179.0)).unwrap().name,
+            "Hand"
+        );
         assert!(g.district_at(LatLon::new(11.0, 0.0)).is_none());
     }
 

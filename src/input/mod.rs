@@ -414,16 +414,9 @@ fn read_workbook(
     // The "buildings" problem above (if any) is kept in front.
     let first_problems = std::mem::take(&mut collected.borrow_mut().sheet_problems);
     if let Some(name) = find(&SETTINGS).filter(|n| *n != buildings) {
-        run_sheet(
-            &SETTINGS,
-            &name,
-            None,
-            false,
-            opts,
-            &p,
-            collected,
-            |sink| wb.read_sheet(&name, &p, &budget, counter, sink),
-        )?;
+        run_sheet(&SETTINGS, &name, None, false, opts, &p, collected, |sink| {
+            wb.read_sheet(&name, &p, &budget, counter, sink)
+        })?;
     }
     let mut settings_problems = Vec::new();
     let opts = &settled_options(&p, opts, settle, collected, &mut settings_problems)?;
@@ -715,9 +708,10 @@ mod tests {
                 .zip(numbers)
                 .map(|((k, v), n)| (k.clone(), v.clone(), *n))
                 .collect();
-            let mut limits = Limits::default();
-            limits.max_storeys = 61.0;
-            Some(limits)
+            Some(Limits {
+                max_storeys: 61.0,
+                ..Limits::default()
+            })
         })
         .unwrap();
         assert_eq!(
@@ -738,6 +732,9 @@ mod tests {
     fn settle_refusing_stops_the_read() {
         let (_dir, p) = csv_with_settings("key,value\n");
         let e = read_inventory_settled(&p, &ReadOptions::default(), &mut |_, _| None);
-        assert!(matches!(e, Err(InputError::SettingsRefused { .. })), "{e:?}");
+        assert!(
+            matches!(e, Err(InputError::SettingsRefused { .. })),
+            "{e:?}"
+        );
     }
 }

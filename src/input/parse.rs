@@ -787,10 +787,12 @@ mod tests {
                 ("floor_weight_kpa", Severity::Warning)
             ]
         );
-        let mut s = crate::settings::Settings::default();
-        s.max_storeys = 70.0;
-        s.storey_height_max_m = 6.5;
-        s.floor_weight_max_kpa = 22.0;
+        let s = crate::settings::Settings {
+            max_storeys: 70.0,
+            storey_height_max_m: 6.5,
+            floor_weight_max_kpa: 22.0,
+            ..Default::default()
+        };
         let limits = Limits::from_settings(&s);
         let (b, problems) = building(&row, false, &limits);
         assert!(problems.is_empty(), "{problems:#?}");
