@@ -189,6 +189,28 @@ proptest! {
         prop_assert!(d1.cp <= d0.cp * (1.0 + tol) + tol, "cp {} -> {}", d0.cp, d1.cp);
     }
 
+    /// Retrofit sizing's shortcut (the building prepared once, only the sized direction
+    /// re-run) gives the DCR_LS of a full re-screening with the same new walls, bit for bit,
+    /// under every capacity model and spectrum.
+    #[test]
+    fn sizing_shortcut_equals_full_rescreening(
+        b in building(), area in 0.0f64..40.0, m in 0usize..3, sp in 0usize..2, dy in any::<bool>()
+    ) {
+        use seistriage::retrofit::{Prepared, sizing::{Rescreen, walls_in}};
+        let s = settings_for(m, sp);
+        let inp = input(&b);
+        let d = if dy { Dir::Y } else { Dir::X };
+        let full = seistriage::engine::screen_building_with(&inp, &s, &walls_in(d, area))
+            .unwrap()
+            .directions
+            .get(d)
+            .dcr
+            .ls;
+        let prepared = seistriage::engine::building::prepare(&inp, &s).unwrap();
+        let quick = Prepared { prepared, settings: &s }.dcr_ls(d, area).unwrap();
+        prop_assert_eq!(full.to_bits(), quick.to_bits(), "full {} quick {}", full, quick);
+    }
+
     /// Raising agR never lowers a DCR (every capacity model).
     #[test]
     fn higher_agr_never_lowers_dcr(b in building(), k in 1.0f64..3.0, m in 0usize..3, sp in 0usize..2) {

@@ -225,14 +225,46 @@ pub fn storey_strength(
     walls + a1 * beta * s.tau_column_mpa * st.column_m2
 }
 
-/// Screens one building with (possibly zero) retrofit walls.
-pub fn screen(
-    input: &BuildingInput<'_>,
+/// Everything of one building that does not depend on new retrofit walls: the resolved
+/// inputs (§0) and the building-wide terms of §2–§8 (axial load ratio, β, spectrum, mode
+/// shape, shear spans, column capacity, column strength). Retrofit sizing prepares a
+/// building once and re-runs only [`direction`] for each trial wall area.
+#[derive(Debug, Clone)]
+pub struct Prepared<'a> {
+    /// The building's input.
+    pub input: &'a BuildingInput<'a>,
+    /// Resolved inputs (§0).
+    pub res: Resolved,
+    /// Axial load ratio ν of the walls (or of the vertical elements when no wall is listed).
+    pub nu: f64,
+    /// Concrete strength factor β of the existing structure (§3).
+    pub beta: f64,
+    /// β of new retrofit walls (§3, `new_wall_fc_mpa`).
+    pub beta_new: f64,
+    /// The building's spectrum (§5).
+    pub spec: DemandSpectrum,
+    /// Corner period TC (s).
+    pub tc: f64,
+    /// Mode shape φ (§6).
+    pub phi: Vec<f64>,
+    /// Participation factor Γ (§6).
+    pub gamma: f64,
+    /// Wall shear span Lv (m, §8).
+    pub lv_wall: f64,
+    /// Column shear span Lv (m, §8).
+    pub lv_col: f64,
+    /// Column capacity (§8), when the building has columns.
+    pub column_cap: Option<capacity::MemberCapacity>,
+    /// Column strength term of C_y (§3).
+    pub cc: f64,
+}
+
+/// Resolves a building and computes its building-wide terms (see [`Prepared`]).
+pub fn prepare<'a>(
+    input: &'a BuildingInput<'a>,
     s: &Settings,
-    new: &NewWalls,
-) -> Result<BuildingResult, Vec<String>> {
+) -> Result<Prepared<'a>, Vec<String>> {
     let res = resolve::resolve(input, s)?;
-    let r = input.record;
     let nu = res.walls.first().map_or_else(
         || {
             resolve::axial_load_ratio(
@@ -252,8 +284,7 @@ pub fn screen(
     let lv_wall = capacity::wall_shear_span_m(&res.z_m);
     let h1 = res.heights_m.first().copied().unwrap_or(0.0);
     let lv_col = capacity::column_shear_span_m(h1);
-    let has_columns = res.column_area_m2 > 0.0;
-    let column_cap = has_columns.then(|| {
+    let column_cap = (res.column_area_m2 > 0.0).then(|| {
         capacity::column_capacity(
             nu,
             res.fc_mpa / s.confidence_factor,
@@ -265,144 +296,197 @@ pub fn screen(
         )
     });
     let cc = strength::column_strength(beta, s.tau_column_mpa, res.column_area_m2, res.weight_kn);
+    Ok(Prepared {
+        input,
+        res,
+        nu,
+        beta,
+        beta_new,
+        spec,
+        tc,
+        phi,
+        gamma,
+        lv_wall,
+        lv_col,
+        column_cap,
+        cc,
+    })
+}
 
+/// One direction of a prepared building through §1 and §3–§9 with `added` m² of new walls
+/// in it (0 for none): its result, its walls' results (new wall group last) and its
+/// soft/weak storey state after the new walls. A direction depends on its own new walls
+/// only, so re-screening with walls in one direction changes that direction alone.
+pub fn direction(
+    p: &Prepared<'_>,
+    s: &Settings,
+    d: Dir,
+    added: f64,
+) -> (DirectionResult, Vec<WallResult>, flags::StoreyState) {
+    let res = &p.res;
+    let added = added.max(0.0);
+    let added = if added.is_finite() { added } else { 0.0 };
+    let has_columns = res.column_area_m2 > 0.0;
+    let a_cw = *res.rc_wall_area_m2.get(d);
+    let a_mw = *res.infill_area_m2.get(d);
+    // §1
+    let ci = indices::column_index_pct(res.column_area_m2, res.floor_area_m2);
+    let wi = indices::wall_index_pct(a_cw, a_mw, s.infill_weight, res.floor_area_m2);
+    let pi = indices::priority_index_pct(wi, ci);
+    let wirc = indices::rc_wall_index_pct(a_cw, res.floor_area_m2);
+    // §3
+    let cw = strength::wall_strength(
+        p.beta,
+        s.tau_wall_mpa,
+        a_cw,
+        strength::tau_infill_mpa(s),
+        a_mw,
+        res.weight_kn,
+    ) + strength::new_wall_strength(p.beta_new, s.tau_wall_mpa, added, res.weight_kn);
+    let a1 = strength::alpha1(a_cw + added > 0.0, s);
+    let cy = strength::strength_coefficient(cw, a1, p.cc);
+    // §4
+    let t_frame = period::period_frame_s(s.ct_period, res.height_m);
+    let ac: f64 = res
+        .walls_in(d)
+        .map(|w| period::ac_term_m2(w.area_m2(), w.lw, res.height_m))
+        .fold(0.0, |a, b| a + b);
+    let t_wall = period::period_wall_s(s.ct_period, ac, res.height_m);
+    let t_formula = period::formula_period_s(t_frame, t_wall);
+    let (mut t, source) = match res.period_input_s.get(d) {
+        Some(t_in) => (*t_in, "input"),
+        None => (t_formula * s.period_factor, "formula"),
+    };
+    if added > 0.0 {
+        let ac_new = ac + period::ac_term_m2(added, s.new_wall_length_m, res.height_m);
+        let t_with = period::formula_period_s(
+            t_frame,
+            period::period_wall_s(s.ct_period, ac_new, res.height_m),
+        );
+        if t_formula > 0.0 {
+            t *= t_with / t_formula;
+        }
+    }
+    // §5
+    let se = p.spec.se_g(t);
+    let sde = spectrum::sde_m(se, t);
+    // §6
+    let say = n2::yield_acceleration_g(cy, res.n, p.gamma, &p.phi);
+    let qu = n2::strength_ratio(se, say);
+    let (dt_star, branch) = n2::target_displacement_m(sde, qu, t, p.tc);
+    let dt = n2::roof_displacement_m(p.gamma, dt_star);
+    let drift = n2::roof_drift(dt, res.height_m);
+    // §7 (soft/weak state before and after new walls)
+    let before = flags::storey_state(res, d, p.beta, p.beta_new, 0.0, s);
+    let after = flags::storey_state(res, d, p.beta, p.beta_new, added, s);
+    let kappa_before = demand::kappa(wirc, before.any(), s);
+    let kappa = if added > 0.0 {
+        let added_pct = indices::rc_wall_index_pct(added, res.floor_area_m2);
+        let wirc_new = indices::rc_wall_index_pct(a_cw + added, res.floor_area_m2);
+        demand::kappa_retrofit(kappa_before, added_pct, wirc_new, after.any(), s)
+    } else {
+        kappa_before
+    };
+    let soft_or_weak = after.any();
+    let has_walls = a_cw + added > 0.0;
+    let delta_w = has_walls.then(|| demand::wall_drift(drift));
+    let delta_c = has_columns.then(|| demand::column_drift(kappa, drift));
+    // §8
+    let mut group: Vec<WallSpec> = res.walls_in(d).cloned().collect();
+    if added > 0.0 {
+        group.push(new_wall_group(d, added, s));
+    }
+    let walls: Vec<WallResult> = group
+        .iter()
+        .map(|w| wall_result(w, p.lv_wall, se, cy, s))
+        .collect();
+    let wall_cap = min_levels(walls.iter().map(|w| &w.capacity));
+    let col_levels = p.column_cap.map(|c| c.levels);
+    // §9
+    let wall_dcr = match (delta_w, wall_cap) {
+        (Some(dw), Some(c)) => Some(dcr::group_dcr(dw, &c)),
+        _ => None,
+    };
+    let col_dcr = match (delta_c, col_levels) {
+        (Some(dc), Some(c)) => Some(dcr::group_dcr(dc, &c)),
+        _ => None,
+    };
+    let dcr_levels = dcr::direction_dcr(wall_dcr, col_dcr);
+    let result = DirectionResult {
+        wall_index_pct: wi,
+        column_index_pct: ci,
+        priority_index_pct: pi,
+        period_s: t,
+        roof_drift_demand: drift,
+        drift_demand: Groups {
+            walls: delta_w,
+            columns: delta_c,
+        },
+        capacity: Groups {
+            walls: wall_cap.filter(|_| has_walls),
+            columns: col_levels,
+        },
+        dcr: dcr_levels,
+        detail: DirectionDetail {
+            rc_wall_area_m2: a_cw,
+            infill_area_m2: a_mw,
+            rc_wall_index_pct: wirc,
+            strength_walls: cw,
+            strength_columns: p.cc,
+            alpha1: a1,
+            strength_coefficient: cy,
+            period_frame_s: t_frame,
+            period_wall_s: t_wall,
+            ac_m2: ac,
+            period_source: source,
+            se_g: se,
+            sde_m: sde,
+            gamma: p.gamma,
+            say_g: say,
+            qu: qu.unwrap_or(0.0),
+            n2_branch: branch.name(),
+            dt_star_m: dt_star,
+            roof_displacement_m: dt,
+            kappa,
+            tc_s: p.tc,
+            added_wall_area_m2: added,
+            period_formula_s: t_formula,
+            soft_or_weak,
+        },
+    };
+    (result, walls, after)
+}
+
+/// Screens one building with (possibly zero) retrofit walls.
+pub fn screen(
+    input: &BuildingInput<'_>,
+    s: &Settings,
+    new: &NewWalls,
+) -> Result<BuildingResult, Vec<String>> {
+    let p = prepare(input, s)?;
+    let Prepared {
+        res,
+        nu,
+        beta,
+        spec,
+        lv_wall,
+        lv_col,
+        column_cap,
+        ..
+    } = &p;
+    let (res, nu, beta, lv_wall, lv_col, column_cap) =
+        (res, *nu, *beta, *lv_wall, *lv_col, *column_cap);
+    let r = input.record;
     let mut directions: PerDir<DirectionResult> = PerDir::default();
     let mut wall_results: Vec<WallResult> = Vec::new();
     let mut states_after: PerDir<Option<flags::StoreyState>> = PerDir::default();
     let mut strength_coefficient = PerDir { x: 0.0, y: 0.0 };
     for d in Dir::BOTH {
-        let added = new.area_m2.get(d).max(0.0);
-        let added = if added.is_finite() { added } else { 0.0 };
-        let a_cw = *res.rc_wall_area_m2.get(d);
-        let a_mw = *res.infill_area_m2.get(d);
-        // §1
-        let ci = indices::column_index_pct(res.column_area_m2, res.floor_area_m2);
-        let wi = indices::wall_index_pct(a_cw, a_mw, s.infill_weight, res.floor_area_m2);
-        let pi = indices::priority_index_pct(wi, ci);
-        let wirc = indices::rc_wall_index_pct(a_cw, res.floor_area_m2);
-        // §3
-        let cw = strength::wall_strength(
-            beta,
-            s.tau_wall_mpa,
-            a_cw,
-            strength::tau_infill_mpa(s),
-            a_mw,
-            res.weight_kn,
-        ) + strength::new_wall_strength(beta_new, s.tau_wall_mpa, added, res.weight_kn);
-        let a1 = strength::alpha1(a_cw + added > 0.0, s);
-        let cy = strength::strength_coefficient(cw, a1, cc);
-        *strength_coefficient.get_mut(d) = cy;
-        // §4
-        let t_frame = period::period_frame_s(s.ct_period, res.height_m);
-        let ac: f64 = res
-            .walls_in(d)
-            .map(|w| period::ac_term_m2(w.area_m2(), w.lw, res.height_m))
-            .fold(0.0, |a, b| a + b);
-        let t_wall = period::period_wall_s(s.ct_period, ac, res.height_m);
-        let t_formula = period::formula_period_s(t_frame, t_wall);
-        let (mut t, source) = match res.period_input_s.get(d) {
-            Some(t_in) => (*t_in, "input"),
-            None => (t_formula * s.period_factor, "formula"),
-        };
-        if added > 0.0 {
-            let ac_new = ac + period::ac_term_m2(added, s.new_wall_length_m, res.height_m);
-            let t_with = period::formula_period_s(
-                t_frame,
-                period::period_wall_s(s.ct_period, ac_new, res.height_m),
-            );
-            if t_formula > 0.0 {
-                t *= t_with / t_formula;
-            }
-        }
-        // §5
-        let se = spec.se_g(t);
-        let sde = spectrum::sde_m(se, t);
-        // §6
-        let say = n2::yield_acceleration_g(cy, res.n, gamma, &phi);
-        let qu = n2::strength_ratio(se, say);
-        let (dt_star, branch) = n2::target_displacement_m(sde, qu, t, tc);
-        let dt = n2::roof_displacement_m(gamma, dt_star);
-        let drift = n2::roof_drift(dt, res.height_m);
-        // §7 (soft/weak state before and after new walls)
-        let before = flags::storey_state(&res, d, beta, beta_new, 0.0, s);
-        let after = flags::storey_state(&res, d, beta, beta_new, added, s);
-        let kappa_before = demand::kappa(wirc, before.any(), s);
-        let kappa = if added > 0.0 {
-            let added_pct = indices::rc_wall_index_pct(added, res.floor_area_m2);
-            let wirc_new = indices::rc_wall_index_pct(a_cw + added, res.floor_area_m2);
-            demand::kappa_retrofit(kappa_before, added_pct, wirc_new, after.any(), s)
-        } else {
-            kappa_before
-        };
-        let soft_or_weak = after.any();
+        let (result, walls, after) = direction(&p, s, d, *new.area_m2.get(d));
+        *strength_coefficient.get_mut(d) = result.detail.strength_coefficient;
         states_after.get_mut(d).replace(after);
-        let has_walls = a_cw + added > 0.0;
-        let delta_w = has_walls.then(|| demand::wall_drift(drift));
-        let delta_c = has_columns.then(|| demand::column_drift(kappa, drift));
-        // §8
-        let mut group: Vec<WallSpec> = res.walls_in(d).cloned().collect();
-        if added > 0.0 {
-            group.push(new_wall_group(d, added, s));
-        }
-        let these: Vec<WallResult> = group
-            .iter()
-            .map(|w| wall_result(w, lv_wall, se, cy, s))
-            .collect();
-        let wall_cap = min_levels(these.iter().map(|w| &w.capacity));
-        wall_results.extend(these);
-        let col_levels = column_cap.map(|c| c.levels);
-        // §9
-        let wall_dcr = match (delta_w, wall_cap) {
-            (Some(dw), Some(c)) => Some(dcr::group_dcr(dw, &c)),
-            _ => None,
-        };
-        let col_dcr = match (delta_c, col_levels) {
-            (Some(dc), Some(c)) => Some(dcr::group_dcr(dc, &c)),
-            _ => None,
-        };
-        let dcr_levels = dcr::direction_dcr(wall_dcr, col_dcr);
-        *directions.get_mut(d) = DirectionResult {
-            wall_index_pct: wi,
-            column_index_pct: ci,
-            priority_index_pct: pi,
-            period_s: t,
-            roof_drift_demand: drift,
-            drift_demand: Groups {
-                walls: delta_w,
-                columns: delta_c,
-            },
-            capacity: Groups {
-                walls: wall_cap.filter(|_| has_walls),
-                columns: col_levels,
-            },
-            dcr: dcr_levels,
-            detail: DirectionDetail {
-                rc_wall_area_m2: a_cw,
-                infill_area_m2: a_mw,
-                rc_wall_index_pct: wirc,
-                strength_walls: cw,
-                strength_columns: cc,
-                alpha1: a1,
-                strength_coefficient: cy,
-                period_frame_s: t_frame,
-                period_wall_s: t_wall,
-                ac_m2: ac,
-                period_source: source,
-                se_g: se,
-                sde_m: sde,
-                gamma,
-                say_g: say,
-                qu: qu.unwrap_or(0.0),
-                n2_branch: branch.name(),
-                dt_star_m: dt_star,
-                roof_displacement_m: dt,
-                kappa,
-                tc_s: tc,
-                added_wall_area_m2: added,
-                period_formula_s: t_formula,
-                soft_or_weak,
-            },
-        };
+        wall_results.extend(walls);
+        *directions.get_mut(d) = result;
     }
 
     // §9 governing and §11 class.
@@ -427,7 +511,7 @@ pub fn screen(
 
     // §10 flags.
     let fl = flags::raise(&flags::Context {
-        res: &res,
+        res,
         input,
         s,
         directions: &directions,

@@ -19,7 +19,8 @@ use std::collections::HashMap;
 
 use rayon::prelude::*;
 
-use crate::engine::{self, BuildingInput};
+use crate::engine::{self, BuildingInput, NewWalls};
+use crate::model::Dir;
 use crate::results::{BudgetPlan, BuildingResult, Retrofit};
 use crate::settings::Settings;
 
@@ -44,16 +45,42 @@ pub fn size_all(results: &mut [BuildingResult], inputs: &[BuildingInput<'_>], se
     });
 }
 
+/// The engine as [`sizing::Rescreen`]: the building prepared once (§0 and its building-wide
+/// terms), each bisection step re-running only the direction being sized
+/// ([`engine::building::direction`]) — the same function the full screening runs, so the
+/// DCR is the one a full re-screening gives (tested), for a fraction of the work.
+pub struct Prepared<'a> {
+    /// The prepared building.
+    pub prepared: engine::building::Prepared<'a>,
+    /// Settings.
+    pub settings: &'a Settings,
+}
+
+impl sizing::Rescreen for Prepared<'_> {
+    fn screen(&self, new: &NewWalls) -> Result<BuildingResult, Vec<String>> {
+        engine::screen_building_with(self.prepared.input, self.settings, new)
+    }
+
+    fn dcr_ls(&self, d: Dir, area: f64) -> Result<f64, Vec<String>> {
+        let (result, _, _) = engine::building::direction(&self.prepared, self.settings, d, area);
+        Ok(result.dcr.ls)
+    }
+}
+
 /// Sizes and costs one building; `input` `None` reports the sizing as failed.
 fn size_one(
     r: &BuildingResult,
     input: Option<&BuildingInput<'_>>,
     settings: &Settings,
 ) -> Option<crate::results::Retrofit> {
-    let mut rf = sizing::size_building(r, settings, |new| match input {
-        Some(i) => engine::screen_building_with(i, settings, new),
-        None => Err(vec![format!("no input found for building {}", r.id)]),
-    })?;
+    let prepared = input.and_then(|i| engine::building::prepare(i, settings).ok());
+    let mut rf = match prepared {
+        Some(prepared) => sizing::size_building(r, settings, Prepared { prepared, settings }),
+        None => sizing::size_building(r, settings, |new: &NewWalls| match input {
+            Some(i) => engine::screen_building_with(i, settings, new),
+            None => Err(vec![format!("no input found for building {}", r.id)]),
+        }),
+    }?;
     cost::apply(&mut rf, r.detail.height_m, r.detail.floor_area_m2, settings);
     Some(rf)
 }

@@ -101,6 +101,30 @@ pub fn needs_retrofit(base: &BuildingResult, settings: &Settings) -> bool {
             .any(|&d| base.directions.get(d).dcr.ls > settings.retrofit_target_dcr)
 }
 
+/// How sizing re-screens a building with new walls: the whole building (for `flags_after`),
+/// and the DCR_LS of one direction with new walls in it alone (each bisection step). A
+/// closure `Fn(&NewWalls) -> Result<BuildingResult, _>` is one, re-screening the whole
+/// building for both; the engine's own ([`super::Prepared`]) re-runs only the direction.
+pub trait Rescreen {
+    /// The building re-screened with `new` walls (or why it could not be).
+    fn screen(&self, new: &NewWalls) -> Result<BuildingResult, Vec<String>>;
+
+    /// DCR_LS of direction `d` re-screened with `area` m² of new walls in `d` alone.
+    fn dcr_ls(&self, d: Dir, area: f64) -> Result<f64, Vec<String>> {
+        self.screen(&walls_in(d, area))
+            .map(|r| r.directions.get(d).dcr.ls)
+    }
+}
+
+impl<F> Rescreen for F
+where
+    F: Fn(&NewWalls) -> Result<BuildingResult, Vec<String>>,
+{
+    fn screen(&self, new: &NewWalls) -> Result<BuildingResult, Vec<String>> {
+        self(new)
+    }
+}
+
 /// New walls of `area` (m²) in direction `d` only.
 pub fn walls_in(d: Dir, area: f64) -> NewWalls {
     let mut area_m2 = PerDir { x: 0.0, y: 0.0 };
@@ -158,10 +182,11 @@ pub fn storey_flag_codes(result: &BuildingResult) -> Vec<String> {
 /// comes from one more screening with both directions' sized walls added (a direction
 /// without a solution adds none: the flags describe the walls actually proposed); that
 /// screening also re-checks each sized direction against the target.
-pub fn size_building<F>(base: &BuildingResult, settings: &Settings, screen: F) -> Option<Retrofit>
-where
-    F: Fn(&NewWalls) -> Result<BuildingResult, Vec<String>>,
-{
+pub fn size_building(
+    base: &BuildingResult,
+    settings: &Settings,
+    screen: impl Rescreen,
+) -> Option<Retrofit> {
     if !needs_retrofit(base, settings) {
         return None;
     }
@@ -170,8 +195,8 @@ where
     let mut failures: Vec<String> = Vec::new();
     let mut areas = PerDir { x: None, y: None };
     for d in Dir::BOTH {
-        let dcr = |area: f64| match screen(&walls_in(d, area)) {
-            Ok(r) => r.directions.get(d).dcr.ls,
+        let dcr = |area: f64| match screen.dcr_ls(d, area) {
+            Ok(v) => v,
             Err(reasons) => {
                 for r in reasons {
                     if !failures.contains(&r) {
@@ -193,7 +218,7 @@ where
         },
     };
     let flags_after = if proposed.area_m2.x > 0.0 || proposed.area_m2.y > 0.0 {
-        match screen(&proposed) {
+        match screen.screen(&proposed) {
             Ok(after) => {
                 for d in Dir::BOTH {
                     let dcr = after.directions.get(d).dcr.ls;

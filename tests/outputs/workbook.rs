@@ -484,12 +484,16 @@ fn sample_workbook_for_visual_check() {
 fn progress_reports_every_row_written() {
     let report = sample::report(24);
     let dir = tempfile::tempdir().unwrap();
-    let last = std::cell::Cell::new(0u64);
-    workbook::write_with_progress(&report, &dir.path().join("p.xlsx"), &|n| last.set(n)).unwrap();
+    // Sheets are written in parallel: the callback may come from any thread.
+    let last = std::sync::atomic::AtomicU64::new(0);
+    workbook::write_with_progress(&report, &dir.path().join("p.xlsx"), &|n| {
+        last.store(n, std::sync::atomic::Ordering::Relaxed)
+    })
+    .unwrap();
     let c = workbook::tables::RowCounts::of(&report);
     let total =
         c.priority + c.retrofit + c.directions + c.walls + c.flags + c.not_screened + c.problems;
-    assert_eq!(last.get(), total as u64);
+    assert_eq!(last.into_inner(), total as u64);
 }
 
 #[test]

@@ -21,7 +21,9 @@ pub use summary::budget_line;
 pub mod tables;
 
 use std::path::{Path, PathBuf};
+use std::sync::atomic::{AtomicU64, Ordering};
 
+use rayon::prelude::*;
 use rust_xlsxwriter::{DocProperties, ExcelDateTime, Workbook, Worksheet};
 
 use super::ReportError;
@@ -110,13 +112,7 @@ impl Layout {
 
     /// The same layout with the large-stock rule applied (per-row tables to CSV).
     pub fn large_stock(mut self) -> Self {
-        for t in [
-            Table::Priority,
-            Table::Retrofit,
-            Table::Directions,
-            Table::Walls,
-            Table::Flags,
-        ] {
+        for t in Table::ALL.into_iter().filter(|t| t.per_row()) {
             if !self.csv.contains(&t) {
                 self.csv.push(t);
             }
@@ -206,8 +202,12 @@ fn put(
     Ok(())
 }
 
-/// Progress callback: called with the number of rows written so far.
-pub type Progress<'a> = &'a dyn Fn(u64);
+/// Progress callback: called with the number of rows written so far (from whichever thread
+/// is writing a sheet).
+pub type Progress<'a> = &'a (dyn Fn(u64) + Sync);
+
+/// Rows written between two progress calls.
+const PROGRESS_EVERY: u64 = 4096;
 
 fn write_table_sheet(
     ws: &mut Worksheet,
@@ -216,7 +216,7 @@ fn write_table_sheet(
     rows: usize,
     styles: &Styles,
     progress: Progress<'_>,
-    done: &mut u64,
+    done: &AtomicU64,
 ) -> Result<(), ReportError> {
     let cols = table.columns();
     ws.set_name(table.sheet_name())?;
@@ -250,9 +250,9 @@ fn write_table_sheet(
             put(ws, r, i as u16, cell, c.kind, styles)?;
         }
         r += 1;
-        *done += 1;
-        if (*done).is_multiple_of(4096) {
-            progress(*done);
+        let n = done.fetch_add(1, Ordering::Relaxed) + 1;
+        if n.is_multiple_of(PROGRESS_EVERY) {
+            progress(n);
         }
         Ok::<(), ReportError>(())
     })?;
@@ -319,6 +319,29 @@ pub fn write_with_layout_except(
     }
 }
 
+/// Spreads jobs of the given weights over `bins` workers, largest first onto the least loaded
+/// (the longest-processing-time rule); returns each job's bin. The Directions sheet alone
+/// holds about half the cells of a workbook, so on two threads it gets one to itself.
+fn balance(weights: &[u64], bins: usize) -> Vec<usize> {
+    let bins = bins.max(1);
+    let mut order: Vec<usize> = (0..weights.len()).collect();
+    order.sort_by_key(|&i| std::cmp::Reverse(weights.get(i).copied().unwrap_or(0)));
+    let mut load = vec![0u64; bins];
+    let mut bin_of = vec![0usize; weights.len()];
+    for i in order {
+        let (b, _) = load
+            .iter()
+            .enumerate()
+            .min_by_key(|&(b, l)| (*l, b))
+            .unwrap_or((0, &0));
+        if let (Some(slot), Some(l)) = (bin_of.get_mut(i), load.get_mut(b)) {
+            *slot = b;
+            *l += weights.get(i).copied().unwrap_or(0);
+        }
+    }
+    bin_of
+}
+
 /// Seconds since the Unix epoch, now.
 fn now_timestamp() -> i64 {
     std::time::SystemTime::now()
@@ -367,28 +390,48 @@ fn build_and_save(
 
     // Summary first (a normal sheet, filled at the end when everything is known).
     wb.add_worksheet().set_name("Summary")?;
-    let mut done = 0u64;
+    // The table sheets are standalone worksheets filled in parallel, then added in the
+    // contract's order. Constant-memory sheets created by the workbook share its format
+    // table, so their cell styles are right whichever thread writes them.
+    let mut sheets: Vec<(Table, usize, Worksheet)> = Vec::new();
     for t in Table::ALL {
         let Some(rows) = layout.sheet_rows(t) else {
             continue;
         };
-        let ws = if layout.constant_memory
-            && matches!(
-                t,
-                Table::Priority | Table::Retrofit | Table::Directions | Table::Walls | Table::Flags
-            ) {
-            wb.add_worksheet_with_constant_memory()?
+        let ws = if layout.constant_memory && t.per_row() {
+            wb.new_worksheet_with_constant_memory()?
         } else {
-            wb.add_worksheet()
+            Worksheet::new()
         };
-        write_table_sheet(ws, report, t, rows, &styles, progress, &mut done)?;
+        sheets.push((t, rows, ws));
+    }
+    let done = AtomicU64::new(0);
+    let weights: Vec<u64> = sheets
+        .iter()
+        .map(|(t, rows, _)| *rows as u64 * t.columns().len() as u64)
+        .collect();
+    let threads = rayon::current_num_threads().max(1);
+    let mut bins: Vec<Vec<&mut (Table, usize, Worksheet)>> =
+        (0..threads).map(|_| Vec::new()).collect();
+    for (sheet, bin) in sheets.iter_mut().zip(balance(&weights, threads)) {
+        if let Some(b) = bins.get_mut(bin) {
+            b.push(sheet);
+        }
+    }
+    bins.into_par_iter().try_for_each(|bin| {
+        bin.into_iter().try_for_each(|(t, rows, ws)| {
+            write_table_sheet(ws, report, *t, *rows, &styles, progress, &done)
+        })
+    })?;
+    for (_, _, ws) in sheets {
+        wb.push_worksheet(ws);
     }
     assumptions::write(wb.add_worksheet(), report, &styles)?;
     let charts = summary::write_chart_data(wb.add_worksheet(), report)?;
     let summary_ws = wb.worksheet_from_name("Summary")?;
     summary::write(summary_ws, report, layout, extra, &styles, &now, &charts)?;
     summary_ws.set_active(true);
-    progress(done);
+    progress(done.load(Ordering::Relaxed));
     wb.save(tmp)?;
     Ok(())
 }
@@ -396,6 +439,21 @@ fn build_and_save(
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn balance_gives_the_largest_sheet_a_worker_of_its_own() {
+        // Directions-like job first in weight, the rest share the other worker.
+        assert_eq!(
+            balance(&[10, 3, 60, 20, 15, 1, 1], 2),
+            vec![1, 1, 0, 1, 1, 1, 1]
+        );
+        // Longest-processing-time rule: 7,6,5,4 on two workers -> {7,4} and {6,5}.
+        assert_eq!(balance(&[7, 6, 5, 4], 2), vec![0, 1, 1, 0]);
+        // One worker takes everything; no workers behaves as one.
+        assert_eq!(balance(&[3, 2], 1), vec![0, 0]);
+        assert_eq!(balance(&[3, 2], 0), vec![0, 0]);
+        assert!(balance(&[], 2).is_empty());
+    }
 
     #[test]
     fn cut_keeps_short_text_and_cuts_long_text_at_a_char_boundary() {

@@ -809,6 +809,16 @@ impl Table {
             Table::Problems => "Input problems",
         }
     }
+
+    /// A table with a row per building, direction, wall or flag (streamed in constant-memory
+    /// mode for large stocks; moved to CSV by the large-stock rule).
+    pub fn per_row(self) -> bool {
+        matches!(
+            self,
+            Table::Priority | Table::Retrofit | Table::Directions | Table::Walls | Table::Flags
+        )
+    }
+
     /// The `<sheet>` part of `<out stem>.<sheet>.csv`.
     pub fn file_tag(self) -> &'static str {
         match self {
