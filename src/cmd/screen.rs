@@ -199,9 +199,14 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
 /// `screen` on the streaming path (a CSV stock above the threshold; see
 /// `seistriage::stream`): bounded memory, per-row tables as CSV files beside the workbook.
 fn run_streamed(o: &Options, out: &Path) -> anyhow::Result<ExitCode> {
-    for p in [Some(out), o.json.as_deref(), o.csv.as_deref(), o.geojson.as_deref()]
-        .into_iter()
-        .flatten()
+    for p in [
+        Some(out),
+        o.json.as_deref(),
+        o.csv.as_deref(),
+        o.geojson.as_deref(),
+    ]
+    .into_iter()
+    .flatten()
     {
         if let Some(parent) = p.parent().filter(|p| !p.as_os_str().is_empty()) {
             std::fs::create_dir_all(parent)

@@ -352,3 +352,93 @@ impl<W: Write> Write for Splice<'_, W> {
         self.inner.flush()
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use serde_json::json;
+
+    /// Values with every layout case of the pretty printer: nested and empty containers,
+    /// strings holding brackets, commas, colons, quotes and backslashes, numbers, literals.
+    fn samples() -> Vec<serde_json::Value> {
+        vec![
+            json!({"a": 1, "b": [1, 2.5, -3e-7], "c": {}, "d": [], "e": null}),
+            json!([[], [[]], {}, [{}], {"x": []}, {"y": {"z": [true, false]}}]),
+            json!({"s": "a,b:c{d}[e]\"f\\g", "t": "\\", "u": "\\\"", "v": "é\n\t"}),
+            json!([1]),
+            json!({}),
+            json!("plain"),
+            json!({"k": [{"l": [{"m": 1}, 2]}, "{"]}),
+        ]
+    }
+
+    #[test]
+    fn re_indenting_compact_json_gives_the_pretty_printers_bytes() {
+        for v in samples() {
+            let compact = serde_json::to_vec(&v).unwrap();
+            let mut out = Vec::new();
+            pretty(&compact, 0, &mut out);
+            assert_eq!(
+                String::from_utf8(out).unwrap(),
+                serde_json::to_string_pretty(&v).unwrap()
+            );
+        }
+    }
+
+    #[test]
+    fn re_indenting_at_depth_two_matches_an_element_of_the_buildings_array() {
+        // Inside {"b": [v]} the element starts at depth 2: its lines are the pretty printer's.
+        for v in samples() {
+            let doc = serde_json::to_string_pretty(&json!({ "b": [v.clone()] })).unwrap();
+            let compact = serde_json::to_vec(&v).unwrap();
+            let mut out = b"{\n  \"b\": [\n    ".to_vec();
+            pretty(&compact, BUILDING_DEPTH, &mut out);
+            out.extend_from_slice(b"\n  ]\n}");
+            assert_eq!(String::from_utf8(out).unwrap(), doc);
+        }
+    }
+
+    #[test]
+    fn the_rank_and_funded_values_are_found_as_keys_not_inside_text() {
+        let text = br#"{"id":"\"rank\":5","name":"x\\","rank":17,"retrofit":{"note":"\"funded\":1","funded":null}}"#;
+        let mut out = Vec::new();
+        finish_building(text, 3, Some(true), &mut out).unwrap();
+        assert_eq!(
+            String::from_utf8(out).unwrap(),
+            r#"{"id":"\"rank\":5","name":"x\\","rank":3,"retrofit":{"note":"\"funded\":1","funded":true}}"#
+        );
+        // No retrofit: only the rank changes.
+        let text = br#"{"rank":0,"retrofit":null}"#;
+        let mut out = Vec::new();
+        finish_building(text, 12, Some(false), &mut out).unwrap();
+        assert_eq!(&out, br#"{"rank":12,"retrofit":null}"#);
+        // No rank key at all: an error, not a silently wrong document.
+        assert!(finish_building(b"{}", 1, None, &mut Vec::new()).is_err());
+    }
+
+    #[test]
+    fn the_splice_writer_fills_after_the_first_marker_only_even_across_writes() {
+        let mut got = Vec::new();
+        let mut fill = |w: &mut dyn Write| w.write_all(b"X");
+        {
+            let mut s = Splice {
+                inner: &mut got,
+                marker: b"\"b\": [",
+                matched: 0,
+                fill: Some(&mut fill),
+            };
+            for piece in [
+                &b"{\"a\": \"\\\"b\\\": [\", \"b"[..],
+                b"\": [",
+                b"], \"b\": []}",
+            ] {
+                s.write_all(piece).unwrap();
+            }
+            assert!(s.fill.is_none());
+        }
+        assert_eq!(
+            String::from_utf8(got).unwrap(),
+            r#"{"a": "\"b\": [", "b": [X], "b": []}"#
+        );
+    }
+}
