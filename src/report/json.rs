@@ -312,13 +312,16 @@ impl Drop for Spill {
     }
 }
 
+/// What a [`Splice`] calls to write the array's elements.
+type Fill<'a> = &'a mut dyn FnMut(&mut dyn Write) -> io::Result<()>;
+
 /// A writer that passes bytes through and, right after the first occurrence of `marker`,
 /// lets `fill` write (the elements of the `buildings` array, after its `[`).
 struct Splice<'a, W: Write> {
     inner: W,
     marker: &'a [u8],
     matched: usize,
-    fill: Option<&'a mut dyn FnMut(&mut dyn Write) -> io::Result<()>>,
+    fill: Option<Fill<'a>>,
 }
 
 impl<W: Write> Write for Splice<'_, W> {
