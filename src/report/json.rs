@@ -16,7 +16,7 @@
 //! the layout of `serde_json`'s pretty printer, so both paths give the same bytes.
 
 use std::fs::File;
-use std::io::{self, BufReader, BufWriter, Read, Seek, SeekFrom, Write};
+use std::io::{self, BufWriter, Read, Seek, SeekFrom, Write};
 use std::path::{Path, PathBuf};
 
 use super::ReportError;
@@ -240,7 +240,9 @@ impl Spill {
         if let Some(mut w) = self.w.take() {
             w.flush()?;
         }
-        let mut reader = BufReader::with_capacity(1 << 16, File::open(&self.path)?);
+        // Unbuffered: each object is one seek and one read of exactly its bytes (a buffered
+        // reader would refill its whole buffer after every seek).
+        let mut reader = File::open(&self.path)?;
         let index = std::mem::take(&mut self.index);
         let mut order = order;
         let mut fill = |w: &mut dyn Write| -> io::Result<()> {
