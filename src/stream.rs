@@ -19,7 +19,12 @@ environment variable for tests). The steps:
    (interface.md, large stocks). The Summary's charts and per-district figures are built from
    those first rows only (it says so); its counts cover every row.
 
-`--json` and `--geojson` are refused on this path (they need every full result).
+`--json` is streamed too: in step 2 each building's object is serialised (the same
+serialisation as the whole-stock path) to a spill file beside the JSON output, and in step 3
+the objects are copied into the document in rank order, with the rank and the budget plan's
+`funded` mark filled in ([`json::Spill`]); the spill file is removed afterwards (also on an
+error). `--geojson` is written in step 3 from the compact rows (its properties are the
+Priority columns). Both give the same bytes as the whole-stock path.
 */
 
 use std::collections::HashMap;
@@ -34,6 +39,7 @@ use crate::model::{Dir, FaultDistance, PerDir, Problem, Severity, Use};
 use crate::pipeline::{self, PipelineError, RunOptions};
 use crate::report::ReportError;
 use crate::report::atomic::temp_path;
+use crate::report::json::{self, Placed, Spill};
 use crate::report::workbook::tables::{self, RowCounts, Table, Target};
 use crate::report::workbook::{self, LARGE_PRIORITY_ROWS, Layout};
 use crate::results::{
@@ -159,10 +165,12 @@ struct Compact {
     flag_codes: String,
     floor_area_m2: f64,
     retrofit: Option<Box<Retrofit>>,
+    /// Position in file order (the slot of its object in the JSON spill).
+    slot: usize,
 }
 
 impl Compact {
-    fn of(b: BuildingResult) -> Self {
+    fn of(b: BuildingResult, slot: usize) -> Self {
         // Flag details are in the Flags file already; the codes are what Priority shows.
         let flag_codes = b.flag_codes().join(";");
         Compact {
@@ -190,6 +198,7 @@ impl Compact {
             flag_codes,
             floor_area_m2: b.detail.floor_area_m2,
             retrofit: b.retrofit.map(Box::new),
+            slot,
         }
     }
 
@@ -326,13 +335,25 @@ pub struct Streamed {
     pub written: Vec<(String, PathBuf)>,
 }
 
+/// The outputs asked for besides the workbook and its per-row CSV files.
+#[derive(Debug, Clone, Copy, Default)]
+pub struct Extras<'a> {
+    /// `--csv`: the Priority CSV.
+    pub priority_csv: Option<&'a Path>,
+    /// `--json`.
+    pub json: Option<&'a Path>,
+    /// `--geojson`.
+    pub geojson: Option<&'a Path>,
+}
+
 /// Screens a large CSV stock in chunks and writes the workbook `out`, its per-row CSV files
-/// beside it and, if asked, the Priority CSV `priority_csv`. `progress` gets rows screened.
+/// beside it and the `extras` asked for (not the JSON and GeoJSON when no building could be
+/// screened, as on the whole-stock path). `progress` gets rows screened.
 pub fn screen_to_files(
     path: &Path,
     opts: &RunOptions,
     out: &Path,
-    priority_csv: Option<&Path>,
+    extras: Extras<'_>,
     chunk_rows: usize,
     progress: &dyn Fn(u64),
 ) -> Result<Streamed, StreamError> {
@@ -376,6 +397,10 @@ pub fn screen_to_files(
     for t in [Table::Directions, Table::Walls, Table::Flags] {
         files.push(RowFile::create(out, t)?);
     }
+    let mut spill = match extras.json {
+        Some(p) => Some(Spill::create(p).map_err(write_err(p))?),
+        None => None,
+    };
     let mut kept: Vec<Compact> = Vec::new();
     let mut not_screened = Vec::new();
     let mut row_problems = Vec::new();
@@ -433,11 +458,16 @@ pub fn screen_to_files(
         counts.directions += 2 * part.buildings.len();
         counts.walls += part.buildings.iter().map(|b| b.walls.len()).sum::<usize>();
         counts.flags += part.buildings.iter().map(|b| b.flags.len()).sum::<usize>();
-        kept.extend(
-            std::mem::take(&mut part.buildings)
-                .into_iter()
-                .map(Compact::of),
-        );
+        for b in std::mem::take(&mut part.buildings) {
+            if let (Some(s), Some(p)) = (spill.as_mut(), extras.json)
+                && let Err(e) = s.push(&b)
+            {
+                failure = Some(write_err(p)(e));
+                return;
+            }
+            let slot = kept.len();
+            kept.push(Compact::of(b, slot));
+        }
         progress(rows_done);
     })?;
     if let Some(e) = failure {
@@ -502,7 +532,7 @@ pub fn screen_to_files(
     counts.not_screened = not_screened.len();
     counts.problems = all_problems.len();
 
-    let report = Report {
+    let mut report = Report {
         tool: "seistriage",
         version: env!("CARGO_PKG_VERSION"),
         input: InputInfo {
@@ -511,11 +541,32 @@ pub fn screen_to_files(
         },
         settings,
         counts: report_counts,
-        buildings: top,
+        buildings: Vec::new(),
         budget_plan,
         not_screened,
         problems: all_problems,
     };
+    // JSON and GeoJSON in rank order, while the compact rows are at hand.
+    let mut late = Vec::new();
+    if let (Some(p), Some(s)) = (extras.json, spill.take())
+        && !ranked.is_empty()
+    {
+        let order = ranked.iter().map(|c| Placed {
+            slot: c.slot,
+            rank: c.rank,
+            funded: c.retrofit.as_ref().and_then(|r| r.funded),
+        });
+        s.write_document(&report, order, json::is_compact(ranked.len()), p)
+            .map_err(write_err(p))?;
+        late.push(("JSON".to_string(), p.to_path_buf()));
+    }
+    if let Some(p) = extras.geojson
+        && !ranked.is_empty()
+    {
+        crate::report::geojson::write_buildings(ranked.iter().map(Compact::result), p)
+            .map_err(write_err(p))?;
+    }
+    report.buildings = top;
     let mut layout = Layout::plan(counts, ranked.len()).large_stock();
     layout.streamed = true;
     drop(ranked);
@@ -535,9 +586,15 @@ pub fn screen_to_files(
     .map_err(write_err(out))?;
     written.push(("workbook".to_string(), out.to_path_buf()));
     written.extend(extra);
-    if let Some(p) = priority_csv {
+    written.append(&mut late);
+    if let Some(p) = extras.priority_csv {
         std::fs::copy(&priority_path, p).map_err(|e| write_err(p)(ReportError::Io(e)))?;
         written.push(("CSV (Priority)".into(), p.to_path_buf()));
+    }
+    if let Some(p) = extras.geojson
+        && report.counts.screened > 0
+    {
+        written.push(("GeoJSON".into(), p.to_path_buf()));
     }
     Ok(Streamed { report, written })
 }

@@ -90,7 +90,7 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
     }
     let from = seistriage::stream::threshold();
     if seistriage::stream::applies(&o.inventory, from) {
-        return run_streamed(o, &out, from);
+        return run_streamed(o, &out);
     }
     let progress = Progress::spinner(o.quiet, "reading the inventory");
     let loaded = pipeline::load(&o.inventory, &o.run);
@@ -198,14 +198,16 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
 
 /// `screen` on the streaming path (a CSV stock above the threshold; see
 /// `seistriage::stream`): bounded memory, per-row tables as CSV files beside the workbook.
-fn run_streamed(o: &Options, out: &Path, from: usize) -> anyhow::Result<ExitCode> {
-    if o.json.is_some() || o.geojson.is_some() {
-        bail!(
-            "--json and --geojson are not available for a CSV inventory of more than {from} rows \
-             (it is screened in chunks to bound memory); use --csv and the workbook"
-        );
-    }
-    for p in [Some(out), o.csv.as_deref()].into_iter().flatten() {
+fn run_streamed(o: &Options, out: &Path) -> anyhow::Result<ExitCode> {
+    for p in [
+        Some(out),
+        o.json.as_deref(),
+        o.csv.as_deref(),
+        o.geojson.as_deref(),
+    ]
+    .into_iter()
+    .flatten()
+    {
         if let Some(parent) = p.parent().filter(|p| !p.as_os_str().is_empty()) {
             std::fs::create_dir_all(parent)
                 .with_context(|| format!("creating {}", parent.display()))?;
@@ -216,7 +218,11 @@ fn run_streamed(o: &Options, out: &Path, from: usize) -> anyhow::Result<ExitCode
         &o.inventory,
         &o.run,
         out,
-        o.csv.as_deref(),
+        seistriage::stream::Extras {
+            priority_csv: o.csv.as_deref(),
+            json: o.json.as_deref(),
+            geojson: o.geojson.as_deref(),
+        },
         seistriage::stream::chunk_rows(),
         &|n| progress.set(n),
     );

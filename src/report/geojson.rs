@@ -6,6 +6,7 @@ script reads either file. Non-finite numbers are written as null; buildings with
 coordinates (or with coordinates outside the WGS84 ranges) are left out.
 */
 
+use std::borrow::Borrow;
 use std::path::Path;
 
 use geojson::{Feature, FeatureWriter, Geometry, JsonObject, JsonValue};
@@ -56,10 +57,20 @@ pub fn feature(b: &BuildingResult) -> Option<Feature> {
 
 /// Writes the buildings with coordinates as GeoJSON points.
 pub fn write(report: &Report, path: &Path) -> Result<(), ReportError> {
+    write_buildings(&report.buildings, path)
+}
+
+/// Writes `buildings` (in rank order) that have coordinates as GeoJSON points: [`write`], and
+/// the streaming path from its compact rows (`crate::stream`).
+pub fn write_buildings<I>(buildings: I, path: &Path) -> Result<(), ReportError>
+where
+    I: IntoIterator,
+    I::Item: Borrow<BuildingResult>,
+{
     write_atomic(path, |w| {
         let mut fw = FeatureWriter::from_writer(w);
-        for b in &report.buildings {
-            if let Some(f) = feature(b) {
+        for b in buildings {
+            if let Some(f) = feature(b.borrow()) {
                 fw.write_feature(&f)?;
             }
         }

@@ -1,6 +1,6 @@
 //! The streaming path of `screen` for a large CSV stock (`seistriage::stream`), forced with a
 //! small threshold and small chunks, against the whole-stock path on the same inventory: the
-//! Priority CSV (ranks, budget marks) and the counts must be identical.
+//! Priority CSV (ranks, budget marks), the counts, the JSON and the GeoJSON must be identical.
 
 use std::path::Path;
 use std::process::{Command, Output};
@@ -149,11 +149,111 @@ fn streaming_path_gives_the_same_priority_csv_and_counts_as_the_whole_stock_path
     assert!(d.join("s/out.flags.csv").exists());
 }
 
+/// Files in `dir` whose names start with a dot (temporary and spill files).
+fn hidden_files(dir: &Path) -> Vec<String> {
+    std::fs::read_dir(dir)
+        .unwrap()
+        .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+        .filter(|n| n.starts_with('.'))
+        .collect()
+}
+
 #[test]
-fn streaming_path_refuses_json_with_a_clear_message() {
+fn streaming_path_writes_the_same_json_and_geojson_bytes_as_the_whole_stock_path() {
     let dir = tempfile::tempdir().unwrap();
     let d = dir.path();
     inventory(d);
+    let run = |from: &str, chunk: &str, sub: &str| {
+        let json = format!("{sub}/r.json");
+        let geo = format!("{sub}/g.geojson");
+        let out = format!("{sub}/out.xlsx");
+        let o = screen(
+            d,
+            from,
+            chunk,
+            &[
+                "stock.csv",
+                "--settings",
+                "s.toml",
+                "--out",
+                &out,
+                "--json",
+                &json,
+                "--geojson",
+                &geo,
+            ],
+        );
+        assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
+        let text = String::from_utf8_lossy(&o.stdout).into_owned();
+        assert!(text.contains(&json) && text.contains(&geo), "{text}");
+        (
+            std::fs::read(d.join(&json)).unwrap(),
+            std::fs::read(d.join(&geo)).unwrap(),
+        )
+    };
+    let (whole_json, whole_geo) = run("1000000", "20000", "w");
+    assert!(
+        !d.join("w/out.directions.csv").exists(),
+        "whole-stock path expected"
+    );
+    // Chunks of 37 rows: the repeated id's rows and the blank line fall in different chunks.
+    let (json, geo) = run("10", "37", "s");
+    assert!(
+        d.join("s/out.directions.csv").exists(),
+        "streaming path expected"
+    );
+    assert!(json == whole_json, "JSON differs between the paths");
+    assert!(geo == whole_geo, "GeoJSON differs between the paths");
+    assert_eq!(hidden_files(&d.join("s")), Vec::<String>::new());
+
+    // What the comparison covers: a parsed document with the whole stock in rank order,
+    // the budget's funded marks and the rows not screened.
+    let v: serde_json::Value = serde_json::from_slice(&json).unwrap();
+    let buildings = v["buildings"].as_array().unwrap();
+    let priority = std::fs::read_to_string(d.join("s/out.priority.csv")).unwrap();
+    assert_eq!(buildings.len(), priority.lines().count() - 1);
+    assert_eq!(
+        v["counts"]["screened"].as_u64(),
+        Some(buildings.len() as u64)
+    );
+    assert_eq!(v["counts"]["not_screened"].as_u64(), Some(3));
+    assert_eq!(v["not_screened"].as_array().unwrap().len(), 3);
+    let by_class: u64 = (1..=4)
+        .map(|c| v["counts"]["by_class"][c.to_string()].as_u64().unwrap())
+        .sum();
+    assert_eq!(by_class, buildings.len() as u64);
+    for (i, (b, line)) in buildings.iter().zip(priority.lines().skip(1)).enumerate() {
+        assert_eq!(b["rank"].as_u64(), Some(i as u64 + 1));
+        assert_eq!(Some(b["id"].as_str().unwrap()), line.split(',').nth(1));
+    }
+    let funded: Vec<&str> = buildings
+        .iter()
+        .filter(|b| b["retrofit"]["funded"] == serde_json::Value::Bool(true))
+        .map(|b| b["id"].as_str().unwrap())
+        .collect();
+    assert!(!funded.is_empty());
+    let walk: Vec<&str> = v["budget_plan"]["priority_walk"]["funded"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|f| f.as_str().unwrap())
+        .collect();
+    assert_eq!(funded, walk);
+    // The small stock is written indented, as on the whole-stock path.
+    assert!(json.starts_with(b"{\n  \"tool\": \"seistriage\""));
+    let g: serde_json::Value = serde_json::from_slice(&geo).unwrap();
+    assert_eq!(g["type"], "FeatureCollection");
+    assert!(!g["features"].as_array().unwrap().is_empty());
+}
+
+#[test]
+fn a_failed_json_write_on_the_streaming_path_leaves_no_spill_or_partial_file() {
+    let dir = tempfile::tempdir().unwrap();
+    let d = dir.path();
+    inventory(d);
+    // The JSON's name is taken by a folder, so the final rename fails after the spill and
+    // the temporary document have been written.
+    std::fs::create_dir_all(d.join("s/r.json/inside")).unwrap();
     let out = screen(
         d,
         "10",
@@ -170,6 +270,63 @@ fn streaming_path_refuses_json_with_a_clear_message() {
     );
     assert!(!out.status.success());
     let err = String::from_utf8_lossy(&out.stderr);
-    assert!(err.contains("--json") && err.contains("--csv"), "{err}");
-    assert!(!d.join("s/r.json").exists());
+    assert!(err.contains("r.json"), "{err}");
+    assert_eq!(hidden_files(&d.join("s")), Vec::<String>::new());
+    assert!(d.join("s/r.json/inside").is_dir());
+}
+
+/// The spill, in both layouts, against the whole-report writer on a hand-built report: the
+/// objects are spilled with a wrong rank and no funded mark, in reverse rank order, and the
+/// document must still be the whole-report writer's bytes.
+#[test]
+fn spilled_buildings_make_the_same_document_as_the_whole_report_writer() {
+    use seistriage::report::json::{self, Placed, Spill};
+    let report = super::sample::report(12);
+    assert!(
+        report
+            .buildings
+            .iter()
+            .any(|b| b.retrofit.as_ref().and_then(|r| r.funded) == Some(true))
+    );
+    let dir = tempfile::tempdir().unwrap();
+    let whole = dir.path().join("whole.json");
+    json::write(&report, &whole).unwrap();
+    for compact in [false, true] {
+        let path = dir.path().join(format!("spilled-{compact}.json"));
+        let mut spill = Spill::create(&path).unwrap();
+        let mut slots = Vec::new();
+        for b in report.buildings.iter().rev() {
+            let mut b = b.clone();
+            b.rank = 0;
+            if let Some(r) = b.retrofit.as_mut() {
+                r.funded = None;
+            }
+            slots.push(spill.push(&b).unwrap());
+        }
+        slots.reverse();
+        let mut head = report.clone();
+        head.buildings.clear();
+        let order = report
+            .buildings
+            .iter()
+            .zip(&slots)
+            .map(|(b, &slot)| Placed {
+                slot,
+                rank: b.rank,
+                funded: b.retrofit.as_ref().and_then(|r| r.funded),
+            });
+        spill.write_document(&head, order, compact, &path).unwrap();
+        let expected = if compact {
+            serde_json::to_vec(&report).unwrap()
+        } else {
+            std::fs::read(&whole).unwrap()
+        };
+        assert!(
+            std::fs::read(&path).unwrap() == expected,
+            "spilled document differs (compact: {compact})"
+        );
+    }
+    let mut left = hidden_files(dir.path());
+    left.sort();
+    assert_eq!(left, Vec::<String>::new(), "spill files left behind");
 }
