@@ -497,16 +497,16 @@ mod tests {
     fn size_building_none_when_not_needed_and_null_when_cap_short() {
         let s = Settings::default();
         let fine = result_with(3, 0.9, 0.8, 1000.0, 9.0);
-        assert!(size_building(&fine, &s, |_| Ok(fine.clone())).is_none());
+        assert!(size_building(&fine, &s, |_: &NewWalls| Ok(fine.clone())).is_none());
         // class 3 but above a lowered target → sized
         let s2 = Settings {
             retrofit_target_dcr: 0.85,
             ..Settings::default()
         };
-        assert!(size_building(&fine, &s2, |_| Ok(fine.clone())).is_some());
+        assert!(size_building(&fine, &s2, |_: &NewWalls| Ok(fine.clone())).is_some());
         // DCR does not fall at all → null, note, flags unchanged
         let bad = result_with(1, 3.0, 0.5, 1000.0, 9.0);
-        let rf = size_building(&bad, &s, |_| Ok(bad.clone())).unwrap();
+        let rf = size_building(&bad, &s, |_: &NewWalls| Ok(bad.clone())).unwrap();
         assert_eq!(rf.added_wall_area_m2.x, None);
         assert_eq!(rf.added_wall_area_m2.y, Some(0.0));
         assert!(rf.note.starts_with(NO_SOLUTION_NOTE), "{}", rf.note);
@@ -516,7 +516,7 @@ mod tests {
     fn size_building_reports_screen_failures() {
         let s = Settings::default();
         let base = result_with(1, 3.0, 0.5, 1000.0, 9.0);
-        let rf = size_building(&base, &s, |_| Err(vec!["boom".into()])).unwrap();
+        let rf = size_building(&base, &s, |_: &NewWalls| Err(vec!["boom".into()])).unwrap();
         assert_eq!(rf.added_wall_area_m2.x, None);
         assert!(rf.note.contains("boom"), "{}", rf.note);
     }
