@@ -29,7 +29,7 @@ Priority columns). Both give the same bytes as the whole-stock path.
 
 use std::collections::HashMap;
 use std::fs::File;
-use std::io::{BufWriter, Read};
+use std::io::{BufWriter, Read, Write};
 use std::path::{Path, PathBuf};
 
 use crate::engine::{self, rank};
@@ -288,7 +288,7 @@ struct RowFile {
     table: Table,
     path: PathBuf,
     tmp: PathBuf,
-    w: ::csv::Writer<BufWriter<File>>,
+    w: BufWriter<File>,
 }
 
 impl RowFile {
@@ -296,8 +296,13 @@ impl RowFile {
         let path = workbook::csv_path(out, table);
         let tmp = temp_path(&path);
         let f = File::create(&tmp).map_err(|e| write_err(&path)(ReportError::Io(e)))?;
-        let mut w = ::csv::Writer::from_writer(BufWriter::new(f));
-        crate::report::csv::write_header(table, &mut w).map_err(write_err(&path))?;
+        let mut w = BufWriter::new(f);
+        let mut header = ::csv::Writer::from_writer(&mut w);
+        crate::report::csv::write_header(table, &mut header).map_err(write_err(&path))?;
+        header
+            .flush()
+            .map_err(|e| write_err(&path)(ReportError::Io(e)))?;
+        drop(header);
         Ok(RowFile {
             table,
             path,

@@ -11,10 +11,12 @@ use std::borrow::Cow;
 use std::io::Write;
 use std::path::Path;
 
+use rayon::prelude::*;
+
 use super::ReportError;
 use super::atomic::write_atomic;
 use super::workbook::tables::{Cell, Table, Target};
-use crate::results::Report;
+use crate::results::{BuildingResult, Report};
 
 /// The formula-injection guard: prefixes `'` to text that a spreadsheet would run as a
 /// formula (leading `=`, `+`, `-`, `@`, tab or carriage return).
@@ -53,10 +55,13 @@ pub fn write_table<W: Write>(
     limit: usize,
     out: W,
 ) -> Result<(), ReportError> {
-    let mut w = ::csv::Writer::from_writer(out);
+    let mut out = out;
+    let mut w = ::csv::Writer::from_writer(&mut out);
     write_header(table, &mut w)?;
-    write_rows(report, table, limit, false, &mut w)?;
     w.flush()?;
+    drop(w);
+    write_rows(report, table, limit, false, &mut out)?;
+    out.flush()?;
     Ok(())
 }
 
@@ -66,7 +71,7 @@ pub fn write_header<W: Write>(table: Table, w: &mut ::csv::Writer<W>) -> Result<
     Ok(())
 }
 
-/// Appends up to `limit` rows of a table to a CSV writer. With `blank_rank` the first column
+/// Appends up to `limit` rows of a table, as CSV records, to `out`. With `blank_rank` the first column
 /// (the rank, for the tables that start with it) is left empty: the streaming path of a large
 /// stock writes Directions, Walls and Flags in file order, chunk by chunk, before the ranks
 /// are known.
@@ -75,12 +80,57 @@ pub fn write_rows<W: Write>(
     table: Table,
     limit: usize,
     blank_rank: bool,
-    w: &mut ::csv::Writer<W>,
+    out: &mut W,
 ) -> Result<(), ReportError> {
+    if table.per_building() && limit == usize::MAX {
+        // Every row of every building: formatted in parallel.
+        return write_building_rows(&report.buildings, table, blank_rank, out);
+    }
+    let mut w = ::csv::Writer::from_writer(out);
     let mut num = String::new();
     table.for_each_row(report, Target::Csv, limit, |cells| {
-        write_cells(cells, blank_rank, &mut num, w)
+        write_cells(cells, blank_rank, &mut num, &mut w)
     })?;
+    w.flush()?;
+    Ok(())
+}
+
+/// Buildings whose rows one task formats (a few hundred kB of text for Directions).
+const BUILDINGS_PER_TASK: usize = 512;
+/// Tasks per thread formatted before their text is written out (bounds the text held).
+const TASKS_PER_THREAD: usize = 4;
+
+/// Writes every row of the buildings in a per-building table ([`Table::per_building`]):
+/// runs of [`BUILDINGS_PER_TASK`] buildings are formatted in parallel into text, which is
+/// appended in building order, so the file is the one a sequential writer makes. Formatting
+/// numbers and text is most of the cost of a large stock's CSV files.
+pub fn write_building_rows<W: Write>(
+    buildings: &[BuildingResult],
+    table: Table,
+    blank_rank: bool,
+    out: &mut W,
+) -> Result<(), ReportError> {
+    let batch = BUILDINGS_PER_TASK * TASKS_PER_THREAD * rayon::current_num_threads().max(1);
+    for group in buildings.chunks(batch) {
+        let parts = group
+            .par_chunks(BUILDINGS_PER_TASK)
+            .map(|run| {
+                let mut pw = ::csv::Writer::from_writer(Vec::new());
+                let mut num = String::new();
+                let mut buf = Vec::with_capacity(table.columns().len());
+                for b in run {
+                    table.for_each_building_row(b, Target::Csv, &mut buf, |cells| {
+                        write_cells(cells, blank_rank, &mut num, &mut pw)
+                    })?;
+                }
+                pw.into_inner()
+                    .map_err(|e| ReportError::from(e.into_error()))
+            })
+            .collect::<Result<Vec<Vec<u8>>, ReportError>>()?;
+        for text in parts {
+            out.write_all(&text)?;
+        }
+    }
     Ok(())
 }
 

@@ -210,3 +210,48 @@ fn every_table_row_has_one_cell_per_column() {
         assert!(n > 0, "{t:?} has no rows in the sample");
     }
 }
+
+/// The per-building CSV tables are formatted in parallel runs of buildings: the file must be
+/// the one a sequential writer makes, row for row, whatever the thread count (enough
+/// buildings for several runs and several batches).
+#[test]
+fn per_building_csv_rows_in_parallel_equal_the_sequential_rows() {
+    use seistriage::report::workbook::tables::{Table, Target};
+    let report = sample::report(9_000);
+    for table in [
+        Table::Priority,
+        Table::Directions,
+        Table::Walls,
+        Table::Flags,
+    ] {
+        let mut sequential = Vec::new();
+        {
+            let mut w = csv::Writer::from_writer(&mut sequential);
+            let mut num = String::new();
+            table
+                .for_each_row(&report, Target::Csv, usize::MAX, |cells| {
+                    report::csv::write_cells(cells, true, &mut num, &mut w)
+                })
+                .unwrap();
+            w.flush().unwrap();
+        }
+        for threads in [1, 2, 3] {
+            let pool = rayon::ThreadPoolBuilder::new()
+                .num_threads(threads)
+                .build()
+                .unwrap();
+            let mut parallel = Vec::new();
+            pool.install(|| {
+                report::csv::write_rows(&report, table, usize::MAX, true, &mut parallel)
+            })
+            .unwrap();
+            assert!(!parallel.is_empty(), "{table:?}");
+            assert!(
+                parallel == sequential,
+                "{table:?} with {threads} threads: {} bytes against {}",
+                parallel.len(),
+                sequential.len()
+            );
+        }
+    }
+}

@@ -819,6 +819,53 @@ impl Table {
         )
     }
 
+    /// A table whose rows each belong to one building and depend on it alone (Priority,
+    /// Directions, Walls, Flags): its rows can be made for any run of buildings, in
+    /// parallel ([`Table::for_each_building_row`]).
+    pub fn per_building(self) -> bool {
+        matches!(
+            self,
+            Table::Priority | Table::Directions | Table::Walls | Table::Flags
+        )
+    }
+
+    /// Emits the rows of one building in a per-building table (see
+    /// [`Table::per_building`]; nothing for the others). `buf` is scratch space.
+    pub fn for_each_building_row<'a, E>(
+        self,
+        b: &'a BuildingResult,
+        target: Target,
+        buf: &mut Vec<Cell<'a>>,
+        mut emit: impl FnMut(&[Cell<'a>]) -> Result<(), E>,
+    ) -> Result<(), E> {
+        match self {
+            Table::Priority => {
+                priority_row(b, target, buf);
+                emit(buf)?;
+            }
+            Table::Directions => {
+                for d in Dir::BOTH {
+                    direction_row(b, d, buf);
+                    emit(buf)?;
+                }
+            }
+            Table::Walls => {
+                for w in &b.walls {
+                    wall_row(b, w, buf);
+                    emit(buf)?;
+                }
+            }
+            Table::Flags => {
+                for f in &b.flags {
+                    flag_row(b, f, buf);
+                    emit(buf)?;
+                }
+            }
+            Table::Retrofit | Table::NotScreened | Table::Problems => {}
+        }
+        Ok(())
+    }
+
     /// The `<sheet>` part of `<out stem>.<sheet>.csv`.
     pub fn file_tag(self) -> &'static str {
         match self {
@@ -864,10 +911,21 @@ impl Table {
             }};
         }
         match self {
-            Table::Priority => {
+            Table::Priority | Table::Directions | Table::Walls | Table::Flags => {
                 for b in &report.buildings {
-                    priority_row(b, target, &mut buf);
-                    push!();
+                    let mut full = false;
+                    self.for_each_building_row(b, target, &mut buf, |cells| {
+                        if n >= limit {
+                            full = true;
+                            return Ok(());
+                        }
+                        emit(cells)?;
+                        n += 1;
+                        Ok(())
+                    })?;
+                    if full {
+                        return Ok(());
+                    }
                 }
             }
             Table::Retrofit => {
@@ -881,30 +939,6 @@ impl Table {
                     let cum = (cum_known && funding_cost(b).is_some()).then_some(cumulative);
                     retrofit_row(b, cum, target, &mut buf);
                     push!();
-                }
-            }
-            Table::Directions => {
-                for b in &report.buildings {
-                    for d in Dir::BOTH {
-                        direction_row(b, d, &mut buf);
-                        push!();
-                    }
-                }
-            }
-            Table::Walls => {
-                for b in &report.buildings {
-                    for w in &b.walls {
-                        wall_row(b, w, &mut buf);
-                        push!();
-                    }
-                }
-            }
-            Table::Flags => {
-                for b in &report.buildings {
-                    for f in &b.flags {
-                        flag_row(b, f, &mut buf);
-                        push!();
-                    }
                 }
             }
             Table::NotScreened => {
