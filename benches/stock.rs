@@ -8,7 +8,8 @@
 //!     cargo bench --bench stock                       # 10,000 buildings, .xlsx
 //!     STOCK_SIZES=10000:xlsx,100000:xlsx,1000000:csv cargo bench --bench stock
 //!
-//! Two writing floors are measured, both at the writer's zip level:
+//! Two writing floors are measured, both at the writer's zip level and both filling their
+//! sheets in parallel over the threads as the real writer does:
 //! - `floor-w` (like for like): the very cells of the written workbook (numbers as numbers,
 //!   text as text, read back with calamine beforehand, untimed) written again without
 //!   formats in constant-memory mode, plus the per-row CSV files of a large stock copied
@@ -28,10 +29,12 @@ use std::path::{Path, PathBuf};
 use std::process::Command;
 use std::time::{Duration, Instant};
 
-use calamine::{Data, Reader, open_workbook_auto};
-use rust_xlsxwriter::Workbook;
+use calamine::{Data, Range, Reader, open_workbook_auto};
+use rayon::prelude::*;
+use rust_xlsxwriter::{Workbook, Worksheet};
 use seistriage::input::{ReadOptions, read_inventory};
 use seistriage::pipeline::{self, RunOptions};
+use seistriage::report::workbook;
 
 fn secs(d: Duration) -> f64 {
     d.as_secs_f64()
@@ -51,25 +54,76 @@ fn sheet_shapes(path: &Path) -> Vec<(String, usize, usize)> {
         .collect()
 }
 
-/// The writing floor: the same sheets with the same shapes, filled with numbers that need
-/// no computing, in constant-memory mode (the cheapest way rust_xlsxwriter writes), at the
-/// zip compression level of the real writer (like for like).
-fn write_floor(shapes: &[(String, usize, usize)], out: &Path) -> Duration {
-    let t = Instant::now();
-    let mut wb = Workbook::new();
-    wb.set_zip_compression_level(seistriage::report::workbook::ZIP_LEVEL);
-    wb.use_zip_large_file(true);
-    for (name, rows, cols) in shapes {
-        let ws = wb.add_worksheet_with_constant_memory().unwrap();
-        ws.set_name(name).unwrap();
-        for r in 0..*rows {
-            for c in 0..*cols {
-                ws.write_number(r as u32, c as u16, (r * 7 + c) as f64 * 0.001)
-                    .unwrap();
-            }
+/// Fills standalone constant-memory sheets in parallel, spread over the threads by cell
+/// count with the writer's own rule ([`workbook::balance`]), adds them in order and saves:
+/// the cheapest way rust_xlsxwriter writes these cells on this machine, as the real writer
+/// does it.
+fn fill_and_save<T: Sync>(
+    wb: &mut Workbook,
+    sheets: &[(String, T)],
+    cells: impl Fn(&T) -> u64,
+    fill: impl Fn(&mut Worksheet, &T) + Sync,
+    out: &Path,
+) {
+    let mut ws: Vec<Worksheet> = sheets
+        .iter()
+        .map(|(name, _)| {
+            let mut w = wb.new_worksheet_with_constant_memory().unwrap();
+            w.set_name(name).unwrap();
+            w
+        })
+        .collect();
+    let weights: Vec<u64> = sheets.iter().map(|(_, t)| cells(t)).collect();
+    let threads = rayon::current_num_threads().max(1);
+    let mut bins: Vec<Vec<(&mut Worksheet, &T)>> = (0..threads).map(|_| Vec::new()).collect();
+    for ((w, (_, t)), bin) in ws
+        .iter_mut()
+        .zip(sheets)
+        .zip(workbook::balance(&weights, threads))
+    {
+        bins[bin].push((w, t));
+    }
+    bins.into_par_iter().for_each(|bin| {
+        for (w, t) in bin {
+            fill(w, t);
         }
+    });
+    for w in ws {
+        wb.push_worksheet(w);
     }
     wb.save(out).unwrap();
+}
+
+/// A workbook at the real writer's zip level.
+fn floor_workbook() -> Workbook {
+    let mut wb = Workbook::new();
+    wb.set_zip_compression_level(workbook::ZIP_LEVEL);
+    wb.use_zip_large_file(true);
+    wb
+}
+
+/// The writing floor: the same sheets with the same shapes, filled with numbers that need
+/// no computing, in constant-memory mode, at the zip compression level of the real writer.
+fn write_floor(shapes: &[(String, usize, usize)], out: &Path) -> Duration {
+    let t = Instant::now();
+    let sheets: Vec<(String, (usize, usize))> = shapes
+        .iter()
+        .map(|(n, r, c)| (n.clone(), (*r, *c)))
+        .collect();
+    fill_and_save(
+        &mut floor_workbook(),
+        &sheets,
+        |(r, c)| (*r * *c) as u64,
+        |ws, (rows, cols)| {
+            for r in 0..*rows {
+                for c in 0..*cols {
+                    ws.write_number(r as u32, c as u16, (r * 7 + c) as f64 * 0.001)
+                        .unwrap();
+                }
+            }
+        },
+        out,
+    );
     t.elapsed()
 }
 
@@ -79,46 +133,47 @@ fn write_floor(shapes: &[(String, usize, usize)], out: &Path) -> Duration {
 fn write_same_cells(written: &Path, out: &Path) -> Duration {
     let mut source = open_workbook_auto(written).expect("open written workbook");
     let names = source.sheet_names().to_vec();
-    let mut timed = Duration::ZERO;
-    let mut wb = Workbook::new();
-    wb.set_zip_compression_level(seistriage::report::workbook::ZIP_LEVEL);
-    wb.use_zip_large_file(true);
-    for name in names {
-        let Ok(range) = source.worksheet_range(&name) else {
-            continue;
-        };
-        let t = Instant::now();
-        let ws = wb.add_worksheet_with_constant_memory().unwrap();
-        ws.set_name(&name).unwrap();
-        let (r0, c0) = range.start().unwrap_or((0, 0));
-        for (r, row) in range.rows().enumerate() {
-            for (c, cell) in row.iter().enumerate() {
-                let (r, c) = (r0 + r as u32, (c0 as usize + c) as u16);
-                match cell {
-                    Data::Empty => {}
-                    Data::Float(v) => {
-                        ws.write_number(r, c, *v).unwrap();
-                    }
-                    Data::Int(v) => {
-                        ws.write_number(r, c, *v as f64).unwrap();
-                    }
-                    Data::String(v) => {
-                        ws.write_string(r, c, v).unwrap();
-                    }
-                    Data::Bool(v) => {
-                        ws.write_boolean(r, c, *v).unwrap();
-                    }
-                    other => {
-                        ws.write_string(r, c, other.to_string()).unwrap();
+    let sheets: Vec<(String, Range<Data>)> = names
+        .into_iter()
+        .filter_map(|n| source.worksheet_range(&n).ok().map(|r| (n, r)))
+        .collect();
+    let t = Instant::now();
+    fill_and_save(
+        &mut floor_workbook(),
+        &sheets,
+        |range| {
+            let (h, w) = range.get_size();
+            (h * w) as u64
+        },
+        |ws, range| {
+            let (r0, c0) = range.start().unwrap_or((0, 0));
+            for (r, row) in range.rows().enumerate() {
+                for (c, cell) in row.iter().enumerate() {
+                    let (r, c) = (r0 + r as u32, (c0 as usize + c) as u16);
+                    match cell {
+                        Data::Empty => {}
+                        Data::Float(v) => {
+                            ws.write_number(r, c, *v).unwrap();
+                        }
+                        Data::Int(v) => {
+                            ws.write_number(r, c, *v as f64).unwrap();
+                        }
+                        Data::String(v) => {
+                            ws.write_string(r, c, v).unwrap();
+                        }
+                        Data::Bool(v) => {
+                            ws.write_boolean(r, c, *v).unwrap();
+                        }
+                        other => {
+                            ws.write_string(r, c, other.to_string()).unwrap();
+                        }
                     }
                 }
             }
-        }
-        timed += t.elapsed();
-    }
-    let t = Instant::now();
-    wb.save(out).unwrap();
-    timed + t.elapsed()
+        },
+        out,
+    );
+    t.elapsed()
 }
 
 /// The like-for-like floor of a large stock's CSV table: its records copied to another CSV
@@ -234,7 +289,7 @@ fn main() {
         let report = pipeline::screen(&loaded);
         let engine = t.elapsed();
         let t = Instant::now();
-        let extra = seistriage::report::workbook::write(&report, &out).expect("write");
+        let extra = workbook::write(&report, &out).expect("write");
         let write = t.elapsed();
         drop(report);
         drop(loaded);

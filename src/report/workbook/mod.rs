@@ -322,7 +322,7 @@ pub fn write_with_layout_except(
 /// Spreads jobs of the given weights over `bins` workers, largest first onto the least loaded
 /// (the longest-processing-time rule); returns each job's bin. The Directions sheet alone
 /// holds about half the cells of a workbook, so on two threads it gets one to itself.
-fn balance(weights: &[u64], bins: usize) -> Vec<usize> {
+pub fn balance(weights: &[u64], bins: usize) -> Vec<usize> {
     let bins = bins.max(1);
     let mut order: Vec<usize> = (0..weights.len()).collect();
     order.sort_by_key(|&i| std::cmp::Reverse(weights.get(i).copied().unwrap_or(0)));
