@@ -50,18 +50,7 @@ fn xlsx_dimension_ending_before_it_starts_is_unreadable_not_a_panic() {
     let dir = tempfile::tempdir().unwrap();
     let src = dir.path().join("ok.xlsx");
     let mut wb = rust_xlsxwriter::Workbook::new();
-    let ws = wb.add_worksheet();
-    ws.set_name("buildings").unwrap();
-    for (c, h) in ["id", "storeys", "plan_area_m2", "column_area_m2"]
-        .iter()
-        .enumerate()
-    {
-        ws.write_string(0, c as u16, *h).unwrap();
-    }
-    ws.write_string(1, 0, "A").unwrap();
-    ws.write_number(1, 1, 3.0).unwrap();
-    ws.write_number(1, 2, 200.0).unwrap();
-    ws.write_number(1, 3, 2.0).unwrap();
+    one_building_sheet(&mut wb);
     wb.save(&src).unwrap();
     let mut z = zip::ZipArchive::new(std::fs::File::open(&src).unwrap()).unwrap();
     let bad = dir.path().join("bad.xlsx");
@@ -175,18 +164,7 @@ fn settings_sheet_problems_in_a_workbook_carry_the_spreadsheet_row() {
     let dir = tempfile::tempdir().unwrap();
     let p = dir.path().join("w.xlsx");
     let mut wb = rust_xlsxwriter::Workbook::new();
-    let ws = wb.add_worksheet();
-    ws.set_name("buildings").unwrap();
-    for (c, h) in ["id", "storeys", "plan_area_m2", "column_area_m2"]
-        .iter()
-        .enumerate()
-    {
-        ws.write_string(0, c as u16, *h).unwrap();
-    }
-    ws.write_string(1, 0, "A").unwrap();
-    ws.write_number(1, 1, 3.0).unwrap();
-    ws.write_number(1, 2, 200.0).unwrap();
-    ws.write_number(1, 3, 2.0).unwrap();
+    one_building_sheet(&mut wb);
     let ws = wb.add_worksheet();
     ws.set_name("settings").unwrap();
     ws.write_string(0, 0, "Invented project settings").unwrap();
@@ -374,4 +352,21 @@ fn district_ring_crossing_the_antimeridian_unsplit_covers_its_own_side() {
     assert_eq!(name(-30.5, 180.0), some("Cut"));
     assert_eq!(name(-30.5, -180.0), some("Cut"));
     assert_eq!(name(-30.5, 0.0), None);
+}
+
+/// A `buildings` sheet with the required columns and one building (A: 3 storeys, 200 m²,
+/// 2 m² of columns).
+fn one_building_sheet(wb: &mut rust_xlsxwriter::Workbook) {
+    let ws = wb.add_worksheet();
+    ws.set_name("buildings").unwrap();
+    for (c, h) in ["id", "storeys", "plan_area_m2", "column_area_m2"]
+        .iter()
+        .enumerate()
+    {
+        ws.write_string(0, c as u16, *h).unwrap();
+    }
+    ws.write_string(1, 0, "A").unwrap();
+    ws.write_number(1, 1, 3.0).unwrap();
+    ws.write_number(1, 2, 200.0).unwrap();
+    ws.write_number(1, 3, 2.0).unwrap();
 }

@@ -160,7 +160,6 @@ fn truncation_problems(spec: &SheetSpec, row: &RawRow, cols: &[usize]) -> Vec<Pr
 fn run_sheet(
     spec: &'static SheetSpec,
     sheet_name: &str,
-    header_row: Option<usize>,
     decimal_comma: bool,
     opts: &ReadOptions,
     path: &str,
@@ -176,6 +175,12 @@ fn run_sheet(
         collected,
     };
     let mut cut = Vec::new();
+    // `--header-row` names the buildings sheet's header; the other sheets find theirs.
+    let header_row = if spec.name == BUILDINGS.name {
+        opts.header_row
+    } else {
+        None
+    };
     let mut reader = SheetReader::new(spec, sheet_name, header_row, &opts.budget, path, |row| {
         run.consume(row)
     });
@@ -414,7 +419,7 @@ fn read_workbook(
     // The "buildings" problem above (if any) is kept in front.
     let first_problems = std::mem::take(&mut collected.borrow_mut().sheet_problems);
     if let Some(name) = find(&SETTINGS).filter(|n| *n != buildings) {
-        run_sheet(&SETTINGS, &name, None, false, opts, &p, collected, |sink| {
+        run_sheet(&SETTINGS, &name, false, opts, &p, collected, |sink| {
             wb.read_sheet(&name, &p, &budget, counter, sink)
         })?;
     }
@@ -429,21 +434,9 @@ fn read_workbook(
     ];
     for (spec, name) in sheets {
         let Some(name) = name else { continue };
-        let header_row = if spec.name == "buildings" {
-            opts.header_row
-        } else {
-            None
-        };
-        run_sheet(
-            spec,
-            &name,
-            header_row,
-            false,
-            opts,
-            &p,
-            collected,
-            |sink| wb.read_sheet(&name, &p, &budget, counter, sink),
-        )?;
+        run_sheet(spec, &name, false, opts, &p, collected, |sink| {
+            wb.read_sheet(&name, &p, &budget, counter, sink)
+        })?;
     }
     collected
         .borrow_mut()
@@ -506,24 +499,10 @@ fn read_one_csv(
     let mut info = None;
     // The delimiter is known only once the file is sniffed; numbers are parsed after.
     let bytes_info = csv_info(file, &opts.budget)?;
-    let header_row = if spec.name == "buildings" {
-        opts.header_row
-    } else {
-        None
-    };
-    run_sheet(
-        spec,
-        spec.name,
-        header_row,
-        bytes_info,
-        opts,
-        &fp,
-        collected,
-        |sink| {
-            info = Some(csv::read_csv(file, &opts.budget, counter, sink)?);
-            Ok(())
-        },
-    )?;
+    run_sheet(spec, spec.name, bytes_info, opts, &fp, collected, |sink| {
+        info = Some(csv::read_csv(file, &opts.budget, counter, sink)?);
+        Ok(())
+    })?;
     if let Some(i) = info
         && i.windows_1252
     {
