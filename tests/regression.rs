@@ -115,3 +115,80 @@ fn csv_title_line_above_a_semicolon_header_does_not_hide_the_delimiter() {
     assert_eq!(inv.buildings[0].plan_area_m2, 212.5);
     assert_eq!(inv.buildings[0].row, 4);
 }
+
+/// Reads one of the fuzz-found files kept in tests/regression_inputs/.
+fn read_regression_input(name: &str) -> Result<seistriage::model::Inventory, String> {
+    let p = std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("tests/regression_inputs")
+        .join(name);
+    assert!(p.is_file(), "{}", p.display());
+    let r = read_inventory(&p, &ReadOptions::default()).map_err(|e| e.to_string());
+    assert_eq!(seistriage::input::guard::own_panics(), 0);
+    r
+}
+
+/// Found by cargo-fuzz (target `inventory_xlsx`, 2026-12-02): calamine reserves room for the
+/// `uniqueCount` of the shared-strings part before reading any text, so a 3 kB .xlsx whose
+/// `<sst uniqueCount="33333333337">` made it ask for 800 GB and the process abort (not a
+/// panic: nothing to catch). The count is now checked against the part's size before
+/// calamine opens the file.
+#[test]
+fn xlsx_shared_strings_declaring_33_billion_texts_is_refused_before_allocation() {
+    let e =
+        read_regression_input("xlsx-shared-strings-declaring-33-billion-texts.xlsx").unwrap_err();
+    assert!(
+        e.contains("declares 33333333337 texts in") && e.contains("cannot read the file"),
+        "{e}"
+    );
+}
+
+/// A truthful `uniqueCount` (the count of `<si>` entries) passes the check above.
+#[test]
+fn xlsx_shared_strings_with_a_true_count_are_read() {
+    use std::io::{Read, Write};
+    let src = std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("tests/regression_inputs/xlsx-shared-strings-declaring-33-billion-texts.xlsx");
+    let mut z = zip::ZipArchive::new(std::fs::File::open(src).unwrap()).unwrap();
+    let dir = tempfile::tempdir().unwrap();
+    let p = dir.path().join("true-count.xlsx");
+    let mut out = zip::ZipWriter::new(std::fs::File::create(&p).unwrap());
+    for i in 0..z.len() {
+        let mut f = z.by_index(i).unwrap();
+        let name = f.name().unwrap().to_string();
+        let mut b = String::new();
+        f.read_to_string(&mut b).unwrap();
+        let b = b.replace("uniqueCount=\"33333333337\"", "uniqueCount=\"5\"");
+        out.start_file(name.as_str(), zip::write::SimpleFileOptions::default())
+            .unwrap();
+        out.write_all(b.as_bytes()).unwrap();
+    }
+    out.finish().unwrap();
+    let inv = read_inventory(&p, &ReadOptions::default()).unwrap();
+    assert_eq!(inv.buildings.len(), 1, "{:#?}", inv.problems);
+    assert_eq!(inv.buildings[0].id, "A");
+}
+
+/// Found by cargo-fuzz (target `inventory_xls`, 2026-12-02): a BOUNDSHEET record pointing
+/// into the middle of the stream, where calamine then read a DIMENSIONS record of about
+/// 620 million rows × 1,024 columns and reserved that grid up front (the process aborted).
+/// The .xls pre-scan followed the substreams in file order only and did not look at
+/// DIMENSIONS; it now reads each sheet where calamine reads it, DIMENSIONS included.
+#[test]
+fn xls_sheet_position_onto_a_huge_dimensions_record_is_refused_before_allocation() {
+    let e =
+        read_regression_input("xls-sheet-position-onto-a-huge-dimensions-record.xls").unwrap_err();
+    assert!(
+        e.contains("refused") && e.contains("620756995 rows × 1024 columns"),
+        "{e}"
+    );
+}
+
+/// Found by cargo-fuzz (target `inventory_ods`, 2026-12-02): calamine's table loop waits for
+/// `</table:table>` and never sees the end of the file, so an .ods whose content.xml ends
+/// inside a table made it loop forever. The .ods pre-scan now refuses a content.xml that ends
+/// inside an open element.
+#[test]
+fn ods_content_cut_inside_a_table_is_unreadable_not_a_hang() {
+    let e = read_regression_input("ods-content-cut-inside-a-table.ods").unwrap_err();
+    assert!(e.contains("unclosed element"), "{e}");
+}

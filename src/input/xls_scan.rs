@@ -137,19 +137,145 @@ fn workbook_stream(file: &[u8]) -> Option<Vec<u8>> {
     Some(out)
 }
 
-/// The grid extent of every worksheet substream of an `.xls` file, in file order; `None`
-/// when the file is not a compound file with a readable workbook stream (calamine then
-/// reports the problem).
+/// One BIFF record at `at`: (type, data, offset of the next record), as calamine's record
+/// iterator reads it; `None` when the stream ends inside the record header or data.
+fn record(wb: &[u8], at: usize) -> Option<(u16, &[u8], usize)> {
+    let typ = u16_at(wb, at)?;
+    let len = usize::from(u16_at(wb, at + 2)?);
+    let next = at.checked_add(4 + len)?;
+    Some((typ, wb.get(at + 4..next)?, next))
+}
+
+/// The cells calamine reserves for a sheet's DIMENSIONS record (BIFF8: first row u32, last
+/// row + 1 u32, first column u16, last column + 1 u16; BIFF2–5: all u16), as rows × columns:
+/// calamine computes `last − first + 1` in 32 bits before it reserves, so a declared last row
+/// before the first wraps to about 2³² rows (its debug build panics instead).
+fn dimensions_extent(data: &[u8]) -> Option<Extent> {
+    let (rf, rl, mut cf, cl) = match data.len() {
+        10 => (
+            u32::from(u16_at(data, 0)?),
+            u32::from(u16_at(data, 2)?),
+            u32::from(u16_at(data, 4)?),
+            u32::from(u16_at(data, 6)?),
+        ),
+        14 | 16 => (
+            u32_at(data, 0)?,
+            u32_at(data, 4)?,
+            u32::from(u16_at(data, 8)?),
+            u32::from(u16_at(data, 10)?),
+        ),
+        _ => return None,
+    };
+    if cf > 0xFF || cl < cf {
+        cf = 0;
+    }
+    let (end_r, end_c) = if rl >= 1 && cl >= 1 {
+        (rl - 1, cl - 1)
+    } else {
+        (rf, cf)
+    };
+    Some(Extent {
+        rows: u64::from(end_r.wrapping_sub(rf).wrapping_add(1)),
+        cols: u64::from(end_c.wrapping_sub(cf).wrapping_add(1)),
+    })
+}
+
+/// Folds one worksheet record into the extent of its sheet.
+fn add_record(e: &mut Extent, typ: u16, data: &[u8]) {
+    let mut grow = |rows: u64, cols: u64| {
+        e.rows = e.rows.max(rows);
+        e.cols = e.cols.max(cols);
+    };
+    match typ {
+        // DIMENSIONS: calamine reserves its rectangle up front.
+        0x0200 => {
+            if let Some(d) = dimensions_extent(data) {
+                grow(d.rows, d.cols);
+            }
+        }
+        // NUMBER, LABEL, LABELSST, RK, BOOLERR, FORMULA, RSTRING.
+        0x0203 | 0x0204 | 0x00FD | 0x027E | 0x0205 | 0x0006 | 0x00D6 => {
+            if let (Some(r), Some(c)) = (u16_at(data, 0), u16_at(data, 2)) {
+                grow(u64::from(r) + 1, u64::from(c) + 1);
+            }
+        }
+        // MULRK: row, first column, …, last column in the final two bytes.
+        0x00BD => {
+            if let (Some(r), Some(c)) = (
+                u16_at(data, 0),
+                data.len().checked_sub(2).and_then(|k| u16_at(data, k)),
+            ) {
+                grow(u64::from(r) + 1, u64::from(c) + 1);
+            }
+        }
+        _ => {}
+    }
+}
+
+/// The extent of the worksheet whose BOF calamine reads at `pos` (the position a BOUNDSHEET
+/// record gives), read as calamine reads it: records up to the sheet's EOF, nested substreams
+/// (embedded charts) skipped.
+fn sheet_at(wb: &[u8], pos: usize) -> Extent {
+    let mut e = Extent::default();
+    let (mut at, mut seen_bof, mut depth) = (pos, false, 0usize);
+    while let Some((typ, data, next)) = record(wb, at) {
+        at = next;
+        if depth > 0 {
+            match typ {
+                0x0809 => depth += 1,
+                0x000A => depth -= 1,
+                _ => {}
+            }
+            continue;
+        }
+        match typ {
+            0x0809 if seen_bof => depth += 1,
+            0x0809 => seen_bof = true,
+            0x000A => break,
+            _ => add_record(&mut e, typ, data),
+        }
+    }
+    e
+}
+
+/// The grid extent of every worksheet of an `.xls` file; `None` when the file is not a
+/// compound file with a readable workbook stream (calamine then reports the problem).
+///
+/// Worksheets are read as calamine reads them: at each position a BOUNDSHEET record of the
+/// workbook globals names, in that order, up to the sheet's EOF with nested substreams
+/// skipped (found by fuzzing: a position that is not where the file-order walk sees a
+/// substream, with a DIMENSIONS record there, made calamine reserve terabytes). Substreams
+/// that no BOUNDSHEET names follow, in file order. A sheet's extent covers its cells from A1
+/// and the rectangle its DIMENSIONS record declares (calamine reserves that many cells
+/// before it reads any).
 pub fn sheet_extents(file: &[u8]) -> Option<Vec<Extent>> {
     let wb = workbook_stream(file)?;
-    let mut out = Vec::new();
+    // The workbook globals: records up to the first EOF.
+    let mut positions = Vec::new();
+    let mut at = 0usize;
+    while let Some((typ, data, next)) = record(&wb, at) {
+        at = next;
+        match typ {
+            0x0085 => positions.extend(u32_at(data, 0).map(|p| p as usize)),
+            0x000A => break,
+            _ => {}
+        }
+    }
+    // A position named twice gives the same extent: scan it once.
+    let mut seen = std::collections::HashSet::new();
+    positions.retain(|p| seen.insert(*p));
+    let mut out: Vec<Extent> = positions
+        .iter()
+        .map(|&pos| sheet_at(&wb, pos))
+        .filter(|e| e.rows > 0)
+        .collect();
+    // Every other substream, in file order.
     let mut cur: Option<Extent> = None;
     let mut at = 0usize;
     while let (Some(typ), Some(len)) = (u16_at(&wb, at), u16_at(&wb, at + 2)) {
         let data = wb.get(at + 4..at + 4 + usize::from(len)).unwrap_or(&[]);
-        at += 4 + usize::from(len);
         match typ {
-            0x0809 => cur = Some(Extent::default()),
+            0x0809 => cur = (!seen.contains(&at)).then(Extent::default),
             0x000A => {
                 if let Some(e) = cur.take()
                     && e.rows > 0
@@ -157,28 +283,54 @@ pub fn sheet_extents(file: &[u8]) -> Option<Vec<Extent>> {
                     out.push(e);
                 }
             }
-            // NUMBER, LABEL, LABELSST, RK, BOOLERR, FORMULA, RSTRING.
-            0x0203 | 0x0204 | 0x00FD | 0x027E | 0x0205 | 0x0006 | 0x00D6 => {
-                if let (Some(e), Some(r), Some(c)) =
-                    (cur.as_mut(), u16_at(data, 0), u16_at(data, 2))
-                {
-                    e.rows = e.rows.max(u64::from(r) + 1);
-                    e.cols = e.cols.max(u64::from(c) + 1);
+            _ => {
+                if let Some(e) = cur.as_mut() {
+                    add_record(e, typ, data);
                 }
             }
-            // MULRK: row, first column, …, last column in the final two bytes.
-            0x00BD => {
-                if let (Some(e), Some(r), Some(c)) = (
-                    cur.as_mut(),
-                    u16_at(data, 0),
-                    data.len().checked_sub(2).and_then(|k| u16_at(data, k)),
-                ) {
-                    e.rows = e.rows.max(u64::from(r) + 1);
-                    e.cols = e.cols.max(u64::from(c) + 1);
-                }
-            }
-            _ => {}
         }
+        at += 4 + usize::from(len);
     }
     Some(out)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn dims(rf: u32, rl: u32, cf: u16, cl: u16) -> Vec<u8> {
+        [
+            &rf.to_le_bytes()[..],
+            &rl.to_le_bytes(),
+            &cf.to_le_bytes(),
+            &cl.to_le_bytes(),
+            &[0, 0],
+        ]
+        .concat()
+    }
+
+    #[test]
+    fn dimensions_give_the_rectangle_calamine_reserves() {
+        // BIFF8 DIMENSIONS: last row and column are one past the end ([MS-XLS] 2.4.90).
+        assert_eq!(
+            dimensions_extent(&dims(0, 4, 0, 39)),
+            Some(Extent { rows: 4, cols: 39 })
+        );
+        assert_eq!(
+            dimensions_extent(&dims(2, 10, 1, 5)),
+            Some(Extent { rows: 8, cols: 4 })
+        );
+        // Empty sheet: one cell.
+        assert_eq!(
+            dimensions_extent(&dims(0, 0, 0, 0)),
+            Some(Extent { rows: 1, cols: 1 })
+        );
+        // A last row before the first wraps in calamine's 32-bit arithmetic:
+        // (5 − 1) − 10 + 1 = −5, that is 2³² − 5 rows.
+        assert_eq!(
+            dimensions_extent(&dims(10, 5, 0, 1)).map(|e| e.rows),
+            Some((1u64 << 32) - 5)
+        );
+        assert_eq!(dimensions_extent(&[0; 12]), None);
+    }
 }
