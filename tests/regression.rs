@@ -192,3 +192,72 @@ fn ods_content_cut_inside_a_table_is_unreadable_not_a_hang() {
     let e = read_regression_input("ods-content-cut-inside-a-table.ods").unwrap_err();
     assert!(e.contains("unclosed element"), "{e}");
 }
+
+/// Seen while fixing the .xls finding above: calamine keeps one grid per BOUNDSHEET record,
+/// also when many name the same worksheet, and holds them all at once, so a small file whose
+/// 200 BOUNDSHEETs name one sheet of 1,000 × 100 declared cells would take 20 million cells
+/// while each sheet was within the 10-million budget. The budget now counts all the grids of
+/// the file together.
+#[test]
+fn xls_many_sheet_records_naming_one_sheet_count_against_the_dense_budget_together() {
+    let rec = |typ: u16, data: &[u8]| -> Vec<u8> {
+        [
+            &typ.to_le_bytes()[..],
+            &(data.len() as u16).to_le_bytes(),
+            data,
+        ]
+        .concat()
+    };
+    let bof = |dt: u16| {
+        rec(
+            0x0809,
+            &[&0x0600u16.to_le_bytes()[..], &dt.to_le_bytes(), &[0u8; 12]].concat(),
+        )
+    };
+    let boundsheet = |pos: u32, name: &str| {
+        let mut d = pos.to_le_bytes().to_vec();
+        d.extend([0, 0, name.len() as u8, 0]);
+        d.extend(name.as_bytes());
+        rec(0x0085, &d)
+    };
+    let names: Vec<String> = (0..200).map(|i| format!("s{i:03}")).collect();
+    let globals_len = bof(5).len()
+        + names.iter().map(|n| boundsheet(0, n).len()).sum::<usize>()
+        + rec(0x000A, &[]).len();
+    let mut wb = bof(5);
+    for n in &names {
+        wb.extend(boundsheet(globals_len as u32, n));
+    }
+    wb.extend(rec(0x000A, &[]));
+    assert_eq!(wb.len(), globals_len);
+    wb.extend(bof(0x0010));
+    // DIMENSIONS: rows 0..1000, columns 0..100 ([MS-XLS] 2.4.90, last row/column + 1).
+    let dims = [
+        &0u32.to_le_bytes()[..],
+        &1000u32.to_le_bytes(),
+        &0u16.to_le_bytes(),
+        &100u16.to_le_bytes(),
+        &[0, 0],
+    ]
+    .concat();
+    wb.extend(rec(0x0200, &dims));
+    wb.extend(rec(
+        0x0203,
+        &[&[0u8; 6][..], &1.5f64.to_le_bytes()].concat(),
+    ));
+    wb.extend(rec(0x000A, &[]));
+    let bytes = crate::input_cases::cases::compound_file(&[("Workbook", wb)]);
+    let extents = seistriage::input::xls_scan::sheet_extents(&bytes).unwrap();
+    assert_eq!(extents.len(), 200);
+    assert!(extents.iter().all(|e| (e.rows, e.cols) == (1000, 100)));
+    let dir = tempfile::tempdir().unwrap();
+    let p = dir.path().join("many.xls");
+    std::fs::write(&p, &bytes).unwrap();
+    let e = read_inventory(&p, &ReadOptions::default())
+        .unwrap_err()
+        .to_string();
+    assert!(
+        e.contains("its 200 sheets span 20000000 cells together"),
+        "{e}"
+    );
+}

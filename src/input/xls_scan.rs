@@ -261,12 +261,12 @@ pub fn sheet_extents(file: &[u8]) -> Option<Vec<Extent>> {
             _ => {}
         }
     }
-    // A position named twice gives the same extent: scan it once.
-    let mut seen = std::collections::HashSet::new();
-    positions.retain(|p| seen.insert(*p));
+    // calamine keeps one grid per BOUNDSHEET even when two name the same position (a grid
+    // each, so every one counts); the position itself is scanned once.
+    let mut seen = std::collections::HashMap::new();
     let mut out: Vec<Extent> = positions
         .iter()
-        .map(|&pos| sheet_at(&wb, pos))
+        .map(|&pos| *seen.entry(pos).or_insert_with(|| sheet_at(&wb, pos)))
         .filter(|e| e.rows > 0)
         .collect();
     // Every other substream, in file order.
@@ -275,7 +275,7 @@ pub fn sheet_extents(file: &[u8]) -> Option<Vec<Extent>> {
     while let (Some(typ), Some(len)) = (u16_at(&wb, at), u16_at(&wb, at + 2)) {
         let data = wb.get(at + 4..at + 4 + usize::from(len)).unwrap_or(&[]);
         match typ {
-            0x0809 => cur = (!seen.contains(&at)).then(Extent::default),
+            0x0809 => cur = (!seen.contains_key(&at)).then(Extent::default),
             0x000A => {
                 if let Some(e) = cur.take()
                     && e.rows > 0

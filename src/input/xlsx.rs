@@ -529,6 +529,7 @@ pub fn check_ods_extent<R: Read + Seek>(
     // and never see the end of the file, so a content.xml cut inside an element would make
     // it loop forever (found by fuzzing). The end names are checked by the reader.
     let mut open = 0u64;
+    let mut total = 0u64;
     loop {
         buf.clear();
         let ev = xml
@@ -560,11 +561,22 @@ pub fn check_ods_extent<R: Read + Seek>(
                     }
                     "table:table" => {
                         let cells = max_row.saturating_mul(max_col);
+                        total = total.saturating_add(cells);
                         if cells > budget.max_dense_cells {
                             return Err(InputError::TooLarge {
                                 path: path.to_string(),
                                 message: format!(
                                     "sheet {name} spans {max_row} rows × {max_col} columns = {cells} cells, more than the budget of {} for .ods (save it as .xlsx, which is streamed, or delete stray far-away cells)",
+                                    budget.max_dense_cells
+                                ),
+                            });
+                        }
+                        // calamine holds every table's grid at once.
+                        if total > budget.max_dense_cells {
+                            return Err(InputError::TooLarge {
+                                path: path.to_string(),
+                                message: format!(
+                                    "its sheets span {total} cells together, more than the budget of {} for .ods (save it as .xlsx, which is streamed)",
                                     budget.max_dense_cells
                                 ),
                             });
