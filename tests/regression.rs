@@ -261,3 +261,32 @@ fn xls_many_sheet_records_naming_one_sheet_count_against_the_dense_budget_togeth
         "{e}"
     );
 }
+
+/// Found by cargo-fuzz (target `inventory_xls`, second session of 2026-12-02): calamine
+/// follows the sector chains of a compound file without cycle detection, so a directory
+/// chain pointing back to itself made it grow a buffer until memory ran out (the fuzz file
+/// below; libFuzzer stopped it at 2 GB). The .xls pre-scan now follows every chain calamine
+/// follows and refuses one that loops.
+#[test]
+fn xls_directory_sector_chain_looping_on_itself_is_unreadable_not_unbounded() {
+    let e = read_regression_input("xls-directory-sector-chain-looping-on-itself.xls").unwrap_err();
+    assert!(e.contains("loops back on itself"), "{e}");
+    // The same defect made by hand: the FAT entry of the directory sector (sector 1, FAT at
+    // file offset 512) names sector 1 again instead of end-of-chain ([MS-CFB] §2.3).
+    let wb = crate::input_cases::cases::biff_workbook(&[(0, 0), (3, 2)]);
+    let mut b = crate::input_cases::cases::compound_file(&[("Workbook", wb)]);
+    assert!(!seistriage::input::xls_scan::chains_loop(&b));
+    b[512 + 4..512 + 8].copy_from_slice(&1u32.to_le_bytes());
+    assert!(seistriage::input::xls_scan::chains_loop(&b));
+    // And the Workbook stream's last sector pointing back to its first: harmless while the
+    // declared stream size stops the chain (calamine reads 4096 bytes and stops), a loop
+    // once the directory entry declares 1 GiB.
+    let wb = crate::input_cases::cases::biff_workbook(&[(0, 0), (3, 2)]);
+    let mut b = crate::input_cases::cases::compound_file(&[("Workbook", wb)]);
+    let last = 2 + 8 - 1; // 4096 bytes = 8 sectors from sector 2
+    b[512 + 4 * last..512 + 4 * last + 4].copy_from_slice(&2u32.to_le_bytes());
+    assert!(!seistriage::input::xls_scan::chains_loop(&b));
+    let size_at = 1024 + 128 + 120; // directory entry 1 (Workbook), stream size
+    b[size_at..size_at + 4].copy_from_slice(&(1u32 << 30).to_le_bytes());
+    assert!(seistriage::input::xls_scan::chains_loop(&b));
+}

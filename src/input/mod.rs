@@ -281,6 +281,12 @@ fn guarded_read<T>(path: &str, f: impl FnOnce() -> Result<T, InputError>) -> Res
 fn check_xls_extent(path: &Path, budget: &Budget) -> Result<(), InputError> {
     let p = path.display().to_string();
     let bytes = std::fs::read(path).map_err(|e| unreadable(&p, e))?;
+    if xls_scan::chains_loop(&bytes) {
+        return Err(unreadable(
+            &p,
+            "not a readable workbook (a sector chain of the compound file loops back on itself: a damaged file)",
+        ));
+    }
     let extents = xls_scan::sheet_extents(&bytes).unwrap_or_default();
     for (i, e) in extents.iter().enumerate() {
         let cells = e.rows.saturating_mul(e.cols);

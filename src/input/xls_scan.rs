@@ -294,6 +294,183 @@ pub fn sheet_extents(file: &[u8]) -> Option<Vec<Extent>> {
     Some(out)
 }
 
+const ENDOFCHAIN: u32 = 0xFFFF_FFFE;
+const DIFSECT: u32 = 0xFFFF_FFFC;
+
+/// What following one sector chain gives, as calamine follows it.
+enum Chain {
+    /// The chain ends (end-of-chain mark, or the length asked for is reached).
+    Bytes(Vec<u8>),
+    /// calamine stops with an error (or a caught panic) on the way.
+    Fails,
+    /// More steps than the file has sectors without reaching either end: calamine would
+    /// loop forever (empty sectors at the end of the file) or grow the chain to the
+    /// declared length.
+    Loops,
+}
+
+/// Follows a chain from `start` the way calamine's `Sectors::get_chain` does: a sector is
+/// `sector(id)` (short or empty at the end of the data), at most `len` bytes are kept.
+fn follow<'a>(
+    sector: impl Fn(u32) -> Option<&'a [u8]>,
+    fats: &[u32],
+    start: u32,
+    len: usize,
+    max_steps: usize,
+) -> Chain {
+    let mut out = Vec::new();
+    let (mut id, mut steps) = (start, 0usize);
+    while id != ENDOFCHAIN {
+        let Some(s) = sector(id) else {
+            return Chain::Fails;
+        };
+        let take = s.len().min(len - out.len());
+        out.extend_from_slice(s.get(..take).unwrap_or_default());
+        if out.len() >= len {
+            break;
+        }
+        steps += 1;
+        if steps > max_steps {
+            return Chain::Loops;
+        }
+        let Some(&next) = fats.get(id as usize) else {
+            return Chain::Fails;
+        };
+        id = next;
+    }
+    Chain::Bytes(out)
+}
+
+fn u32s(b: &[u8]) -> impl Iterator<Item = u32> + '_ {
+    b.chunks_exact(4)
+        .filter_map(|c| c.try_into().ok().map(u32::from_le_bytes))
+}
+
+/// Whether a sector chain that calamine follows when it opens the compound file of an
+/// `.xls` (the directory, the mini stream and mini FAT, the `Workbook`/`Book` stream) never
+/// ends: calamine follows FAT chains without cycle detection, so a chain that points back
+/// to itself made it grow a buffer until memory ran out (found by fuzzing), or loop forever
+/// over empty sectors. Read as calamine reads the file ([MS-CFB] §2, from memory; layout
+/// details as calamine 0.38 `cfb.rs`).
+pub fn chains_loop(file: &[u8]) -> bool {
+    let Some(ssize) = (match u16_at(file, 30) {
+        Some(9) => Some(512usize),
+        Some(12) => Some(4096),
+        _ => None,
+    }) else {
+        return false;
+    };
+    if file.len() < ssize || u16_at(file, 32) != Some(6) {
+        return false;
+    }
+    let data = file.get(ssize..).unwrap_or_default();
+    let maxid = file.len() / ssize;
+    let sector = |id: u32| -> Option<&[u8]> {
+        let id = id as usize;
+        if id > maxid {
+            return None;
+        }
+        let start = id.checked_mul(ssize)?.min(data.len());
+        data.get(start..start.saturating_add(ssize).min(data.len()))
+    };
+    // DIFAT: the header's 109 entries, then DIFAT sectors (each ends with the next one).
+    let mut difat: Vec<u32> = u32s(file.get(76..512).unwrap_or_default()).collect();
+    let mut id = u32_at(file, 68).unwrap_or(ENDOFCHAIN);
+    let mut n = 0usize;
+    while id < MAX_REGULAR {
+        n += 1;
+        if n > maxid + 1 {
+            return false;
+        }
+        let Some(s) = sector(id) else { return false };
+        difat.extend(u32s(s));
+        let Some(next) = difat.pop() else {
+            return false;
+        };
+        id = next;
+    }
+    let mut fats = Vec::new();
+    for id in difat.into_iter().filter(|id| *id < DIFSECT) {
+        let Some(s) = sector(id) else { return false };
+        fats.extend(u32s(s));
+    }
+    let dir_start = u32_at(file, 48).unwrap_or(ENDOFCHAIN);
+    let dirs = match follow(sector, &fats, dir_start, usize::MAX, maxid + 1) {
+        Chain::Bytes(b) => b,
+        Chain::Fails => return false,
+        Chain::Loops => return true,
+    };
+    let entries: Vec<(String, u32, usize)> = dirs
+        .chunks_exact(128)
+        .map(|e| {
+            let name: String = String::from_utf16_lossy(
+                &e[..64]
+                    .chunks_exact(2)
+                    .map(|c| u16::from_le_bytes([c[0], c[1]]))
+                    .collect::<Vec<_>>(),
+            );
+            let name = name.split('\0').next().unwrap_or_default().to_string();
+            let start = u32_at(e, 116).unwrap_or(ENDOFCHAIN);
+            let len = if ssize == 512 {
+                u32_at(e, 120).map_or(0, |l| l as usize)
+            } else {
+                u32_at(e, 120).map_or(0, |l| l as usize)
+                    | u32_at(e, 124).map_or(0, |h| (h as usize) << 32)
+            };
+            (name, start, len)
+        })
+        .collect();
+    let Some(root) = entries.first() else {
+        return false;
+    };
+    let mut mini = Vec::new();
+    let mut mini_fats = Vec::new();
+    let mini_fat_len = u32_at(file, 64).unwrap_or(0) as usize;
+    if mini_fat_len > 0 {
+        mini = match follow(sector, &fats, root.1, root.2, maxid + 1) {
+            Chain::Bytes(b) => b,
+            Chain::Fails => return false,
+            Chain::Loops => return true,
+        };
+        let start = u32_at(file, 60).unwrap_or(ENDOFCHAIN);
+        match follow(
+            sector,
+            &fats,
+            start,
+            mini_fat_len.saturating_mul(ssize),
+            maxid + 1,
+        ) {
+            Chain::Bytes(b) => mini_fats = u32s(&b).collect(),
+            Chain::Fails => return false,
+            Chain::Loops => return true,
+        }
+    }
+    // Mini sectors past the mini stream count as empty (calamine reads them from wherever
+    // the file reader stands, possibly its end).
+    let mini_sector = |id: u32| -> Option<&[u8]> {
+        let id = id as usize;
+        if id > maxid * 8 {
+            return None;
+        }
+        let start = id.checked_mul(64)?.min(mini.len());
+        mini.get(start..start.saturating_add(64).min(mini.len()))
+    };
+    ["Workbook", "Book"].iter().any(|want| {
+        let Some((_, start, len)) = entries
+            .iter()
+            .find(|(n, _, _)| n.eq_ignore_ascii_case(want))
+        else {
+            return false;
+        };
+        let chain = if *len < 4096 {
+            follow(mini_sector, &mini_fats, *start, *len, maxid * 8 + 1)
+        } else {
+            follow(sector, &fats, *start, *len, maxid + 1)
+        };
+        matches!(chain, Chain::Loops)
+    })
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
