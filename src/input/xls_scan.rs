@@ -4,7 +4,8 @@ an `.xls` into a dense grid when the workbook is opened, so one stray far-away c
 it allocate the whole rectangle. This module walks the compound file (CFB) directory to the
 `Workbook` stream and the BIFF records in it, without expanding anything, and returns the
 grid extent each sheet would take. Every index is bounds-checked; every chain is bounded by
-the number of sectors in the file.
+the number of sectors in the file. [`chains_loop`] tells whether one of the chains calamine
+follows (without a bound of its own) never ends.
 */
 
 /// Grid extent of one sheet: rows × columns of the bounding box from A1.
