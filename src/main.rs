@@ -1,5 +1,6 @@
 //! The `seistriage` command line: a thin layer over the library (one command per file in
-//! `cmd/`). Exit codes: 0 done, 1 the input could not be screened at all, 2 usage errors.
+//! `cmd/`). Exit codes: 0 done, 1 the input could not be screened at all, 2 usage errors,
+//! 130 interrupted (Ctrl-C or SIGTERM; temporary files removed, no output left half-written).
 
 mod cmd;
 
@@ -161,7 +162,18 @@ struct ScreenArgs {
     quiet: bool,
 }
 
+/// Exit code of a run interrupted by Ctrl-C (SIGINT), SIGTERM or SIGHUP: 128 + 2, the
+/// shell's convention for SIGINT (the handler is not told which signal came).
+const INTERRUPTED: i32 = 130;
+
 fn main() -> ExitCode {
+    // An interrupt removes the temporary files of outputs being written, then exits; no
+    // output is ever left half-written under its final name (write-then-rename).
+    if let Err(e) =
+        ctrlc::set_handler(|| seistriage::report::atomic::remove_temp_files_and_exit(INTERRUPTED))
+    {
+        eprintln!("seistriage: warning: cannot install the interrupt handler: {e}");
+    }
     let cli = Cli::parse();
     let result = match cli.command {
         Command::Screen(a) => cmd::screen::run(&cmd::screen::Options {

@@ -38,7 +38,7 @@ use crate::input::{self, InputError};
 use crate::model::{Dir, FaultDistance, PerDir, Problem, Severity, Use};
 use crate::pipeline::{self, PipelineError, RunOptions};
 use crate::report::ReportError;
-use crate::report::atomic::temp_path;
+use crate::report::atomic::TempFile;
 use crate::report::json::{self, Placed, Spill};
 use crate::report::workbook::tables::{self, RowCounts, Table, Target};
 use crate::report::workbook::{self, LARGE_PRIORITY_ROWS, Layout};
@@ -287,15 +287,14 @@ impl Fundable for Compact {
 struct RowFile {
     table: Table,
     path: PathBuf,
-    tmp: PathBuf,
+    tmp: TempFile,
     w: BufWriter<File>,
 }
 
 impl RowFile {
     fn create(out: &Path, table: Table) -> Result<Self, StreamError> {
         let path = workbook::csv_path(out, table);
-        let tmp = temp_path(&path);
-        let f = File::create(&tmp).map_err(|e| write_err(&path)(ReportError::Io(e)))?;
+        let (tmp, f) = TempFile::create(&path).map_err(|e| write_err(&path)(ReportError::Io(e)))?;
         let mut w = BufWriter::new(f);
         let mut header = ::csv::Writer::from_writer(&mut w);
         crate::report::csv::write_header(table, &mut header).map_err(write_err(&path))?;
@@ -311,21 +310,18 @@ impl RowFile {
         })
     }
 
+    /// Flushes and renames the file. A file not finished (an error on the way) leaves
+    /// nothing behind: its [`TempFile`] removes the temporary name when dropped.
     fn finish(mut self) -> Result<PathBuf, StreamError> {
         let path = self.path.clone();
         self.w
             .flush()
             .map_err(|e| write_err(&path)(ReportError::Io(e)))?;
-        std::fs::rename(&self.tmp, &path).map_err(|e| write_err(&path)(ReportError::Io(e)))?;
+        crate::report::atomic::test_hold_before_rename();
+        self.tmp
+            .persist(&path)
+            .map_err(|e| write_err(&path)(ReportError::Io(e)))?;
         Ok(path)
-    }
-}
-
-impl Drop for RowFile {
-    /// A file not finished (an error on the way) leaves nothing behind; once renamed, the
-    /// temporary name no longer exists and this does nothing.
-    fn drop(&mut self) {
-        let _ = std::fs::remove_file(&self.tmp);
     }
 }
 

@@ -370,3 +370,178 @@ fn one_building_sheet(wb: &mut rust_xlsxwriter::Workbook) {
     ws.write_number(1, 2, 200.0).unwrap();
     ws.write_number(1, 3, 2.0).unwrap();
 }
+
+/// Reads one of the fuzz-found files kept in tests/regression_inputs/.
+fn read_regression_input(name: &str) -> Result<seistriage::model::Inventory, String> {
+    let p = std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("tests/regression_inputs")
+        .join(name);
+    assert!(p.is_file(), "{}", p.display());
+    let r = read_inventory(&p, &ReadOptions::default()).map_err(|e| e.to_string());
+    assert_eq!(seistriage::input::guard::own_panics(), 0);
+    r
+}
+
+/// Found by cargo-fuzz (target `inventory_xlsx`, 2026-12-02): calamine reserves room for the
+/// `uniqueCount` of the shared-strings part before reading any text, so a 3 kB .xlsx whose
+/// `<sst uniqueCount="33333333337">` made it ask for 800 GB and the process abort (not a
+/// panic: nothing to catch). The count is now checked against the part's size before
+/// calamine opens the file.
+#[test]
+fn xlsx_shared_strings_declaring_33_billion_texts_is_refused_before_allocation() {
+    let e =
+        read_regression_input("xlsx-shared-strings-declaring-33-billion-texts.xlsx").unwrap_err();
+    assert!(
+        e.contains("declares 33333333337 texts in") && e.contains("cannot read the file"),
+        "{e}"
+    );
+}
+
+/// A truthful `uniqueCount` (the count of `<si>` entries) passes the check above.
+#[test]
+fn xlsx_shared_strings_with_a_true_count_are_read() {
+    use std::io::{Read, Write};
+    let src = std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("tests/regression_inputs/xlsx-shared-strings-declaring-33-billion-texts.xlsx");
+    let mut z = zip::ZipArchive::new(std::fs::File::open(src).unwrap()).unwrap();
+    let dir = tempfile::tempdir().unwrap();
+    let p = dir.path().join("true-count.xlsx");
+    let mut out = zip::ZipWriter::new(std::fs::File::create(&p).unwrap());
+    for i in 0..z.len() {
+        let mut f = z.by_index(i).unwrap();
+        let name = f.name().unwrap().to_string();
+        let mut b = String::new();
+        f.read_to_string(&mut b).unwrap();
+        let b = b.replace("uniqueCount=\"33333333337\"", "uniqueCount=\"5\"");
+        out.start_file(name.as_str(), zip::write::SimpleFileOptions::default())
+            .unwrap();
+        out.write_all(b.as_bytes()).unwrap();
+    }
+    out.finish().unwrap();
+    let inv = read_inventory(&p, &ReadOptions::default()).unwrap();
+    assert_eq!(inv.buildings.len(), 1, "{:#?}", inv.problems);
+    assert_eq!(inv.buildings[0].id, "A");
+}
+
+/// Found by cargo-fuzz (target `inventory_xls`, 2026-12-02): a BOUNDSHEET record pointing
+/// into the middle of the stream, where calamine then read a DIMENSIONS record of about
+/// 620 million rows × 1,024 columns and reserved that grid up front (the process aborted).
+/// The .xls pre-scan followed the substreams in file order only and did not look at
+/// DIMENSIONS; it now reads each sheet where calamine reads it, DIMENSIONS included.
+#[test]
+fn xls_sheet_position_onto_a_huge_dimensions_record_is_refused_before_allocation() {
+    let e =
+        read_regression_input("xls-sheet-position-onto-a-huge-dimensions-record.xls").unwrap_err();
+    assert!(
+        e.contains("refused") && e.contains("620756995 rows × 1024 columns"),
+        "{e}"
+    );
+}
+
+/// Found by cargo-fuzz (target `inventory_ods`, 2026-12-02): calamine's table loop waits for
+/// `</table:table>` and never sees the end of the file, so an .ods whose content.xml ends
+/// inside a table made it loop forever. The .ods pre-scan now refuses a content.xml that ends
+/// inside an open element.
+#[test]
+fn ods_content_cut_inside_a_table_is_unreadable_not_a_hang() {
+    let e = read_regression_input("ods-content-cut-inside-a-table.ods").unwrap_err();
+    assert!(e.contains("unclosed element"), "{e}");
+}
+
+/// Seen while fixing the .xls finding above: calamine keeps one grid per BOUNDSHEET record,
+/// also when many name the same worksheet, and holds them all at once, so a small file whose
+/// 200 BOUNDSHEETs name one sheet of 1,000 × 100 declared cells would take 20 million cells
+/// while each sheet was within the 10-million budget. The budget now counts all the grids of
+/// the file together.
+#[test]
+fn xls_many_sheet_records_naming_one_sheet_count_against_the_dense_budget_together() {
+    let rec = |typ: u16, data: &[u8]| -> Vec<u8> {
+        [
+            &typ.to_le_bytes()[..],
+            &(data.len() as u16).to_le_bytes(),
+            data,
+        ]
+        .concat()
+    };
+    let bof = |dt: u16| {
+        rec(
+            0x0809,
+            &[&0x0600u16.to_le_bytes()[..], &dt.to_le_bytes(), &[0u8; 12]].concat(),
+        )
+    };
+    let boundsheet = |pos: u32, name: &str| {
+        let mut d = pos.to_le_bytes().to_vec();
+        d.extend([0, 0, name.len() as u8, 0]);
+        d.extend(name.as_bytes());
+        rec(0x0085, &d)
+    };
+    let names: Vec<String> = (0..200).map(|i| format!("s{i:03}")).collect();
+    let globals_len = bof(5).len()
+        + names.iter().map(|n| boundsheet(0, n).len()).sum::<usize>()
+        + rec(0x000A, &[]).len();
+    let mut wb = bof(5);
+    for n in &names {
+        wb.extend(boundsheet(globals_len as u32, n));
+    }
+    wb.extend(rec(0x000A, &[]));
+    assert_eq!(wb.len(), globals_len);
+    wb.extend(bof(0x0010));
+    // DIMENSIONS: rows 0..1000, columns 0..100 ([MS-XLS] 2.4.90, last row/column + 1).
+    let dims = [
+        &0u32.to_le_bytes()[..],
+        &1000u32.to_le_bytes(),
+        &0u16.to_le_bytes(),
+        &100u16.to_le_bytes(),
+        &[0, 0],
+    ]
+    .concat();
+    wb.extend(rec(0x0200, &dims));
+    wb.extend(rec(
+        0x0203,
+        &[&[0u8; 6][..], &1.5f64.to_le_bytes()].concat(),
+    ));
+    wb.extend(rec(0x000A, &[]));
+    let bytes = crate::input_cases::cases::compound_file(&[("Workbook", wb)]);
+    let extents = seistriage::input::xls_scan::sheet_extents(&bytes).unwrap();
+    assert_eq!(extents.len(), 200);
+    assert!(extents.iter().all(|e| (e.rows, e.cols) == (1000, 100)));
+    let dir = tempfile::tempdir().unwrap();
+    let p = dir.path().join("many.xls");
+    std::fs::write(&p, &bytes).unwrap();
+    let e = read_inventory(&p, &ReadOptions::default())
+        .unwrap_err()
+        .to_string();
+    assert!(
+        e.contains("its 200 sheets span 20000000 cells together"),
+        "{e}"
+    );
+}
+
+/// Found by cargo-fuzz (target `inventory_xls`, second session of 2026-12-02): calamine
+/// follows the sector chains of a compound file without cycle detection, so a directory
+/// chain pointing back to itself made it grow a buffer until memory ran out (the fuzz file
+/// below; libFuzzer stopped it at 2 GB). The .xls pre-scan now follows every chain calamine
+/// follows and refuses one that loops.
+#[test]
+fn xls_directory_sector_chain_looping_on_itself_is_unreadable_not_unbounded() {
+    let e = read_regression_input("xls-directory-sector-chain-looping-on-itself.xls").unwrap_err();
+    assert!(e.contains("loops back on itself"), "{e}");
+    // The same defect made by hand: the FAT entry of the directory sector (sector 1, FAT at
+    // file offset 512) names sector 1 again instead of end-of-chain ([MS-CFB] §2.3).
+    let wb = crate::input_cases::cases::biff_workbook(&[(0, 0), (3, 2)]);
+    let mut b = crate::input_cases::cases::compound_file(&[("Workbook", wb)]);
+    assert!(!seistriage::input::xls_scan::chains_loop(&b));
+    b[512 + 4..512 + 8].copy_from_slice(&1u32.to_le_bytes());
+    assert!(seistriage::input::xls_scan::chains_loop(&b));
+    // And the Workbook stream's last sector pointing back to its first: harmless while the
+    // declared stream size stops the chain (calamine reads 4096 bytes and stops), a loop
+    // once the directory entry declares 1 GiB.
+    let wb = crate::input_cases::cases::biff_workbook(&[(0, 0), (3, 2)]);
+    let mut b = crate::input_cases::cases::compound_file(&[("Workbook", wb)]);
+    let last = 2 + 8 - 1; // 4096 bytes = 8 sectors from sector 2
+    b[512 + 4 * last..512 + 4 * last + 4].copy_from_slice(&2u32.to_le_bytes());
+    assert!(!seistriage::input::xls_scan::chains_loop(&b));
+    let size_at = 1024 + 128 + 120; // directory entry 1 (Workbook), stream size
+    b[size_at..size_at + 4].copy_from_slice(&(1u32 << 30).to_le_bytes());
+    assert!(seistriage::input::xls_scan::chains_loop(&b));
+}

@@ -628,21 +628,10 @@ fn write_via_temp(
     path: &Path,
     fill: impl FnOnce(&Path) -> Result<(), DemoError>,
 ) -> Result<(), DemoError> {
-    let name = path
-        .file_name()
-        .map(|n| n.to_string_lossy().into_owned())
-        .unwrap_or_default();
-    let tmp = path.with_file_name(format!(".{name}.{}.partial", std::process::id()));
-    match fill(&tmp) {
-        Ok(()) => std::fs::rename(&tmp, path).map_err(|e| {
-            let _ = std::fs::remove_file(&tmp);
-            DemoError::Io(e)
-        }),
-        Err(e) => {
-            let _ = std::fs::remove_file(&tmp);
-            Err(e)
-        }
-    }
+    // Registered, so that an interrupt removes it too; dropped (removed) on failure.
+    let tmp = crate::report::atomic::TempFile::register(path);
+    fill(tmp.path())?;
+    tmp.persist(path).map_err(DemoError::Io)
 }
 
 /// Writes `n` invented buildings to `out` (.csv or .xlsx), deterministic for a seed.

@@ -27,16 +27,19 @@ pub fn own_panics() -> usize {
     OWN_PANICS.load(Ordering::Relaxed)
 }
 
+/// Whether a panic location is in this crate's source: `src/...` when built in its own
+/// workspace, the absolute path when built as a dependency (the fuzz crate, tests/fuzz).
+fn is_own_source(file: &str) -> bool {
+    file.starts_with("src/") || file.starts_with(concat!(env!("CARGO_MANIFEST_DIR"), "/src/"))
+}
+
 fn install_hook() {
     HOOK.call_once(|| {
         let previous = std::panic::take_hook();
         std::panic::set_hook(Box::new(move |info| {
             if !GUARDED.with(Cell::get) {
                 previous(info);
-            } else if info
-                .location()
-                .is_some_and(|l| l.file().starts_with("src/"))
-            {
+            } else if info.location().is_some_and(|l| is_own_source(l.file())) {
                 OWN_PANICS.fetch_add(1, Ordering::Relaxed);
             }
         }));
@@ -73,5 +76,13 @@ mod tests {
         assert_eq!(e, Err("boom".to_string()));
         // The panic above is located in this crate's source, so it is counted as ours.
         assert!(own_panics() >= 1);
+        assert!(is_own_source("src/input/xlsx.rs"));
+        assert!(is_own_source(concat!(
+            env!("CARGO_MANIFEST_DIR"),
+            "/src/input/xlsx.rs"
+        )));
+        assert!(!is_own_source(
+            "/root/.cargo/registry/src/calamine-0.38.0/src/xlsx/mod.rs"
+        ));
     }
 }

@@ -339,11 +339,14 @@ fn guarded_read<T>(path: &str, f: impl FnOnce() -> Result<T, InputError>) -> Res
 fn check_xls_extent(path: &Path, budget: &Budget) -> Result<(), InputError> {
     let p = path.display().to_string();
     let bytes = std::fs::read(path).map_err(|e| unreadable(&p, e))?;
-    for (i, e) in xls_scan::sheet_extents(&bytes)
-        .unwrap_or_default()
-        .iter()
-        .enumerate()
-    {
+    if xls_scan::chains_loop(&bytes) {
+        return Err(unreadable(
+            &p,
+            "not a readable workbook (a sector chain of the compound file loops back on itself: a damaged file)",
+        ));
+    }
+    let extents = xls_scan::sheet_extents(&bytes).unwrap_or_default();
+    for (i, e) in extents.iter().enumerate() {
         let cells = e.rows.saturating_mul(e.cols);
         if cells > budget.max_dense_cells {
             return Err(InputError::TooLarge {
@@ -357,6 +360,20 @@ fn check_xls_extent(path: &Path, budget: &Budget) -> Result<(), InputError> {
                 ),
             });
         }
+    }
+    // calamine holds every sheet's grid at once: the budget is for all of them together.
+    let total = extents
+        .iter()
+        .fold(0u64, |t, e| t.saturating_add(e.rows.saturating_mul(e.cols)));
+    if total > budget.max_dense_cells {
+        return Err(InputError::TooLarge {
+            path: p,
+            message: format!(
+                "its {} sheets span {total} cells together, more than the budget of {} for .xls (save it as .xlsx, which is streamed)",
+                extents.len(),
+                budget.max_dense_cells
+            ),
+        });
     }
     Ok(())
 }

@@ -100,7 +100,8 @@ pub struct Budget {
     pub max_cells: u64,
     /// Most data rows in one sheet.
     pub max_rows: u64,
-    /// Most cells of a dense sheet grid (.xls/.ods are read whole, not streamed).
+    /// Most cells of a dense sheet grid, and of all grids of one file together (.xls/.ods
+    /// are read whole, every sheet at once, not streamed).
     pub max_dense_cells: u64,
     /// Largest .xls / .ods file (read whole into memory).
     pub max_dense_file_bytes: u64,

@@ -52,6 +52,7 @@ pub fn check_zip<R: Read + Seek>(
     })?;
     let mut total: u64 = 0;
     let mut kind = None;
+    let mut shared_strings = Vec::new();
     for i in 0..zip.len() {
         let f = zip
             .by_index_raw(i)
@@ -82,6 +83,13 @@ pub fn check_zip<R: Read + Seek>(
                 ),
             });
         }
+        if name
+            .replace('\\', "/")
+            .to_ascii_lowercase()
+            .ends_with("sharedstrings.xml")
+        {
+            shared_strings.push((i, size));
+        }
         match name.as_str() {
             "xl/workbook.xml" => kind = Some(WorkbookKind::Xlsx),
             "xl/workbook.bin" => {
@@ -103,12 +111,71 @@ pub fn check_zip<R: Read + Seek>(
             ),
         });
     }
-    kind.ok_or_else(|| {
+    let kind = kind.ok_or_else(|| {
         unreadable(
             path,
             "a zip file but not a spreadsheet (no xl/workbook.xml or content.xml inside)",
         )
-    })
+    })?;
+    if kind == WorkbookKind::Xlsx {
+        for (i, size) in shared_strings {
+            let part = zip
+                .by_index(i)
+                .map_err(|e| unreadable(path, format!("broken zip entry: {e}")))?;
+            if let Some(n) = declared_string_count(part)
+                && n > size / MIN_SHARED_STRING_BYTES + 1
+            {
+                return Err(unreadable(
+                    path,
+                    format!(
+                        "not a readable workbook (its shared-text part declares {n} texts in {size} bytes; a damaged file)"
+                    ),
+                ));
+            }
+        }
+    }
+    Ok(kind)
+}
+
+/// Bytes of the shortest entry of a shared-strings part (`<si/>`).
+const MIN_SHARED_STRING_BYTES: u64 = 5;
+
+/// The `uniqueCount` of a shared-strings part's `<sst>` element, read as calamine reads it
+/// (it reserves that many texts up front, before reading any: found by fuzzing, an 1 kB
+/// .xlsx declaring 33 billion texts made it request 800 GB). `None` when absent or not a
+/// number (calamine then reserves nothing).
+fn declared_string_count(part: impl Read) -> Option<u64> {
+    use quick_xml::events::Event;
+    let mut xml = quick_xml::Reader::from_reader(std::io::BufReader::new(part));
+    let config = xml.config_mut();
+    config.check_end_names = false;
+    config.trim_text(false);
+    config.check_comments = false;
+    config.expand_empty_elements = true;
+    let mut buf = Vec::new();
+    loop {
+        buf.clear();
+        match xml.read_event_into(&mut buf).ok()? {
+            Event::Start(e) if e.local_name().as_ref() == "sst" => {
+                let value = e
+                    .attributes()
+                    .with_checks(false)
+                    .map_while(Result::ok)
+                    .find(|a| a.key.as_ref() == "uniqueCount")?
+                    .value;
+                let value = value.as_bytes();
+                let digits = value.strip_prefix(b"+").unwrap_or(value);
+                if digits.is_empty() || !digits.iter().all(u8::is_ascii_digit) {
+                    return None;
+                }
+                return Some(digits.iter().fold(0u64, |n, d| {
+                    n.saturating_mul(10).saturating_add(u64::from(d - b'0'))
+                }));
+            }
+            Event::Eof => return None,
+            _ => {}
+        }
+    }
 }
 
 /// Whether an .xlsx asks to be fully recalculated on opening (`<calcPr fullCalcOnLoad="1">`):
@@ -458,15 +525,24 @@ pub fn check_ods_extent<R: Read + Seek>(
     let (mut name, mut cur_row, mut max_row, mut max_col) = (String::new(), 0u64, 0u64, 0u64);
     let (mut row_rep, mut cur_col, mut row_has, mut row_max_col) = (1u64, 0u64, false, 0u64);
     let (mut cell_rep, mut cell_has, mut in_cell) = (1u64, false, false);
+    // Elements open now: calamine's table, row and annotation loops wait for their end tag
+    // and never see the end of the file, so a content.xml cut inside an element would make
+    // it loop forever (found by fuzzing). The end names are checked by the reader.
+    let mut open = 0u64;
+    let mut total = 0u64;
     loop {
         buf.clear();
         let ev = xml
             .read_event_into(&mut buf)
             .map_err(|e| unreadable(path, format!("content.xml: {e}")))?;
         let (e, empty) = match &ev {
-            Event::Start(e) => (Some(e.clone()), false),
+            Event::Start(e) => {
+                open += 1;
+                (Some(e.clone()), false)
+            }
             Event::Empty(e) => (Some(e.clone()), true),
             Event::End(end) => {
+                open = open.saturating_sub(1);
                 match end.name().as_ref() {
                     "table:table-cell" | "table:covered-table-cell" => {
                         if cell_has {
@@ -485,11 +561,22 @@ pub fn check_ods_extent<R: Read + Seek>(
                     }
                     "table:table" => {
                         let cells = max_row.saturating_mul(max_col);
+                        total = total.saturating_add(cells);
                         if cells > budget.max_dense_cells {
                             return Err(InputError::TooLarge {
                                 path: path.to_string(),
                                 message: format!(
                                     "sheet {name} spans {max_row} rows × {max_col} columns = {cells} cells, more than the budget of {} for .ods (save it as .xlsx, which is streamed, or delete stray far-away cells)",
+                                    budget.max_dense_cells
+                                ),
+                            });
+                        }
+                        // calamine holds every table's grid at once.
+                        if total > budget.max_dense_cells {
+                            return Err(InputError::TooLarge {
+                                path: path.to_string(),
+                                message: format!(
+                                    "its sheets span {total} cells together, more than the budget of {} for .ods (save it as .xlsx, which is streamed)",
                                     budget.max_dense_cells
                                 ),
                             });
@@ -502,6 +589,14 @@ pub fn check_ods_extent<R: Read + Seek>(
             Event::Text(t) if in_cell && !t.trim().is_empty() => {
                 cell_has = true;
                 continue;
+            }
+            Event::Eof if open > 0 => {
+                return Err(unreadable(
+                    path,
+                    format!(
+                        "not a readable workbook (content.xml ends inside {open} unclosed element(s): a cut or damaged file)"
+                    ),
+                ));
             }
             Event::Eof => break,
             _ => continue,
@@ -550,6 +645,26 @@ pub fn check_ods_extent<R: Read + Seek>(
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn the_declared_shared_string_count_is_read_as_calamine_reads_it() {
+        let count = |xml: &str| declared_string_count(xml.as_bytes());
+        assert_eq!(
+            count(r#"<?xml version="1.0"?><sst count="9" uniqueCount="7"><si/></sst>"#),
+            Some(7)
+        );
+        assert_eq!(
+            count(r#"<x:sst xmlns:x="u" uniqueCount="+0012"/>"#),
+            Some(12)
+        );
+        assert_eq!(
+            count(r#"<sst uniqueCount="99999999999999999999999"/>"#),
+            Some(u64::MAX)
+        );
+        assert_eq!(count(r#"<sst uniqueCount="7x"/>"#), None);
+        assert_eq!(count(r#"<sst count="7"/>"#), None);
+        assert_eq!(count("not xml at all"), None);
+    }
 
     #[test]
     fn serials_give_their_calendar_year() {

@@ -20,6 +20,8 @@ mod summary;
 pub use summary::budget_line;
 pub mod tables;
 
+use std::fs::File;
+use std::io::BufWriter;
 use std::path::{Path, PathBuf};
 use std::sync::atomic::{AtomicU64, Ordering};
 
@@ -27,7 +29,7 @@ use rayon::prelude::*;
 use rust_xlsxwriter::{DocProperties, ExcelDateTime, Workbook, Worksheet};
 
 use super::ReportError;
-use super::atomic::temp_path;
+use super::atomic::write_atomic;
 use crate::results::Report;
 use style::Styles;
 use tables::{Cell, Kind, RowCounts, Table, Target};
@@ -306,20 +308,10 @@ pub fn write_with_layout_except(
         }
         extra.push((format!("{} (CSV)", t.sheet_name()), p));
     }
-    let tmp = temp_path(path);
-    let result = build_and_save(report, path, &tmp, layout, &extra, progress);
-    match result {
-        Ok(()) => {
-            std::fs::rename(&tmp, path).inspect_err(|_| {
-                let _ = std::fs::remove_file(&tmp);
-            })?;
-            Ok(extra)
-        }
-        Err(e) => {
-            let _ = std::fs::remove_file(&tmp);
-            Err(e)
-        }
-    }
+    write_atomic(path, |w| {
+        build_and_save(report, path, w, layout, &extra, progress)
+    })?;
+    Ok(extra)
 }
 
 /// Spreads jobs of the given weights over `bins` workers, largest first onto the least loaded
@@ -356,7 +348,7 @@ fn now_timestamp() -> i64 {
 fn build_and_save(
     report: &Report,
     path: &Path,
-    tmp: &Path,
+    out: &mut BufWriter<File>,
     layout: &Layout,
     extra: &[(String, PathBuf)],
     progress: Progress<'_>,
@@ -435,7 +427,7 @@ fn build_and_save(
     summary::write(summary_ws, report, layout, extra, &styles, &now, &charts)?;
     summary_ws.set_active(true);
     progress(done.load(Ordering::Relaxed));
-    wb.save(tmp)?;
+    wb.save_to_writer(out)?;
     Ok(())
 }
 
