@@ -35,9 +35,9 @@ use rust_xlsxwriter::{Workbook, Worksheet};
 use seistriage::geography::{self, Geography};
 use seistriage::input::{ReadOptions, read_csv_chunks, read_inventory};
 use seistriage::pipeline::{self, RunOptions};
+use seistriage::report::workbook;
 use seistriage::{engine, retrofit, stream};
 use std::collections::HashMap;
-use seistriage::report::workbook;
 
 fn secs(d: Duration) -> f64 {
     d.as_secs_f64()

@@ -35,7 +35,7 @@ use std::path::{Path, PathBuf};
 use crate::engine::{self, rank};
 use crate::geography::{self, Geography};
 use crate::input::{self, InputError};
-use crate::model::{Dir, FaultDistance, PerDir, Problem, Severity, Use};
+use crate::model::{Dir, FaultDistance, Inventory, PerDir, Problem, Severity, Use};
 use crate::pipeline::{self, PipelineError, RunOptions};
 use crate::report::ReportError;
 use crate::report::atomic::TempFile;
@@ -431,7 +431,7 @@ pub fn screen_to_files(
         not_screened: Vec::new(),
         problems: Vec::new(),
     };
-    let rest = input::read_csv_chunks(path, &read, chunk_rows, &duplicates, &mut |mut inv| {
+    let rest = read_chunks_ahead(path, &read, chunk_rows, &duplicates, &mut |mut inv| {
         if failure.is_some() {
             return;
         }
@@ -598,6 +598,33 @@ pub fn screen_to_files(
         written.push(("GeoJSON".into(), p.to_path_buf()));
     }
     Ok(Streamed { report, written })
+}
+
+/// [`input::read_csv_chunks`] on a thread of its own, one chunk ahead: while `on_chunk`
+/// screens and writes a chunk on this thread, the next one is read (at most one read chunk
+/// waits, so memory stays bounded). Chunks arrive in file order, as from the reader itself.
+fn read_chunks_ahead(
+    path: &Path,
+    read: &input::ReadOptions,
+    chunk_rows: usize,
+    duplicates: &HashMap<String, Vec<usize>>,
+    on_chunk: &mut dyn FnMut(Inventory),
+) -> Result<Inventory, InputError> {
+    std::thread::scope(|scope| {
+        let (tx, rx) = std::sync::mpsc::sync_channel(1);
+        let reader = scope.spawn(move || {
+            input::read_csv_chunks(path, read, chunk_rows, duplicates, &mut |inv| {
+                // A closed channel means the screening side has gone: nothing to deliver to.
+                let _ = tx.send(inv);
+            })
+        });
+        for inv in rx {
+            on_chunk(inv);
+        }
+        reader
+            .join()
+            .unwrap_or_else(|panic| std::panic::resume_unwind(panic))
+    })
 }
 
 /// Writes the Priority and Retrofit plan CSV files in rank order (through temporary files).
