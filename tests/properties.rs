@@ -211,6 +211,28 @@ proptest! {
         prop_assert_eq!(full.to_bits(), quick.to_bits(), "full {} quick {}", full, quick);
     }
 
+    /// The check with both directions' new walls (`flags_after` and the DCR re-check of
+    /// retrofit sizing) gives, through the shortcut, the DCR_LS of both directions and the
+    /// soft/weak storey codes that a full re-screening with every flag raised gives.
+    #[test]
+    fn sizing_after_check_equals_full_rescreening(
+        b in building(), ax in 0.0f64..40.0, ay in 0.0f64..40.0, m in 0usize..3, sp in 0usize..2
+    ) {
+        use seistriage::engine::NewWalls;
+        use seistriage::model::PerDir;
+        use seistriage::retrofit::{Prepared, sizing::Rescreen};
+        let s = settings_for(m, sp);
+        let inp = input(&b);
+        let new = NewWalls { area_m2: PerDir { x: ax, y: ay } };
+        let full = |n: &NewWalls| seistriage::engine::screen_building_with(&inp, &s, n);
+        let (dcr_full, codes_full) = full.after(&new).unwrap();
+        let prepared = seistriage::engine::building::prepare(&inp, &s).unwrap();
+        let (dcr_quick, codes_quick) = Prepared { prepared, settings: &s }.after(&new).unwrap();
+        prop_assert_eq!(dcr_full.x.to_bits(), dcr_quick.x.to_bits());
+        prop_assert_eq!(dcr_full.y.to_bits(), dcr_quick.y.to_bits());
+        prop_assert_eq!(codes_full, codes_quick);
+    }
+
     /// Raising agR never lowers a DCR (every capacity model).
     #[test]
     fn higher_agr_never_lowers_dcr(b in building(), k in 1.0f64..3.0, m in 0usize..3, sp in 0usize..2) {

@@ -26,6 +26,13 @@ pub fn stiffness_proxy(s: &StoreyAreas, d: Dir, added_m2: f64, infill_weight: f6
     }
 }
 
+/// Flag code of a soft ground storey (ASCE 7-16 Table 12.3-2 type 1a).
+pub const SOFT_STOREY: &str = "soft-storey";
+/// Flag code of an extremely soft ground storey (ASCE 7-16 Table 12.3-2 type 1b).
+pub const SOFT_STOREY_EXTREME: &str = "soft-storey-extreme";
+/// Flag code of a weak ground storey (ASCE 7-16 Table 12.3-2 type 5a).
+pub const WEAK_STOREY: &str = "weak-storey";
+
 /// Soft-storey outcome.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Soft {
@@ -204,6 +211,28 @@ pub struct Context<'a> {
     pub spectrum_factor: f64,
 }
 
+/// The soft/weak ground-storey codes that [`raise`] raises for these states, each once, in
+/// its order (the soft codes of X then Y, then weak): what retrofit sizing reports as
+/// `flags_after` without raising every flag.
+pub fn storey_codes(states: &PerDir<Option<StoreyState>>) -> Vec<String> {
+    let soft = Dir::BOTH.into_iter().filter_map(|d| match states.get(d) {
+        Some(st) if st.soft == Soft::Extreme => Some(SOFT_STOREY_EXTREME),
+        Some(st) if st.soft == Soft::Soft => Some(SOFT_STOREY),
+        _ => None,
+    });
+    let weak = Dir::BOTH.into_iter().filter_map(|d| match states.get(d) {
+        Some(st) if st.weak => Some(WEAK_STOREY),
+        _ => None,
+    });
+    let mut codes: Vec<String> = Vec::new();
+    for c in soft.chain(weak) {
+        if !codes.iter().any(|k| k == c) {
+            codes.push(c.to_string());
+        }
+    }
+    codes
+}
+
 /// Raises the flags of method §10 for one building, in method order, one per code and
 /// direction, each with a plain-words reason and the numbers that triggered it.
 pub fn raise(c: &Context<'_>) -> Vec<Flag> {
@@ -258,7 +287,7 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
         match st.soft {
             Soft::Extreme => push(
                 &mut fl,
-                "soft-storey-extreme",
+                SOFT_STOREY_EXTREME,
                 Some(d),
                 format!(
                     "ground-storey stiffness proxy (A_cw + A_mw/10 + A_col/2)/h: {ratios} (limits {} / {}, ASCE 7-16 Table 12.3-2 type 1b; data: {src_text}{with})",
@@ -267,7 +296,7 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
             ),
             Soft::Soft => push(
                 &mut fl,
-                "soft-storey",
+                SOFT_STOREY,
                 Some(d),
                 format!(
                     "ground-storey stiffness proxy (A_cw + A_mw/10 + A_col/2)/h: {ratios} (limits {} / {}, ASCE 7-16 Table 12.3-2 type 1a; data: {src_text}{with})",
@@ -284,7 +313,7 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
         if st.weak {
             push(
                 &mut fl,
-                "weak-storey",
+                WEAK_STOREY,
                 Some(d),
                 format!(
                     "ground-storey strength is {:.1} % of the storey above (limit {:.0} %, ASCE 7-16 Table 12.3-2 type 5a; data: {src_text})",

@@ -20,7 +20,7 @@ use std::collections::HashMap;
 use rayon::prelude::*;
 
 use crate::engine::{self, BuildingInput, NewWalls};
-use crate::model::Dir;
+use crate::model::{Dir, PerDir};
 use crate::results::{BudgetPlan, BuildingResult, Retrofit};
 use crate::settings::Settings;
 
@@ -48,7 +48,10 @@ pub fn size_all(results: &mut [BuildingResult], inputs: &[BuildingInput<'_>], se
 /// The engine as [`sizing::Rescreen`]: the building prepared once (§0 and its building-wide
 /// terms), each bisection step re-running only the direction being sized
 /// ([`engine::building::direction`]) — the same function the full screening runs, so the
-/// DCR is the one a full re-screening gives (tested), for a fraction of the work.
+/// DCR is the one a full re-screening gives (tested), for a fraction of the work; the check
+/// with both directions' walls takes the storey codes from the directions' storey states
+/// ([`engine::flags::storey_codes`]) instead of raising every flag (tested against the full
+/// re-screening's flags).
 pub struct Prepared<'a> {
     /// The prepared building.
     pub prepared: engine::building::Prepared<'a>,
@@ -64,6 +67,18 @@ impl sizing::Rescreen for Prepared<'_> {
     fn dcr_ls(&self, d: Dir, area: f64) -> Result<f64, Vec<String>> {
         let (result, _, _) = engine::building::direction(&self.prepared, self.settings, d, area);
         Ok(result.dcr.ls)
+    }
+
+    fn after(&self, new: &NewWalls) -> Result<(PerDir<f64>, Vec<String>), Vec<String>> {
+        let mut dcr = PerDir { x: 0.0, y: 0.0 };
+        let mut states: PerDir<Option<engine::flags::StoreyState>> = PerDir::default();
+        for d in Dir::BOTH {
+            let (result, _, state) =
+                engine::building::direction(&self.prepared, self.settings, d, *new.area_m2.get(d));
+            *dcr.get_mut(d) = result.dcr.ls;
+            states.get_mut(d).replace(state);
+        }
+        Ok((dcr, engine::flags::storey_codes(&states)))
     }
 }
 

@@ -9,7 +9,7 @@ function of its inputs and can be tested with synthetic demand/capacity curves; 
 production closure is [`crate::engine::screen_building_with`].
 */
 
-use crate::engine::NewWalls;
+use crate::engine::{NewWalls, flags};
 use crate::model::{Dir, PerDir};
 use crate::results::{BuildingResult, Retrofit};
 use crate::settings::Settings;
@@ -19,7 +19,11 @@ use crate::settings::Settings;
 pub const MAX_BISECTION_ITERATIONS: u32 = 60;
 
 /// The soft/weak storey flag codes that the new walls can remove (method §10, §12).
-pub const STOREY_FLAG_CODES: [&str; 3] = ["soft-storey", "soft-storey-extreme", "weak-storey"];
+pub const STOREY_FLAG_CODES: [&str; 3] = [
+    flags::SOFT_STOREY,
+    flags::SOFT_STOREY_EXTREME,
+    flags::WEAK_STOREY,
+];
 
 /// Note when a direction has no wall solution within the cap (method §12).
 pub const NO_SOLUTION_NOTE: &str =
@@ -113,6 +117,18 @@ pub trait Rescreen {
     fn dcr_ls(&self, d: Dir, area: f64) -> Result<f64, Vec<String>> {
         self.screen(&walls_in(d, area))
             .map(|r| r.directions.get(d).dcr.ls)
+    }
+
+    /// With `new` walls in both directions: each direction's DCR_LS and the soft/weak storey
+    /// codes among the flags ([`storey_flag_codes`]), for `flags_after`.
+    fn after(&self, new: &NewWalls) -> Result<(PerDir<f64>, Vec<String>), Vec<String>> {
+        self.screen(new).map(|r| {
+            let dcr = PerDir {
+                x: r.directions.x.dcr.ls,
+                y: r.directions.y.dcr.ls,
+            };
+            (dcr, storey_flag_codes(&r))
+        })
     }
 }
 
@@ -218,10 +234,10 @@ pub fn size_building(
         },
     };
     let flags_after = if proposed.area_m2.x > 0.0 || proposed.area_m2.y > 0.0 {
-        match screen.screen(&proposed) {
-            Ok(after) => {
+        match screen.after(&proposed) {
+            Ok((dcr_after, codes)) => {
                 for d in Dir::BOTH {
-                    let dcr = after.directions.get(d).dcr.ls;
+                    let dcr = *dcr_after.get(d);
                     if *proposed.area_m2.get(d) > 0.0 && !meets(dcr, target) {
                         notes.push(format!(
                             "with both directions' walls added DCR_LS,{} = {dcr:.3} is above the target {target}",
@@ -229,7 +245,7 @@ pub fn size_building(
                         ));
                     }
                 }
-                storey_flag_codes(&after)
+                codes
             }
             Err(reasons) => {
                 for r in reasons {
