@@ -47,7 +47,12 @@ impl TempFile {
     /// Creates (truncates) the temporary file beside `final_path` and registers it, both under
     /// the list's lock.
     pub fn create(final_path: &Path) -> std::io::Result<(TempFile, File)> {
-        let path = temp_path(final_path);
+        Self::create_at(temp_path(final_path))
+    }
+
+    /// Creates (truncates) and registers a temporary file under the given name (a scratch
+    /// file that is never renamed, such as the streaming path's JSON spill).
+    pub fn create_at(path: PathBuf) -> std::io::Result<(TempFile, File)> {
         let mut list = live();
         let file = File::create(&path)?;
         list.push(path.clone());

@@ -17,10 +17,10 @@
 
 use std::fs::File;
 use std::io::{self, BufWriter, Read, Seek, SeekFrom, Write};
-use std::path::{Path, PathBuf};
+use std::path::Path;
 
 use super::ReportError;
-use super::atomic::write_atomic;
+use super::atomic::{TempFile, write_atomic};
 use crate::results::{BuildingResult, Report};
 
 /// From this many buildings (exclusive) the JSON is written compact.
@@ -177,7 +177,8 @@ pub struct Placed {
 /// spill is dropped (also on an error).
 #[derive(Debug)]
 pub struct Spill {
-    path: PathBuf,
+    /// The spill file, registered so that an interrupt removes it too.
+    tmp: TempFile,
     w: Option<BufWriter<File>>,
     /// Offset and length of each object, by slot.
     index: Vec<(u64, u32)>,
@@ -193,9 +194,10 @@ impl Spill {
             .map(|n| n.to_string_lossy().into_owned())
             .unwrap_or_default();
         let path = output.with_file_name(format!(".{name}.{}.spill", std::process::id()));
-        let w = BufWriter::with_capacity(1 << 20, File::create(&path)?);
+        let (tmp, file) = TempFile::create_at(path)?;
+        let w = BufWriter::with_capacity(1 << 20, file);
         Ok(Spill {
-            path,
+            tmp,
             w: Some(w),
             index: Vec::new(),
             end: 0,
@@ -242,7 +244,7 @@ impl Spill {
         }
         // Unbuffered: each object is one seek and one read of exactly its bytes (a buffered
         // reader would refill its whole buffer after every seek).
-        let mut reader = File::open(&self.path)?;
+        let mut reader = File::open(self.tmp.path())?;
         let index = std::mem::take(&mut self.index);
         let mut order = order;
         let mut fill = |w: &mut dyn Write| -> io::Result<()> {
@@ -308,9 +310,9 @@ impl Spill {
 }
 
 impl Drop for Spill {
+    /// Closes the file; the [`TempFile`] then removes it (after the fields' drop order).
     fn drop(&mut self) {
         self.w = None;
-        let _ = std::fs::remove_file(&self.path);
     }
 }
 
@@ -362,6 +364,20 @@ impl<W: Write> Write for Splice<'_, W> {
 mod tests {
     use super::*;
     use serde_json::json;
+
+    /// An interrupt removes the registered temporary files: the spill (as large as the JSON)
+    /// is one of them while it exists, and is gone from disk and from the list once dropped.
+    #[test]
+    fn the_spill_file_is_registered_for_interrupts_and_removed_when_dropped() {
+        let dir = tempfile::tempdir().unwrap();
+        let spill = Spill::create(&dir.path().join("out.json")).unwrap();
+        let path = spill.tmp.path().to_path_buf();
+        assert!(path.exists());
+        assert!(crate::report::atomic::live_temp_files().contains(&path));
+        drop(spill);
+        assert!(!path.exists());
+        assert!(!crate::report::atomic::live_temp_files().contains(&path));
+    }
 
     /// Values with every layout case of the pretty printer: nested and empty containers,
     /// strings holding brackets, commas, colons, quotes and backslashes, numbers, literals.
