@@ -545,3 +545,22 @@ fn xls_directory_sector_chain_looping_on_itself_is_unreadable_not_unbounded() {
     b[size_at..size_at + 4].copy_from_slice(&(1u32 << 30).to_le_bytes());
     assert!(seistriage::input::xls_scan::chains_loop(&b));
 }
+
+/// Found in review: the streaming path's JSON spill (as large as the JSON itself) was not
+/// registered as a temporary file, so an interrupt (Ctrl-C) left it behind. It is now listed
+/// while it exists and gone from disk and from the list once dropped.
+#[test]
+fn json_spill_is_removed_by_an_interrupt_like_every_temporary_file() {
+    use seistriage::report::atomic::live_temp_files;
+    let dir = tempfile::tempdir().unwrap();
+    let spill = seistriage::report::json::Spill::create(&dir.path().join("out.json")).unwrap();
+    let listed: Vec<_> = live_temp_files()
+        .into_iter()
+        .filter(|p| p.starts_with(dir.path()))
+        .collect();
+    assert_eq!(listed.len(), 1, "{listed:?}");
+    assert!(listed[0].exists());
+    drop(spill);
+    assert!(!listed[0].exists());
+    assert!(!live_temp_files().contains(&listed[0]));
+}

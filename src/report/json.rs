@@ -365,20 +365,6 @@ mod tests {
     use super::*;
     use serde_json::json;
 
-    /// An interrupt removes the registered temporary files: the spill (as large as the JSON)
-    /// is one of them while it exists, and is gone from disk and from the list once dropped.
-    #[test]
-    fn the_spill_file_is_registered_for_interrupts_and_removed_when_dropped() {
-        let dir = tempfile::tempdir().unwrap();
-        let spill = Spill::create(&dir.path().join("out.json")).unwrap();
-        let path = spill.tmp.path().to_path_buf();
-        assert!(path.exists());
-        assert!(crate::report::atomic::live_temp_files().contains(&path));
-        drop(spill);
-        assert!(!path.exists());
-        assert!(!crate::report::atomic::live_temp_files().contains(&path));
-    }
-
     /// Values with every layout case of the pretty printer: nested and empty containers,
     /// strings holding brackets, commas, colons, quotes and backslashes, numbers, literals.
     fn samples() -> Vec<serde_json::Value> {
