@@ -119,26 +119,7 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
     drop(loaded);
     progress.finish();
     if report.buildings.is_empty() {
-        const SHOWN: usize = 20;
-        for n in report.not_screened.iter().take(SHOWN) {
-            eprintln!(
-                "buildings, row {}: {}: {}",
-                n.row,
-                n.id,
-                n.reasons.join("; ")
-            );
-        }
-        if report.not_screened.len() > SHOWN {
-            eprintln!(
-                "… and {} more rows not screened (the first reasons above usually apply to them too)",
-                report.not_screened.len() - SHOWN
-            );
-        }
-        eprintln!(
-            "seistriage: {}: no building could be screened",
-            o.inventory.display()
-        );
-        return Ok(ExitCode::from(1));
+        return Ok(nothing_screened(&report, &o.inventory));
     }
     let mut written: Vec<(String, PathBuf)> = Vec::new();
     if let Some(parent) = out.parent().filter(|p| !p.as_os_str().is_empty()) {
@@ -230,20 +211,7 @@ fn run_streamed(o: &Options, out: &Path) -> anyhow::Result<ExitCode> {
     let streamed = streamed?;
     let report = &streamed.report;
     if report.counts.screened == 0 {
-        const SHOWN: usize = 20;
-        for n in report.not_screened.iter().take(SHOWN) {
-            eprintln!(
-                "buildings, row {}: {}: {}",
-                n.row,
-                n.id,
-                n.reasons.join("; ")
-            );
-        }
-        eprintln!(
-            "seistriage: {}: no building could be screened",
-            o.inventory.display()
-        );
-        return Ok(ExitCode::from(1));
+        return Ok(nothing_screened(report, &o.inventory));
     }
     if !o.quiet {
         let text = report::terminal::summary(report, &streamed.written);
@@ -254,4 +222,29 @@ fn run_streamed(o: &Options, out: &Path) -> anyhow::Result<ExitCode> {
             .context("writing the summary to stdout")?;
     }
     Ok(ExitCode::SUCCESS)
+}
+
+/// Says why no building could be screened (the first reasons, then how many more rows) and
+/// gives exit code 1; the same on the whole-stock and the streaming path.
+fn nothing_screened(report: &seistriage::results::Report, inventory: &std::path::Path) -> ExitCode {
+    const SHOWN: usize = 20;
+    for n in report.not_screened.iter().take(SHOWN) {
+        eprintln!(
+            "buildings, row {}: {}: {}",
+            n.row,
+            n.id,
+            n.reasons.join("; ")
+        );
+    }
+    if report.not_screened.len() > SHOWN {
+        eprintln!(
+            "… and {} more rows not screened (the first reasons above usually apply to them too)",
+            report.not_screened.len() - SHOWN
+        );
+    }
+    eprintln!(
+        "seistriage: {}: no building could be screened",
+        inventory.display()
+    );
+    ExitCode::from(1)
 }
