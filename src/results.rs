@@ -7,7 +7,10 @@ What the engine returns for each building: the typed results behind the JSON of
 use serde::Serialize;
 
 use crate::model::{Dir, FaultDistance, NotScreened, PerDir, Problem, Use};
-use crate::settings::{Level, Settings};
+use crate::settings::{GroundType, Level, Settings};
+
+mod flag;
+pub use flag::*;
 
 /// A value at the three performance levels.
 #[derive(Debug, Clone, Copy, PartialEq, Default, Serialize)]
@@ -128,6 +131,40 @@ pub struct DirectionDetail {
     pub soft_or_weak: bool,
 }
 
+/// The shape of a building's elastic spectrum and its parameters (method §5).
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub enum SpectrumShape {
+    /// EN 1998-1 §3.2.2.2, Type 1 (Table 3.2) or Type 2 (Table 3.3).
+    Ec8 {
+        /// Type 2 (else Type 1).
+        type2: bool,
+        /// Ground type.
+        ground: GroundType,
+        /// Soil factor S.
+        s: f64,
+        /// TB (s).
+        tb_s: f64,
+        /// TC (s).
+        tc_s: f64,
+        /// TD (s).
+        td_s: f64,
+    },
+    /// ASCE 7-16 §11.4.6 two-parameter spectrum.
+    TwoParameter {
+        /// SDS (g).
+        sds_g: f64,
+        /// SD1 (g).
+        sd1_g: f64,
+        /// Ts = SD1/SDS (s).
+        ts_s: f64,
+        /// TL (s), when given.
+        tl_s: Option<f64>,
+    },
+    /// Not screened (placeholder results).
+    #[default]
+    None,
+}
+
 /// Building-wide intermediate numbers (for `explain` and the Directions sheet).
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct BuildingDetail {
@@ -159,8 +196,8 @@ pub struct BuildingDetail {
     pub gamma_i: f64,
     /// Design ground acceleration ag = γI·agR (g).
     pub ag_g: f64,
-    /// Spectrum parameters (S, TB, TC, TD) or (SDS, SD1, Ts, TL) as text for explain.
-    pub spectrum: String,
+    /// Spectrum shape and parameters (worded by the report layer).
+    pub spectrum: SpectrumShape,
     /// Damping correction η.
     pub eta: f64,
     /// Boundary elements present by the rule of method §0.
@@ -208,17 +245,8 @@ pub struct WallResult {
     pub theta_um: f64,
     /// Capacity used at each level (after the capacity model).
     pub capacity: Levels,
-}
-
-/// One flag raised on a building.
-#[derive(Debug, Clone, PartialEq, Serialize)]
-pub struct Flag {
-    /// Short code, e.g. `soft-storey`.
-    pub code: String,
-    /// Direction, or `None` for building-wide flags.
-    pub direction: Option<Dir>,
-    /// Plain-words reason with the numbers that triggered it.
-    pub detail: String,
+    /// True for the generated wall standing for the retrofit walls (method §12).
+    pub new: bool,
 }
 
 /// Which direction, group and level governs the score.
@@ -244,7 +272,7 @@ pub struct Retrofit {
     /// Replacement recommended (None when costs are not set).
     pub replace: Option<bool>,
     /// Soft/weak storey codes that remain with the new walls.
-    pub flags_after: Vec<String>,
+    pub flags_after: Vec<FlagCode>,
     /// Funded by the priority walk (None without a budget plan).
     pub funded: Option<bool>,
     /// Funded by the max-occupants plan (None without a budget plan).
@@ -314,12 +342,12 @@ impl BuildingResult {
             .priority_index_pct
             .min(self.directions.y.priority_index_pct)
     }
-    /// Flag codes joined by `;` (one per code, building order).
-    pub fn flag_codes(&self) -> Vec<&str> {
-        let mut codes: Vec<&str> = Vec::new();
+    /// The distinct flag codes (one per code, building order).
+    pub fn flag_codes(&self) -> Vec<&'static str> {
+        let mut codes: Vec<&'static str> = Vec::new();
         for f in &self.flags {
             if !codes.contains(&f.code.as_str()) {
-                codes.push(&f.code);
+                codes.push(f.code.as_str());
             }
         }
         codes

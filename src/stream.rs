@@ -43,8 +43,8 @@ use crate::report::json::{self, Placed, Spill};
 use crate::report::workbook::tables::{self, RowCounts, Table, Target};
 use crate::report::workbook::{self, LARGE_PRIORITY_ROWS, Layout};
 use crate::results::{
-    BuildingDetail, BuildingResult, Counts, DirectionResult, Flag, Governing, InputInfo, Levels,
-    Report, Retrofit,
+    BuildingDetail, BuildingResult, Counts, DirectionResult, Flag, FlagCode, FlagDetail, Governing,
+    InputInfo, Levels, Report, Retrofit,
 };
 use crate::retrofit::{self, Fundable};
 
@@ -160,9 +160,8 @@ struct Compact {
     row: usize,
     dcr: PerDir<Levels>,
     priority_index_pct: PerDir<f64>,
-    /// The distinct flag codes, `;`-joined (what Priority shows; the details are in the
-    /// Flags file).
-    flag_codes: String,
+    /// The distinct flag codes (what Priority shows; the details are in the Flags file).
+    flag_codes: Vec<FlagCode>,
     floor_area_m2: f64,
     retrofit: Option<Box<Retrofit>>,
     /// Position in file order (the slot of its object in the JSON spill).
@@ -172,7 +171,12 @@ struct Compact {
 impl Compact {
     fn of(b: BuildingResult, slot: usize) -> Self {
         // Flag details are in the Flags file already; the codes are what Priority shows.
-        let flag_codes = b.flag_codes().join(";");
+        let mut flag_codes: Vec<FlagCode> = Vec::new();
+        for f in &b.flags {
+            if !flag_codes.contains(&f.code) {
+                flag_codes.push(f.code);
+            }
+        }
         Compact {
             priority_index_pct: PerDir {
                 x: b.directions.x.priority_index_pct,
@@ -242,13 +246,8 @@ impl Compact {
             },
             flags: self
                 .flag_codes
-                .split(';')
-                .filter(|c| !c.is_empty())
-                .map(|c| Flag {
-                    code: c.to_string(),
-                    direction: None,
-                    detail: String::new(),
-                })
+                .iter()
+                .map(|&c| Flag::new(None, FlagDetail::CodeOnly(c)))
                 .collect(),
             defaults_used: Vec::new(),
             retrofit: self.retrofit.as_deref().cloned(),

@@ -6,8 +6,8 @@ raises the flags and sets class and score. The rank is set by [`super::screen_al
 
 use crate::model::{Dir, PerDir, YesNo};
 use crate::results::{
-    BuildingDetail, BuildingResult, DirectionDetail, DirectionResult, Governing, Groups, Levels,
-    WallResult,
+    BuildingDetail, BuildingResult, DefaultValue, DirectionDetail, DirectionResult, Governing,
+    Groups, Levels, SpectrumShape, WallResult,
 };
 use crate::settings::{CapacityModel, Settings};
 
@@ -59,29 +59,28 @@ impl DemandSpectrum {
             Hazard::TwoParameter { sds_g, sd1_g, .. } => spectrum::corner_ts(*sds_g, *sd1_g),
         }
     }
-    /// Parameters as text (for explain).
-    pub fn describe(&self) -> String {
+    /// The spectrum's shape and parameters (worded by the report layer).
+    pub fn shape(&self) -> SpectrumShape {
         match &self.hazard {
             Hazard::Ec8 { type2, ground, .. } => {
                 let p = spectrum::ec8_params(*ground, *type2);
-                format!(
-                    "EN 1998-1 Type {} (Table {}), ground type {}: S = {}, TB = {} s, TC = {} s, TD = {} s",
-                    if *type2 { 2 } else { 1 },
-                    if *type2 { "3.3" } else { "3.2" },
-                    ground,
-                    p.s,
-                    p.tb,
-                    p.tc,
-                    p.td
-                )
+                SpectrumShape::Ec8 {
+                    type2: *type2,
+                    ground: *ground,
+                    s: p.s,
+                    tb_s: p.tb,
+                    tc_s: p.tc,
+                    td_s: p.td,
+                }
             }
             Hazard::TwoParameter {
                 sds_g, sd1_g, tl_s, ..
-            } => format!(
-                "ASCE 7-16 §11.4.6 two-parameter: SDS = {sds_g} g, SD1 = {sd1_g} g, Ts = {} s, TL = {}",
-                spectrum::corner_ts(*sds_g, *sd1_g),
-                tl_s.map_or("none".to_string(), |t| format!("{t} s"))
-            ),
+            } => SpectrumShape::TwoParameter {
+                sds_g: *sds_g,
+                sd1_g: *sd1_g,
+                ts_s: spectrum::corner_ts(*sds_g, *sd1_g),
+                tl_s: *tl_s,
+            },
         }
     }
 }
@@ -191,6 +190,7 @@ fn wall_result(w: &WallSpec, lv: f64, se_g: f64, cy: f64, s: &Settings) -> WallR
         theta_y: ec.theta_y,
         theta_um: ec.theta_um,
         capacity: cap,
+        new: w.new,
     }
 }
 
@@ -581,7 +581,7 @@ pub fn screen(
             ground_type,
             gamma_i: res.gamma_i,
             ag_g: spec.ag_g(),
-            spectrum: spec.describe(),
+            spectrum: spec.shape(),
             eta: spec.eta,
             boundary_elements: res.boundary_elements,
             columns_detailed: res.columns_detailed,
@@ -596,26 +596,23 @@ pub fn screen(
     })
 }
 
-/// The value a defaulted input took, as text (for the defaults-used flag and explain).
-pub fn default_value_text(key: &str, res: &Resolved, s: &Settings) -> String {
+/// The value a defaulted input took (for the defaults-used flag and explain; worded by the
+/// report layer).
+pub fn default_value(key: &str, res: &Resolved, s: &Settings) -> DefaultValue {
     match key {
-        "use" => res.use_.code().to_string(),
-        "storey_height_m" => format!("{} m", s.default_storey_height_m),
-        "ground_storey_height_m" => format!("{} m", res.heights_m.first().copied().unwrap_or(0.0)),
-        "column_depth_m" => format!("{} m", res.column_depth_m),
-        "wall_length_x_m" | "wall_length_y_m" => format!("{} m", s.default_wall_length_m),
-        "wall_thickness_m" => format!("{} m", s.default_wall_thickness_m),
-        "boundary_elements" => {
-            if res.boundary_elements {
-                "present by year rule".into()
-            } else {
-                "treated as absent".into()
-            }
+        "use" => DefaultValue::Use(res.use_),
+        "storey_height_m" => DefaultValue::Metres(s.default_storey_height_m),
+        "ground_storey_height_m" => {
+            DefaultValue::Metres(res.heights_m.first().copied().unwrap_or(0.0))
         }
-        "fc_mpa" => format!("{} MPa", res.fc_mpa),
-        "fy_mpa" => format!("{} MPa", res.fy_mpa),
-        "floor_weight_kpa" => format!("{} kPa", res.floor_weight_kpa),
-        "ground_type" => s.default_ground_type.to_string(),
-        _ => String::new(),
+        "column_depth_m" => DefaultValue::Metres(res.column_depth_m),
+        "wall_length_x_m" | "wall_length_y_m" => DefaultValue::Metres(s.default_wall_length_m),
+        "wall_thickness_m" => DefaultValue::Metres(s.default_wall_thickness_m),
+        "boundary_elements" => DefaultValue::Boundary(res.boundary_elements),
+        "fc_mpa" => DefaultValue::MPa(res.fc_mpa),
+        "fy_mpa" => DefaultValue::MPa(res.fy_mpa),
+        "floor_weight_kpa" => DefaultValue::KPa(res.floor_weight_kpa),
+        "ground_type" => DefaultValue::Ground(s.default_ground_type),
+        _ => DefaultValue::None,
     }
 }

@@ -1,15 +1,21 @@
 /*!
 Method §10: the flags. Each test is a small function (soft / weak storey, boundary-element
-displacement check, thresholds); [`raise`] applies them to one screened building and writes
-one flag per code and direction with its reason and triggering numbers (wall ids named).
+displacement check, thresholds); [`raise`] applies them to one screened building and returns
+one typed flag (`results::Flag`) per code and direction with the numbers that triggered it
+(walls named by id) and the limits in force. The engine writes no wording: the report layer
+does (`report::flag_text`).
 */
 
 use crate::model::{Dir, PerDir, YesNo};
-use crate::results::{DirectionResult, Flag, WallResult};
+use crate::results::{
+    BoundaryHit, BoundaryNeeded, BoundaryRecord, BrittleWall, CalibrationRange, CalibrationWall,
+    DefaultValue, DirectionResult, Exceeds, Flag, FlagCode, FlagDetail, NearFault, SoftStorey,
+    StoreyData, Torsion, WallDiscontinued, WallRatios, WallRef, WallResult, WeakStorey,
+};
 use crate::settings::Settings;
 
 use super::BuildingInput;
-use super::building::{default_value_text, storey_strength};
+use super::building::{default_value, storey_strength};
 use super::capacity::MemberCapacity;
 use super::resolve::{Resolved, StoreyAreas, StoreySource, WallSpec};
 use super::torsion;
@@ -25,13 +31,6 @@ pub fn stiffness_proxy(s: &StoreyAreas, d: Dir, added_m2: f64, infill_weight: f6
         0.0
     }
 }
-
-/// Flag code of a soft ground storey (ASCE 7-16 Table 12.3-2 type 1a).
-pub const SOFT_STOREY: &str = "soft-storey";
-/// Flag code of an extremely soft ground storey (ASCE 7-16 Table 12.3-2 type 1b).
-pub const SOFT_STOREY_EXTREME: &str = "soft-storey-extreme";
-/// Flag code of a weak ground storey (ASCE 7-16 Table 12.3-2 type 5a).
-pub const WEAK_STOREY: &str = "weak-storey";
 
 /// Soft-storey outcome.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -168,20 +167,12 @@ pub fn storey_state(
     }
 }
 
-fn fmt_ids(ids: &[String]) -> String {
-    ids.join(", ")
-}
-
-fn wall_name(w: &WallSpec) -> String {
-    if w.representative {
-        format!("the representative {} wall", w.dir.code().to_uppercase())
-    } else {
-        format!("wall {}", w.id)
+fn wall_ref(w: &WallSpec) -> WallRef {
+    WallRef {
+        id: w.id.clone(),
+        dir: w.dir,
+        representative: w.representative,
     }
-}
-
-fn names(ws: &[&WallSpec]) -> String {
-    fmt_ids(&ws.iter().map(|w| wall_name(w)).collect::<Vec<_>>())
 }
 
 /// Everything the flags of method §10 read from one screened building.
@@ -214,27 +205,29 @@ pub struct Context<'a> {
 /// The soft/weak ground-storey codes that [`raise`] raises for these states, each once, in
 /// its order (the soft codes of X then Y, then weak): what retrofit sizing reports as
 /// `flags_after` without raising every flag.
-pub fn storey_codes(states: &PerDir<Option<StoreyState>>) -> Vec<String> {
+pub fn storey_codes(states: &PerDir<Option<StoreyState>>) -> Vec<FlagCode> {
     let soft = Dir::BOTH.into_iter().filter_map(|d| match states.get(d) {
-        Some(st) if st.soft == Soft::Extreme => Some(SOFT_STOREY_EXTREME),
-        Some(st) if st.soft == Soft::Soft => Some(SOFT_STOREY),
+        Some(st) if st.soft == Soft::Extreme => Some(FlagCode::SoftStoreyExtreme),
+        Some(st) if st.soft == Soft::Soft => Some(FlagCode::SoftStorey),
         _ => None,
     });
     let weak = Dir::BOTH.into_iter().filter_map(|d| match states.get(d) {
-        Some(st) if st.weak => Some(WEAK_STOREY),
+        Some(st) if st.weak => Some(FlagCode::WeakStorey),
         _ => None,
     });
-    let mut codes: Vec<String> = Vec::new();
+    let mut codes: Vec<FlagCode> = Vec::new();
     for c in soft.chain(weak) {
-        if !codes.iter().any(|k| k == c) {
-            codes.push(c.to_string());
+        if !codes.contains(&c) {
+            codes.push(c);
         }
     }
     codes
 }
 
 /// Raises the flags of method §10 for one building, in method order, one per code and
-/// direction, each with a plain-words reason and the numbers that triggered it.
+/// direction (two for `outside-calibration` and `brittle`: walls per direction, columns),
+/// each with the numbers that triggered it and the limits it was compared against. No text:
+/// the report layer words them (`report::flag_text`).
 pub fn raise(c: &Context<'_>) -> Vec<Flag> {
     let Context {
         res,
@@ -252,56 +245,40 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
     let r = input.record;
     let has_columns = res.column_area_m2 > 0.0;
     let mut fl: Vec<Flag> = Vec::new();
-    let push = |fl: &mut Vec<Flag>, code: &str, d: Option<Dir>, detail: String| {
-        fl.push(Flag {
-            code: code.into(),
-            direction: d,
-            detail,
-        });
+    let push = |fl: &mut Vec<Flag>, d: Option<Dir>, detail: FlagDetail| {
+        fl.push(Flag::new(d, detail));
     };
-    let src_text = match res.storey_source {
-        StoreySource::Sheet => "storeys sheet",
-        StoreySource::Upper => "upper-storey columns (storey 2 only)",
-        StoreySource::None => "",
+    let data = match res.storey_source {
+        StoreySource::Upper => StoreyData::UpperColumns,
+        StoreySource::Sheet | StoreySource::None => StoreyData::Sheet,
     };
     for d in Dir::BOTH {
         let Some(st) = states_after.get(d) else {
             continue;
         };
-        let added = directions.get(d).detail.added_wall_area_m2;
-        let with = if added > 0.0 {
-            format!(", with {added:.3} m² of new walls")
-        } else {
-            String::new()
-        };
-        let ratios = {
-            let mut t = String::new();
-            if let Some(r2) = st.r2 {
-                t.push_str(&format!("k1/k2 = {r2:.3}"));
-            }
-            if let Some(rm) = st.r_mean {
-                t.push_str(&format!(", k1/mean(k2..k4) = {rm:.3}"));
-            }
-            t
+        let added_m2 = directions.get(d).detail.added_wall_area_m2;
+        let soft = |limit: f64, limit_mean: f64| SoftStorey {
+            r2: st.r2,
+            r_mean: st.r_mean,
+            limit,
+            limit_mean,
+            infill_weight: s.infill_weight,
+            data,
+            added_m2,
         };
         match st.soft {
             Soft::Extreme => push(
                 &mut fl,
-                SOFT_STOREY_EXTREME,
                 Some(d),
-                format!(
-                    "ground-storey stiffness proxy (A_cw + A_mw/10 + A_col/2)/h: {ratios} (limits {} / {}, ASCE 7-16 Table 12.3-2 type 1b; data: {src_text}{with})",
-                    s.extreme_soft_ratio, s.extreme_soft_ratio_mean
-                ),
+                FlagDetail::SoftStoreyExtreme(soft(
+                    s.extreme_soft_ratio,
+                    s.extreme_soft_ratio_mean,
+                )),
             ),
             Soft::Soft => push(
                 &mut fl,
-                SOFT_STOREY,
                 Some(d),
-                format!(
-                    "ground-storey stiffness proxy (A_cw + A_mw/10 + A_col/2)/h: {ratios} (limits {} / {}, ASCE 7-16 Table 12.3-2 type 1a; data: {src_text}{with})",
-                    s.soft_ratio, s.soft_ratio_mean
-                ),
+                FlagDetail::SoftStorey(soft(s.soft_ratio, s.soft_ratio_mean)),
             ),
             Soft::None => {}
         }
@@ -313,13 +290,12 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
         if st.weak {
             push(
                 &mut fl,
-                WEAK_STOREY,
                 Some(d),
-                format!(
-                    "ground-storey strength is {:.1} % of the storey above (limit {:.0} %, ASCE 7-16 Table 12.3-2 type 5a; data: {src_text})",
-                    st.weak_ratio.unwrap_or(0.0) * 100.0,
-                    s.weak_ratio * 100.0
-                ),
+                FlagDetail::WeakStorey(WeakStorey {
+                    ratio: st.weak_ratio,
+                    limit: s.weak_ratio,
+                    data,
+                }),
             );
         }
     }
@@ -327,168 +303,142 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
         let above = res.walls_above_ground.get(d);
         let ground = *res.rc_wall_area_m2.get(d);
         let upper = res.storeys.get(1).map(|st| *st.rc_wall_m2.get(d));
-        let mut why: Vec<String> = Vec::new();
-        if !above.is_empty() {
-            why.push(format!(
-                "walls starting above the ground storey: {}",
-                fmt_ids(above)
-            ));
-        }
-        if let Some(u) = upper
-            && u > ground * (1.0 + 1e-9) + 1e-12
-        {
-            why.push(format!(
-                "RC wall area at storey 2 ({u:.3} m²) exceeds the ground storey's ({ground:.3} m²)"
-            ));
-        }
-        if !why.is_empty() {
-            push(&mut fl, "wall-discontinued", Some(d), why.join("; "));
+        let upper_m2 = upper
+            .filter(|&u| u > ground * (1.0 + 1e-9) + 1e-12)
+            .map(|u| (u, ground));
+        if !above.is_empty() || upper_m2.is_some() {
+            push(
+                &mut fl,
+                Some(d),
+                FlagDetail::WallDiscontinued(WallDiscontinued {
+                    above: above.clone(),
+                    upper_m2,
+                }),
+            );
         }
     }
     let year = r.year_built;
     let from = s.boundary_elements_from_year;
     for d in Dir::BOTH {
-        let ws: Vec<&WallSpec> = res.walls_in(d).collect();
-        let missing: Vec<&WallSpec> = ws
-            .iter()
-            .copied()
+        let missing: Vec<WallRef> = res
+            .walls_in(d)
             .filter(|w| match w.boundary_recorded {
                 Some(YesNo::No) => true,
                 Some(YesNo::Unknown) | None => matches!((year, from), (Some(y), Some(f)) if y < f),
                 Some(YesNo::Yes) => false,
             })
+            .map(wall_ref)
             .collect();
         if !missing.is_empty() {
             push(
                 &mut fl,
-                "boundary-missing",
                 Some(d),
-                format!(
-                    "no boundary elements in {} (recorded \"no\", or \"unknown\" with year built {} before boundary_elements_from_year {})",
-                    names(&missing),
-                    year.map_or("-".into(), |y| y.to_string()),
-                    from.map_or("-".into(), |y| y.to_string())
-                ),
+                FlagDetail::BoundaryMissing(BoundaryRecord {
+                    walls: missing,
+                    year,
+                    from_year: from,
+                }),
             );
         }
-        let unknown: Vec<&WallSpec> = ws
-            .iter()
-            .copied()
+        let unknown: Vec<WallRef> = res
+            .walls_in(d)
             .filter(|w| {
                 matches!(w.boundary_recorded, Some(YesNo::Unknown) | None)
                     && (year.is_none() || from.is_none())
             })
+            .map(wall_ref)
             .collect();
         if !unknown.is_empty() {
             push(
                 &mut fl,
-                "boundary-unknown",
                 Some(d),
-                format!(
-                    "boundary elements of {} are unknown and cannot be inferred (year built {}, boundary_elements_from_year {}); treated as absent",
-                    names(&unknown),
-                    year.map_or("unknown".into(), |y| y.to_string()),
-                    from.map_or("not set".into(), |y| y.to_string())
-                ),
+                FlagDetail::BoundaryUnknown(BoundaryRecord {
+                    walls: unknown,
+                    year,
+                    from_year: from,
+                }),
             );
         }
     }
     for d in Dir::BOTH {
         let drift = directions.get(d).roof_drift_demand;
-        let mut hits: Vec<String> = Vec::new();
+        let mut hits: Vec<BoundaryHit> = Vec::new();
         for w in res.walls_in(d).filter(|w| !w.boundary) {
             let c = neutral_axis_m(w.lw, w.nu, w.web_steel_pct / 100.0, w.fy_mpa, w.fc_mpa);
             let c_lim = boundary_c_limit_m(w.lw, drift, s);
             if boundary_required(res.height_m, w.lw, c, c_lim, s) {
-                hits.push(format!(
-                    "{} (hw/lw = {:.2}, c = {:.3} m ≥ lw/(600·1.5·δu/hw) = {:.3} m)",
-                    wall_name(w),
-                    res.height_m / w.lw,
-                    c,
-                    c_lim
-                ));
+                hits.push(BoundaryHit {
+                    wall: wall_ref(w),
+                    aspect: res.height_m / w.lw,
+                    c_m: c,
+                    c_limit_m: c_lim,
+                });
             }
         }
         if !hits.is_empty() {
             push(
                 &mut fl,
-                "boundary-needed",
                 Some(d),
-                format!(
-                    "ACI 318-19 §18.10.6.2 requires special boundary elements at roof drift {:.4}: {}",
-                    drift,
-                    hits.join("; ")
-                ),
+                FlagDetail::BoundaryNeeded(BoundaryNeeded { drift, walls: hits }),
             );
         }
     }
     if !res.walls.is_empty() && nu > s.high_axial_wall {
         push(
             &mut fl,
-            "high-axial-wall",
             None,
-            format!(
-                "axial load ratio ν = {nu:.3} > {} (EN 1998-1 §5.4.3.4.1, DCM walls)",
-                s.high_axial_wall
-            ),
+            FlagDetail::HighAxialWall(Exceeds {
+                value: nu,
+                limit: s.high_axial_wall,
+            }),
         );
     }
     if has_columns && nu > s.high_axial_column {
         push(
             &mut fl,
-            "high-axial-column",
             None,
-            format!(
-                "axial load ratio ν = {nu:.3} > {} (EN 1998-1 §5.4.3.2.1, DCM columns)",
-                s.high_axial_column
-            ),
+            FlagDetail::HighAxialColumn(Exceeds {
+                value: nu,
+                limit: s.high_axial_column,
+            }),
         );
     }
     for d in Dir::BOTH {
-        let hits: Vec<String> = res
+        let walls: Vec<(WallRef, f64)> = res
             .walls_in(d)
             .filter(|w| w.lw > 0.0 && res.height_m / w.lw > s.slender_wall_ratio)
-            .map(|w| format!("{} (H/lw = {:.1})", wall_name(w), res.height_m / w.lw))
+            .map(|w| (wall_ref(w), res.height_m / w.lw))
             .collect();
-        if !hits.is_empty() {
+        if !walls.is_empty() {
             push(
                 &mut fl,
-                "slender-wall",
                 Some(d),
-                format!(
-                    "H/lw above {}: {}; little test evidence for such walls",
-                    s.slender_wall_ratio,
-                    hits.join(", ")
-                ),
+                FlagDetail::SlenderWall(WallRatios {
+                    limit: s.slender_wall_ratio,
+                    walls,
+                }),
             );
         }
     }
     for d in Dir::BOTH {
-        let hits: Vec<String> = res
+        let walls: Vec<(WallRef, f64)> = res
             .walls_in(d)
             .filter(|w| w.lw > 0.0 && lv_wall / w.lw < s.squat_wall_ratio)
-            .map(|w| format!("{} (Lv/lw = {:.2})", wall_name(w), lv_wall / w.lw))
+            .map(|w| (wall_ref(w), lv_wall / w.lw))
             .collect();
-        if !hits.is_empty() {
+        if !walls.is_empty() {
             push(
                 &mut fl,
-                "squat-wall",
                 Some(d),
-                format!(
-                    "Lv/lw below {}: {}; shear controls and the flexural rotation capacity is not reliable",
-                    s.squat_wall_ratio,
-                    hits.join(", ")
-                ),
+                FlagDetail::SquatWall(WallRatios {
+                    limit: s.squat_wall_ratio,
+                    walls,
+                }),
             );
         }
     }
     if r.short_columns == Some(YesNo::Yes) {
-        push(
-            &mut fl,
-            "short-column",
-            None,
-            "short (captive) columns recorded by the surveyor: shear failure before the drift capacities are reached; class 2 at least".into(),
-        );
+        push(&mut fl, None, FlagDetail::ShortColumn);
     }
     // Torsion.
     let plan_walls: Vec<torsion::PlanWall> = res
@@ -524,15 +474,14 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
             {
                 push(
                     &mut fl,
-                    "torsion",
                     Some(Dir::X),
-                    format!(
-                        "e0y = |y_s − y_m| = |{ys:.2} − {:.2}| = {:.2} m vs 0.30·r_y = {:.2} m; r_y = {ry:.2} m vs l_s = {:.2} m (EN 1998-1 §4.2.3.2(6), eqs. 4.1a/4.1b)",
-                        tc.ym,
-                        (ys - tc.ym).abs(),
-                        s.torsion_eccentricity_ratio * ry,
-                        tc.ls
-                    ),
+                    FlagDetail::Torsion(Torsion {
+                        stiffness_centre_m: ys,
+                        mass_centre_m: tc.ym,
+                        radius_m: ry,
+                        ratio: s.torsion_eccentricity_ratio,
+                        ls_m: tc.ls,
+                    }),
                 );
             }
             if tc.fails_y
@@ -540,55 +489,46 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
             {
                 push(
                     &mut fl,
-                    "torsion",
                     Some(Dir::Y),
-                    format!(
-                        "e0x = |x_s − x_m| = |{xs:.2} − {:.2}| = {:.2} m vs 0.30·r_x = {:.2} m; r_x = {rx:.2} m vs l_s = {:.2} m (EN 1998-1 §4.2.3.2(6), eqs. 4.1a/4.1b)",
-                        tc.xm,
-                        (xs - tc.xm).abs(),
-                        s.torsion_eccentricity_ratio * rx,
-                        tc.ls
-                    ),
+                    FlagDetail::Torsion(Torsion {
+                        stiffness_centre_m: xs,
+                        mass_centre_m: tc.xm,
+                        radius_m: rx,
+                        ratio: s.torsion_eccentricity_ratio,
+                        ls_m: tc.ls,
+                    }),
                 );
             }
         }
     }
     // Outside calibration.
+    let range = CalibrationRange {
+        axial_max: s.calibration_axial_max,
+        steel_min_pct: s.calibration_steel_min_pct,
+        steel_max_pct: s.calibration_steel_max_pct,
+        shear_span_min: s.calibration_shear_span_min,
+        shear_span_max: s.calibration_shear_span_max,
+    };
+    let span_outside =
+        |lvh: f64| lvh < s.calibration_shear_span_min || lvh > s.calibration_shear_span_max;
     for d in Dir::BOTH {
-        let mut hits: Vec<String> = Vec::new();
+        let mut hits: Vec<CalibrationWall> = Vec::new();
         for w in res.walls_in(d) {
-            let mut why: Vec<String> = Vec::new();
-            if w.nu > s.calibration_axial_max {
-                why.push(format!("ν = {:.3}", w.nu));
-            }
-            if w.boundary_steel_pct < s.calibration_steel_min_pct
-                || w.boundary_steel_pct > s.calibration_steel_max_pct
-            {
-                why.push(format!("boundary steel {} %", w.boundary_steel_pct));
-            }
             let lvh = if w.lw > 0.0 { lv_wall / w.lw } else { 0.0 };
-            if lvh < s.calibration_shear_span_min || lvh > s.calibration_shear_span_max {
-                why.push(format!("Lv/h = {lvh:.2}"));
-            }
-            if !why.is_empty() {
-                hits.push(format!("{} ({})", wall_name(w), why.join(", ")));
+            let hit = CalibrationWall {
+                wall: wall_ref(w),
+                nu: (w.nu > s.calibration_axial_max).then_some(w.nu),
+                steel_pct: (w.boundary_steel_pct < s.calibration_steel_min_pct
+                    || w.boundary_steel_pct > s.calibration_steel_max_pct)
+                    .then_some(w.boundary_steel_pct),
+                shear_span: span_outside(lvh).then_some(lvh),
+            };
+            if hit.nu.is_some() || hit.steel_pct.is_some() || hit.shear_span.is_some() {
+                hits.push(hit);
             }
         }
         if !hits.is_empty() {
-            push(
-                &mut fl,
-                "outside-calibration",
-                Some(d),
-                format!(
-                    "capacity equations extrapolated (calibrated for ν ≤ {}, boundary steel {}–{} %, Lv/h {}–{}): {}",
-                    s.calibration_axial_max,
-                    s.calibration_steel_min_pct,
-                    s.calibration_steel_max_pct,
-                    s.calibration_shear_span_min,
-                    s.calibration_shear_span_max,
-                    hits.join("; ")
-                ),
-            );
+            push(&mut fl, Some(d), FlagDetail::CalibrationWalls(range, hits));
         }
     }
     if has_columns {
@@ -597,72 +537,56 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
         } else {
             0.0
         };
-        let mut why: Vec<String> = Vec::new();
-        if nu > s.calibration_axial_max {
-            why.push(format!("ν = {nu:.3} > {}", s.calibration_axial_max));
-        }
-        if lvh < s.calibration_shear_span_min || lvh > s.calibration_shear_span_max {
-            why.push(format!(
-                "Lv/h = {lvh:.2} outside {}–{}",
-                s.calibration_shear_span_min, s.calibration_shear_span_max
-            ));
-        }
-        if !why.is_empty() {
+        let nu_out = (nu > s.calibration_axial_max).then_some(nu);
+        let span_out = span_outside(lvh).then_some(lvh);
+        if nu_out.is_some() || span_out.is_some() {
             push(
                 &mut fl,
-                "outside-calibration",
                 None,
-                format!("column capacity equations extrapolated: {}", why.join(", ")),
+                FlagDetail::CalibrationColumns(range, nu_out, span_out),
             );
         }
     }
     if let Some(nf) = input.site.and_then(|x| x.near_fault.as_ref()) {
         push(
             &mut fl,
-            "near-fault",
             None,
-            format!(
-                "fault trace \"{}\" at {:.2} km ({}) is within the {} km near-fault distance (ASCE 7-16 §11.4.1); spectrum × {}",
-                nf.name,
-                nf.distance_m / 1000.0,
-                nf.mw
-                    .map_or("no magnitude given".to_string(), |m| format!("Mw {m}")),
-                nf.limit_km,
-                spectrum_factor
-            ),
+            FlagDetail::NearFault(NearFault {
+                name: nf.name.clone(),
+                distance_m: nf.distance_m,
+                mw: nf.mw,
+                limit_km: nf.limit_km,
+                factor: spectrum_factor,
+            }),
         );
     }
     if res.height_m > s.period_height_limit_m {
         push(
             &mut fl,
-            "period-range",
             None,
-            format!(
-                "height H = {:.1} m above {} m: the EN 1998-1 §4.3.3.2.2 period formula is outside its range",
-                res.height_m, s.period_height_limit_m
-            ),
+            FlagDetail::PeriodRange(Exceeds {
+                value: res.height_m,
+                limit: s.period_height_limit_m,
+            }),
         );
     }
     for d in Dir::BOTH {
-        let hits: Vec<String> = wall_results
+        // The retrofit walls (`new`) are designed walls, not surveyed ones: not checked.
+        let hits: Vec<BrittleWall> = wall_results
             .iter()
-            .filter(|w| w.direction == Some(d) && w.wall_id != "new" && w.theta_um < w.theta_y)
-            .map(|w| {
-                let name = if w.representative {
-                    format!("the representative {} wall", d.code().to_uppercase())
-                } else {
-                    format!("wall {}", w.wall_id)
-                };
-                format!("{name} (θum = {:.5} < θy = {:.5})", w.theta_um, w.theta_y)
+            .filter(|w| w.direction == Some(d) && !w.new && w.theta_um < w.theta_y)
+            .map(|w| BrittleWall {
+                wall: WallRef {
+                    id: w.wall_id.clone(),
+                    dir: d,
+                    representative: w.representative,
+                },
+                theta_um: w.theta_um,
+                theta_y: w.theta_y,
             })
             .collect();
         if !hits.is_empty() {
-            push(
-                &mut fl,
-                "brittle",
-                Some(d),
-                format!("fails before it yields: {}", hits.join(", ")),
-            );
+            push(&mut fl, Some(d), FlagDetail::BrittleWalls(hits));
         }
     }
     if let Some(c) = column_cap
@@ -670,12 +594,8 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
     {
         push(
             &mut fl,
-            "brittle",
             None,
-            format!(
-                "columns fail before they yield (θum = {:.5} < θy = {:.5})",
-                c.theta_um, c.theta_y
-            ),
+            FlagDetail::BrittleColumns(c.theta_um, c.theta_y),
         );
     }
     if let Some(th) = s.pi_threshold_pct {
@@ -684,25 +604,22 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
             if pi < th {
                 push(
                     &mut fl,
-                    "low-priority-index",
                     Some(d),
-                    format!("priority index PI = {pi:.3} % below the threshold {th} %"),
+                    FlagDetail::LowPriorityIndex(Exceeds {
+                        value: pi,
+                        limit: th,
+                    }),
                 );
             }
         }
     }
     if !res.defaults_used.is_empty() {
-        let parts: Vec<String> = res
+        let values: Vec<(String, DefaultValue)> = res
             .defaults_used
             .iter()
-            .map(|k| format!("{k} = {}", default_value_text(k, res, s)))
+            .map(|k| (k.clone(), default_value(k, res, s)))
             .collect();
-        push(
-            &mut fl,
-            "defaults-used",
-            None,
-            format!("blank inputs took defaults: {}", parts.join(", ")),
-        );
+        push(&mut fl, None, FlagDetail::DefaultsUsed(values));
     }
 
     fl

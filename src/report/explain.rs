@@ -320,7 +320,7 @@ fn render(
     let _ = writeln!(
         o,
         "§5 Spectrum: {}; ag = γI·agR = {} g; η = {}; spectrum factor {}",
-        d.spectrum,
+        super::flag_text::spectrum_text(&d.spectrum),
         n(d.ag_g),
         n(d.eta),
         n(d.spectrum_factor)
@@ -448,7 +448,7 @@ fn render(
             f.code,
             f.direction
                 .map_or(String::new(), |d| format!(" ({})", d.code())),
-            f.detail
+            super::flag_text::detail(f)
         );
     }
     let _ = writeln!(
@@ -474,7 +474,11 @@ fn render(
             if rf.flags_after.is_empty() {
                 "none".into()
             } else {
-                rf.flags_after.join(", ")
+                rf.flags_after
+                    .iter()
+                    .map(|c| c.as_str())
+                    .collect::<Vec<_>>()
+                    .join(", ")
             },
             if rf.note.is_empty() {
                 String::new()

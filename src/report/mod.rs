@@ -6,6 +6,7 @@ Every file is written to a temporary name in its target folder and renamed when 
 pub mod atomic;
 pub mod csv;
 pub mod explain;
+pub mod flag_text;
 pub mod geojson;
 pub mod json;
 pub mod terminal;

@@ -69,7 +69,10 @@ impl sizing::Rescreen for Prepared<'_> {
         Ok(result.dcr.ls)
     }
 
-    fn after(&self, new: &NewWalls) -> Result<(PerDir<f64>, Vec<String>), Vec<String>> {
+    fn after(
+        &self,
+        new: &NewWalls,
+    ) -> Result<(PerDir<f64>, Vec<crate::results::FlagCode>), Vec<String>> {
         let mut dcr = PerDir { x: 0.0, y: 0.0 };
         let mut states: PerDir<Option<engine::flags::StoreyState>> = PerDir::default();
         for d in Dir::BOTH {

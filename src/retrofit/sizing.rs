@@ -9,9 +9,9 @@ function of its inputs and can be tested with synthetic demand/capacity curves; 
 production closure is [`crate::engine::screen_building_with`].
 */
 
-use crate::engine::{NewWalls, flags};
+use crate::engine::NewWalls;
 use crate::model::{Dir, PerDir};
-use crate::results::{BuildingResult, Retrofit};
+use crate::results::{BuildingResult, FlagCode, Retrofit};
 use crate::settings::Settings;
 
 /// Most bisection steps taken (method §12: "at most 60 iterations"). A loop guard, not an
@@ -19,10 +19,10 @@ use crate::settings::Settings;
 pub const MAX_BISECTION_ITERATIONS: u32 = 60;
 
 /// The soft/weak storey flag codes that the new walls can remove (method §10, §12).
-pub const STOREY_FLAG_CODES: [&str; 3] = [
-    flags::SOFT_STOREY,
-    flags::SOFT_STOREY_EXTREME,
-    flags::WEAK_STOREY,
+pub const STOREY_FLAG_CODES: [FlagCode; 3] = [
+    FlagCode::SoftStorey,
+    FlagCode::SoftStoreyExtreme,
+    FlagCode::WeakStorey,
 ];
 
 /// Note when a direction has no wall solution within the cap (method §12).
@@ -121,7 +121,7 @@ pub trait Rescreen {
 
     /// With `new` walls in both directions: each direction's DCR_LS and the soft/weak storey
     /// codes among the flags ([`storey_flag_codes`]), for `flags_after`.
-    fn after(&self, new: &NewWalls) -> Result<(PerDir<f64>, Vec<String>), Vec<String>> {
+    fn after(&self, new: &NewWalls) -> Result<(PerDir<f64>, Vec<FlagCode>), Vec<String>> {
         self.screen(new).map(|r| {
             let dcr = PerDir {
                 x: r.directions.x.dcr.ls,
@@ -180,11 +180,11 @@ pub fn size_direction(
 }
 
 /// The soft/weak storey codes among a result's flags, each once, in flag order.
-pub fn storey_flag_codes(result: &BuildingResult) -> Vec<String> {
-    let mut codes: Vec<String> = Vec::new();
+pub fn storey_flag_codes(result: &BuildingResult) -> Vec<FlagCode> {
+    let mut codes: Vec<FlagCode> = Vec::new();
     for f in &result.flags {
-        if STOREY_FLAG_CODES.contains(&f.code.as_str()) && !codes.iter().any(|c| c == &f.code) {
-            codes.push(f.code.clone());
+        if STOREY_FLAG_CODES.contains(&f.code) && !codes.contains(&f.code) {
+            codes.push(f.code);
         }
     }
     codes
@@ -482,11 +482,10 @@ mod tests {
         r.directions.x.dcr.ls = 1.8 * (-new.area_m2.x / 10.0).exp();
         r.directions.y.dcr.ls = 0.9 * (-new.area_m2.y / 10.0).exp();
         if new.area_m2.x < 3.0 {
-            r.flags.push(crate::results::Flag {
-                code: "soft-storey".into(),
-                direction: Some(Dir::X),
-                detail: String::new(),
-            });
+            r.flags.push(crate::results::Flag::new(
+                Some(Dir::X),
+                crate::results::FlagDetail::CodeOnly(FlagCode::SoftStorey),
+            ));
         }
         Ok(r)
     }

@@ -4,10 +4,11 @@
 
 use seistriage::model::{Dir, FaultDistance, NotScreened, PerDir, Problem, Severity, Use};
 use seistriage::results::{
-    BudgetPlan, BuildingDetail, BuildingResult, Counts, DirectionDetail, DirectionResult, Flag,
-    FundingPlan, Governing, Group, Groups, InputInfo, Levels, Report, Retrofit, WallResult,
+    BudgetPlan, BuildingDetail, BuildingResult, Counts, DefaultValue, DirectionDetail,
+    DirectionResult, Flag, FlagCode, FlagDetail, FundingPlan, Governing, Group, Groups, InputInfo,
+    Levels, Report, Retrofit, SoftStorey, SpectrumShape, StoreyData, WallResult,
 };
-use seistriage::settings::{Level, Settings};
+use seistriage::settings::{GroundType, Level, Settings};
 
 /// Names that a spreadsheet would run as formulas if they were not written as text.
 pub const HOSTILE_NAMES: [&str; 4] = ["=1+1", "+SUM(A1:A2)", "-2+3", "@cmd"];
@@ -117,21 +118,34 @@ pub fn building(i: usize, class: u8) -> BuildingResult {
         },
         flags: if i.is_multiple_of(2) {
             vec![
-                Flag {
-                    code: "soft-storey".into(),
-                    direction: Some(Dir::X),
-                    detail: "k1/k2 = 0.55 < 0.70".into(),
-                },
-                Flag {
-                    code: "soft-storey".into(),
-                    direction: Some(Dir::Y),
-                    detail: "k1/k2 = 0.62 < 0.70".into(),
-                },
-                Flag {
-                    code: "defaults-used".into(),
-                    direction: None,
-                    detail: "=fc_mpa taken as 20".into(),
-                },
+                Flag::new(
+                    Some(Dir::X),
+                    FlagDetail::SoftStorey(SoftStorey {
+                        r2: Some(0.55),
+                        r_mean: None,
+                        limit: 0.7,
+                        limit_mean: 0.8,
+                        infill_weight: 0.1,
+                        data: StoreyData::Sheet,
+                        added_m2: 0.0,
+                    }),
+                ),
+                Flag::new(
+                    Some(Dir::Y),
+                    FlagDetail::SoftStorey(SoftStorey {
+                        r2: Some(0.62),
+                        r_mean: None,
+                        limit: 0.7,
+                        limit_mean: 0.8,
+                        infill_weight: 0.1,
+                        data: StoreyData::Sheet,
+                        added_m2: 0.0,
+                    }),
+                ),
+                Flag::new(
+                    None,
+                    FlagDetail::DefaultsUsed(vec![("fc_mpa".into(), DefaultValue::MPa(20.0))]),
+                ),
             ]
         } else {
             Vec::new()
@@ -146,7 +160,7 @@ pub fn building(i: usize, class: u8) -> BuildingResult {
             replacement_cost: Some(900_000.0),
             replace: Some(i == 5),
             flags_after: if i.is_multiple_of(2) {
-                vec!["soft-storey".into()]
+                vec![FlagCode::SoftStorey]
             } else {
                 Vec::new()
             },
@@ -170,7 +184,14 @@ pub fn building(i: usize, class: u8) -> BuildingResult {
             ground_type: "C".into(),
             gamma_i: 1.0,
             ag_g: 0.24,
-            spectrum: "ec8-type1 S 1.15 TB 0.20 TC 0.60 TD 2.0".into(),
+            spectrum: SpectrumShape::Ec8 {
+                type2: false,
+                ground: GroundType::C,
+                s: 1.15,
+                tb_s: 0.2,
+                tc_s: 0.6,
+                td_s: 2.0,
+            },
             eta: 1.0,
             boundary_elements: false,
             columns_detailed: false,
@@ -195,6 +216,7 @@ pub fn building(i: usize, class: u8) -> BuildingResult {
                     ls: 0.0079,
                     cp: 0.0105,
                 },
+                new: false,
             })
             .collect(),
     }

@@ -310,7 +310,13 @@ pub fn retrofit_row<'a>(
         Cell::opt_yes_no(r.replace),
         Cell::opt(funding_cost(b)),
         Cell::opt(cumulative),
-        Cell::owned(r.flags_after.join(sep)),
+        Cell::owned(
+            r.flags_after
+                .iter()
+                .map(|c| c.as_str())
+                .collect::<Vec<_>>()
+                .join(sep),
+        ),
         Cell::opt_yes_no(r.funded),
         Cell::opt_yes_no(r.funded_best),
         Cell::owned(note),
@@ -559,7 +565,7 @@ pub fn direction_row<'a>(b: &'a BuildingResult, d: Dir, out: &mut Vec<Cell<'a>>)
         Cell::text(&bd.ground_type),
         Cell::Num(bd.gamma_i),
         Cell::Num(bd.ag_g),
-        Cell::text(&bd.spectrum),
+        Cell::owned(crate::report::flag_text::spectrum_text(&bd.spectrum)),
         Cell::Num(bd.spectrum_factor),
         Cell::Num(bd.eta),
         Cell::Num(det.tc_s),
@@ -665,9 +671,9 @@ pub fn flag_row<'a>(b: &'a BuildingResult, f: &'a crate::results::Flag, out: &mu
         Cell::text(&b.id),
         Cell::text(&b.name),
         Cell::Num(f64::from(b.class)),
-        Cell::text(&f.code),
+        Cell::text(f.code.as_str()),
         f.direction.map_or(Cell::Blank, |d| Cell::text(d.code())),
-        Cell::text(&f.detail),
+        Cell::owned(crate::report::flag_text::detail(f)),
     ]);
 }
 
