@@ -564,3 +564,87 @@ fn json_spill_is_removed_by_an_interrupt_like_every_temporary_file() {
     assert!(!listed[0].exists());
     assert!(!live_temp_files().contains(&listed[0]));
 }
+
+/// Found in review (issue 12): the brittle flag skipped walls whose id was "new" (meaning the
+/// generated retrofit walls), so a surveyed wall that the inventory happens to name "new"
+/// lost its θum < θy check. The check now reads the wall's typed `new` field. The building:
+/// a heavily loaded, unconfined 12 m wall of 8 MPa concrete in a 12-storey block (as in
+/// `brittle_flag_when_theta_um_below_theta_y`), listed on the walls sheet as "new".
+#[test]
+fn brittle_flag_checks_a_surveyed_wall_named_new() {
+    use seistriage::engine::{BuildingInput, NewWalls, screen_building, screen_building_with};
+    use seistriage::model::{BuildingRecord, Dir, GroundType, Use, WallRecord, YesNo};
+    use seistriage::report::flag_text::detail;
+    use seistriage::settings::Settings;
+    let rec = BuildingRecord {
+        row: 2,
+        id: "K1".into(),
+        name: "Invented block K1".into(),
+        use_: Some(Use::Residential),
+        year_built: Some(1980),
+        storeys: 12,
+        storey_height_m: Some(3.0),
+        ground_storey_height_m: Some(3.0),
+        plan_area_m2: 200.0,
+        column_area_m2: 1.0,
+        column_depth_m: Some(0.4),
+        rc_wall_area_x_m2: Some(3.0),
+        rc_wall_area_y_m2: Some(0.0),
+        infill_area_x_m2: Some(8.0),
+        infill_area_y_m2: Some(8.0),
+        boundary_elements: Some(YesNo::No),
+        short_columns: Some(YesNo::No),
+        fc_mpa: Some(8.0),
+        fy_mpa: Some(420.0),
+        floor_weight_kpa: Some(12.0),
+        ground_type: Some(GroundType::C),
+        agr_g: Some(0.3),
+        ..Default::default()
+    };
+    let walls = ["new", "W2"].map(|id| WallRecord {
+        row: 2,
+        building_id: "K1".into(),
+        wall_id: id.into(),
+        direction: Some(Dir::X),
+        length_m: 12.0,
+        thickness_m: Some(0.125),
+        boundary_elements: Some(YesNo::No),
+        ..Default::default()
+    });
+    let input = BuildingInput {
+        record: &rec,
+        walls: walls.iter().collect(),
+        storeys: vec![],
+        footprint: vec![],
+        site: None,
+    };
+    let s = Settings::default();
+    let r = screen_building(&input, &s).unwrap();
+    let surveyed = r.walls.iter().find(|w| w.wall_id == "new").unwrap();
+    assert!(!surveyed.new);
+    assert!(surveyed.theta_um < surveyed.theta_y);
+    let brittle = r
+        .flags
+        .iter()
+        .find(|f| f.code == "brittle" && f.direction == Some(Dir::X))
+        .unwrap();
+    assert!(
+        detail(brittle).contains("wall new ("),
+        "{}",
+        detail(brittle)
+    );
+    assert!(detail(brittle).contains("wall W2 ("), "{}", detail(brittle));
+    // The generated retrofit walls are still not checked (they are designed walls).
+    let mut nw = NewWalls::default();
+    nw.area_m2.x = 2.0;
+    let with = screen_building_with(&input, &s, &nw).unwrap();
+    assert!(with.walls.iter().any(|w| w.new));
+    let text = with
+        .flags
+        .iter()
+        .filter(|f| f.code == "brittle")
+        .map(detail)
+        .collect::<Vec<_>>()
+        .join("|");
+    assert!(!text.contains("representative"), "{text}");
+}
