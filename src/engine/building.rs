@@ -6,8 +6,8 @@ raises the flags and sets class and score. The rank is set by [`super::screen_al
 
 use crate::model::{Dir, PerDir, YesNo};
 use crate::results::{
-    BuildingDetail, BuildingResult, DefaultValue, DirectionDetail, DirectionResult, Governing,
-    Groups, Levels, SpectrumShape, WallResult,
+    BuildingDetail, BuildingResult, DirectionDetail, DirectionResult, Governing, Groups, Levels,
+    SpectrumShape, WallResult,
 };
 use crate::settings::{CapacityModel, Settings};
 
@@ -594,25 +594,4 @@ pub fn screen(
         },
         walls: wall_results,
     })
-}
-
-/// The value a defaulted input took (for the defaults-used flag and explain; worded by the
-/// report layer).
-pub fn default_value(key: &str, res: &Resolved, s: &Settings) -> DefaultValue {
-    match key {
-        "use" => DefaultValue::Use(res.use_),
-        "storey_height_m" => DefaultValue::Metres(s.default_storey_height_m),
-        "ground_storey_height_m" => {
-            DefaultValue::Metres(res.heights_m.first().copied().unwrap_or(0.0))
-        }
-        "column_depth_m" => DefaultValue::Metres(res.column_depth_m),
-        "wall_length_x_m" | "wall_length_y_m" => DefaultValue::Metres(s.default_wall_length_m),
-        "wall_thickness_m" => DefaultValue::Metres(s.default_wall_thickness_m),
-        "boundary_elements" => DefaultValue::Boundary(res.boundary_elements),
-        "fc_mpa" => DefaultValue::MPa(res.fc_mpa),
-        "fy_mpa" => DefaultValue::MPa(res.fy_mpa),
-        "floor_weight_kpa" => DefaultValue::KPa(res.floor_weight_kpa),
-        "ground_type" => DefaultValue::Ground(s.default_ground_type),
-        _ => DefaultValue::None,
-    }
 }

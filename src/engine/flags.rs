@@ -15,7 +15,7 @@ use crate::results::{
 use crate::settings::Settings;
 
 use super::BuildingInput;
-use super::building::{default_value, storey_strength};
+use super::building::storey_strength;
 use super::capacity::MemberCapacity;
 use super::resolve::{Resolved, StoreyAreas, StoreySource, WallSpec};
 use super::torsion;
@@ -164,6 +164,27 @@ pub fn storey_state(
         r_mean,
         weak,
         weak_ratio,
+    }
+}
+
+/// The value a defaulted input took (method §0, for the defaults-used flag; worded by the
+/// report layer).
+pub fn default_value(key: &str, res: &Resolved, s: &Settings) -> DefaultValue {
+    match key {
+        "use" => DefaultValue::Use(res.use_),
+        "storey_height_m" => DefaultValue::Metres(s.default_storey_height_m),
+        "ground_storey_height_m" => {
+            DefaultValue::Metres(res.heights_m.first().copied().unwrap_or(0.0))
+        }
+        "column_depth_m" => DefaultValue::Metres(res.column_depth_m),
+        "wall_length_x_m" | "wall_length_y_m" => DefaultValue::Metres(s.default_wall_length_m),
+        "wall_thickness_m" => DefaultValue::Metres(s.default_wall_thickness_m),
+        "boundary_elements" => DefaultValue::Boundary(res.boundary_elements),
+        "fc_mpa" => DefaultValue::MPa(res.fc_mpa),
+        "fy_mpa" => DefaultValue::MPa(res.fy_mpa),
+        "floor_weight_kpa" => DefaultValue::KPa(res.floor_weight_kpa),
+        "ground_type" => DefaultValue::Ground(s.default_ground_type),
+        _ => DefaultValue::None,
     }
 }
 
