@@ -9,7 +9,9 @@ use seistriage::pipeline::{self, RunOptions};
 /// Runs `explain` for one building id.
 pub fn run(inventory: &Path, id: &str, opts: &RunOptions) -> anyhow::Result<ExitCode> {
     let loaded = pipeline::load(inventory, opts)?;
-    let text = seistriage::report::explain::explain(&loaded, id);
+    // Screened (and sized) once, here; the report layer only reads the result.
+    let report = pipeline::screen(&loaded);
+    let text = seistriage::report::explain::explain(&loaded, &report, id);
     match text {
         Some(t) => {
             std::io::stdout().lock().write_all(t.as_bytes())?;

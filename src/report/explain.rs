@@ -1,18 +1,18 @@
 /*!
 `explain`: every step of the method for one building, as text an engineer can redo by hand.
 
-The numbers are those of the full screening run ([`crate::pipeline::screen`]): the building
-is looked up in the ranked report, so class, rank and every intermediate number are exactly
-what `screen` writes. The inputs are listed from the engine's own resolution, each default
-marked.
+The numbers are those of the command's own screening run (the ranked [`Report`] it computed
+once, with `crate::pipeline::screen`, passed in; this module runs no pipeline): the building
+is looked up in it, so class, rank and every intermediate number are exactly what `screen`
+writes. The inputs are listed from the engine's own resolution, each default marked.
 */
 
 use std::fmt::Write as _;
 
 use crate::engine::{self, resolve};
 use crate::model::Dir;
-use crate::pipeline::{self, Loaded};
-use crate::results::{BuildingResult, Levels};
+use crate::pipeline::Loaded;
+use crate::results::{BuildingResult, Levels, Report};
 
 /// Formats a number at full precision for hand checks (shortest round-trip text).
 fn n(v: f64) -> String {
@@ -27,8 +27,9 @@ fn lv(l: &Levels) -> String {
     format!("IO {} | LS {} | CP {}", n(l.io), n(l.ls), n(l.cp))
 }
 
-/// The explanation of one building, or `None` when the id is not in the inventory.
-pub fn explain(loaded: &Loaded, id: &str) -> Option<String> {
+/// The explanation of one building of `loaded` as `report` (the screening of `loaded`) found
+/// it, or `None` when the id is not in the inventory.
+pub fn explain(loaded: &Loaded, report: &Report, id: &str) -> Option<String> {
     let in_inventory = loaded.inventory.buildings.iter().any(|b| b.id == id);
     let rejected = loaded.inventory.not_screened.iter().find(|n| n.id == id);
     if !in_inventory {
@@ -44,7 +45,6 @@ pub fn explain(loaded: &Loaded, id: &str) -> Option<String> {
             )
         });
     }
-    let report = pipeline::screen(loaded);
     let Some(b) = report.buildings.iter().find(|b| b.id == id) else {
         let ns = report.not_screened.iter().find(|n| n.id == id);
         let reasons = ns.map_or_else(Vec::new, |n| n.reasons.clone());
@@ -544,9 +544,9 @@ mod tests {
     #[test]
     fn explain_reproduces_screen_numbers() {
         let l = loaded();
-        let report = pipeline::screen(&l);
+        let report = crate::pipeline::screen(&l);
         let b = report.buildings.iter().find(|b| b.id == "E1").unwrap();
-        let text = explain(&l, "E1").unwrap();
+        let text = explain(&l, &report, "E1").unwrap();
         if std::env::var_os("SHOW_EXPLAIN").is_some() {
             println!("{text}");
         }
@@ -568,13 +568,14 @@ mod tests {
     #[test]
     fn explain_says_why_not_screened() {
         let l = loaded();
-        let t = explain(&l, "E2").unwrap();
+        let report = crate::pipeline::screen(&l);
+        let t = explain(&l, &report, "E2").unwrap();
         assert!(
             t.contains("could not be screened") && t.contains("no hazard given"),
             "{t}"
         );
-        let t = explain(&l, "E4").unwrap();
+        let t = explain(&l, &report, "E4").unwrap();
         assert!(t.contains("plan_area_m2 missing"));
-        assert!(explain(&l, "nope").is_none());
+        assert!(explain(&l, &report, "nope").is_none());
     }
 }
