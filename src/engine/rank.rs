@@ -21,13 +21,19 @@ pub fn class(dcr: &Levels, short_column: bool) -> u8 {
     if short_column { c.min(2) } else { c }
 }
 
-/// Plain-words name of a class.
+/// Names of the four classes of method §11, most severe first (the contract's names).
+pub const CLASS_NAMES: [&str; 4] = [
+    "collapse-level deficit",
+    "life-safety deficit",
+    "damage-level deficit",
+    "within screening limits",
+];
+
+/// The name of a class 1–4 ("" for anything else).
 pub fn class_name(class: u8) -> &'static str {
     match class {
-        1 => "collapse-level deficit",
-        2 => "life-safety deficit",
-        3 => "damage-level deficit",
-        _ => "within screening limits",
+        1..=4 => CLASS_NAMES[usize::from(class - 1)],
+        _ => "",
     }
 }
 

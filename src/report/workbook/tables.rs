@@ -98,21 +98,8 @@ pub enum Target {
     Csv,
 }
 
-/// Names of the four classes of method §11, most severe first.
-pub const CLASS_NAMES: [&str; 4] = [
-    "collapse-level deficit",
-    "life-safety deficit",
-    "damage-level deficit",
-    "within screening limits",
-];
-
-/// The name of a class 1–4 ("" for anything else).
-pub fn class_name(class: u8) -> &'static str {
-    match class {
-        1..=4 => CLASS_NAMES[usize::from(class - 1)],
-        _ => "",
-    }
-}
+/// The class names live with the classes (method §11, `engine::rank`).
+pub use crate::engine::rank::{CLASS_NAMES, class_name};
 
 fn max_dcr(b: &BuildingResult, level: Level) -> f64 {
     b.directions
@@ -278,22 +265,6 @@ pub fn retrofit_row<'a>(
         return;
     };
     let sep = if target == Target::Sheet { "; " } else { ";" };
-    let mut note = r.note.clone();
-    if note.is_empty() {
-        let missing: Vec<&str> = Dir::BOTH
-            .iter()
-            .filter(|d| r.added_wall_area_m2.get(**d).is_none())
-            .map(|d| d.code())
-            .collect();
-        if !missing.is_empty() {
-            note = format!(
-                "no wall solution within the cap in {} — detailed study or replacement",
-                missing.join(" and ")
-            );
-        } else if r.cost.is_none() {
-            note = "costs not computed: set unit_cost_wall_m3, unit_cost_floor_m2 and replacement_cost_m2".into();
-        }
-    }
     out.extend([
         Cell::Num(b.rank as f64),
         Cell::text(&b.id),
@@ -319,7 +290,8 @@ pub fn retrofit_row<'a>(
         ),
         Cell::opt_yes_no(r.funded),
         Cell::opt_yes_no(r.funded_best),
-        Cell::owned(note),
+        // The note is the retrofit's own (method §12: `retrofit::sizing` and `retrofit::cost`).
+        Cell::text(&r.note),
     ]);
 }
 
