@@ -21,7 +21,7 @@ use rayon::prelude::*;
 
 use crate::engine::{self, BuildingInput, NewWalls};
 use crate::model::{Dir, PerDir};
-use crate::results::{BudgetPlan, BuildingResult, Retrofit};
+use crate::results::{BudgetPlan, BuildingResult, Excluded, Retrofit};
 use crate::settings::Settings;
 
 /// Sizes the wall retrofit of every building that needs one and fills `retrofit` (method
@@ -96,7 +96,13 @@ fn size_one(
             None => Err(vec![format!("no input found for building {}", r.id)]),
         }),
     }?;
-    cost::apply(&mut rf, r.detail.height_m, r.detail.floor_area_m2, settings);
+    cost::apply(
+        &mut rf,
+        r.detail.height_m,
+        r.detail.floor_area_m2,
+        r.detail.plan_area_m2,
+        settings,
+    );
     Some(rf)
 }
 
@@ -130,6 +136,9 @@ pub fn budget_plan<T: Fundable>(results: &mut [T], settings: &Settings) -> Optio
         .filter_map(|&i| {
             let r = &results[i];
             let c = cost::funding_cost(r.retrofit()?)?;
+            if cost::unfunded_reason(r.retrofit()?, settings).is_some() {
+                return None;
+            }
             Some(budget::Item {
                 index: i,
                 id: r.id().to_string(),
@@ -137,6 +146,17 @@ pub fn budget_plan<T: Fundable>(results: &mut [T], settings: &Settings) -> Optio
                 cost: c,
                 occupants: r.occupants().unwrap_or(0),
                 life_safety: matches!(r.class(), 1 | 2),
+            })
+        })
+        .collect();
+    let excluded: Vec<Excluded> = order
+        .iter()
+        .filter_map(|&i| {
+            let r = &results[i];
+            let reason = cost::unfunded_reason(r.retrofit()?, settings)?;
+            Some(Excluded {
+                id: r.id().to_string(),
+                reason,
             })
         })
         .collect();
@@ -163,6 +183,7 @@ pub fn budget_plan<T: Fundable>(results: &mut [T], settings: &Settings) -> Optio
         budget: amount,
         priority_walk: budget::funding_plan(&items, &plans.walk, None),
         max_occupants: budget::funding_plan(&items, &plans.best, Some(plans.method)),
+        excluded,
     })
 }
 
@@ -252,6 +273,7 @@ pub(crate) mod test_support {
                 direction: Dir::X,
                 group: Group::Walls,
                 level: Level::Ls,
+                frame_alone: false,
             },
             axial_load_ratio: 0.1,
             strength_coefficient: PerDir { x: 0.2, y: 0.2 },

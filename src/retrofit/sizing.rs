@@ -179,6 +179,15 @@ pub fn size_direction(
     )
 }
 
+/// Flag code of captive columns recorded by the surveyor (method §10).
+pub const SHORT_COLUMN: &str = "short-column";
+
+/// True when the building carries the `short-column` flag: walls do not cure captive
+/// columns, the retrofit record gets `column_remedy` (method §12).
+pub fn has_short_columns(result: &BuildingResult) -> bool {
+    result.flags.iter().any(|f| f.code == SHORT_COLUMN)
+}
+
 /// The soft/weak storey codes among a result's flags, each once, in flag order.
 pub fn storey_flag_codes(result: &BuildingResult) -> Vec<String> {
     let mut codes: Vec<String> = Vec::new();
@@ -291,6 +300,7 @@ pub fn size_building(
         replacement_cost: None,
         replace: None,
         flags_after,
+        column_remedy: has_short_columns(base),
         funded: None,
         funded_best: None,
         note: notes.join("; "),

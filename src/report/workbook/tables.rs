@@ -255,15 +255,12 @@ pub const RETROFIT: &[Column] = &[
     col("Note", "note", Kind::Text, 48.0),
 ];
 
-/// The cost a building takes from the budget: its replacement cost where replacement is
-/// recommended, else its retrofit cost (method §12).
+/// The cost a building takes from the budget (method §12), computed by
+/// [`crate::retrofit::cost::funding_cost`] (the one place).
 pub fn funding_cost(b: &BuildingResult) -> Option<f64> {
-    let r = b.retrofit.as_ref()?;
-    if r.replace == Some(true) {
-        r.replacement_cost
-    } else {
-        r.cost
-    }
+    b.retrofit
+        .as_ref()
+        .and_then(crate::retrofit::cost::funding_cost)
 }
 
 /// One Retrofit plan row; `cumulative` is the running funding cost in rank order.
