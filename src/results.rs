@@ -304,6 +304,10 @@ pub struct Retrofit {
     /// Funded by the max-occupants plan (None without a budget plan).
     #[serde(skip)]
     pub funded_best: Option<bool>,
+    /// Why the building is left out of both budget plans (`budget_plan.excluded`), when a
+    /// plan was made and it has no amount to fund.
+    #[serde(skip)]
+    pub excluded: Option<String>,
     /// Plain-words note ("no wall solution within the cap — detailed study or replacement").
     #[serde(skip)]
     pub note: String,

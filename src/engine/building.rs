@@ -756,3 +756,115 @@ pub fn default_value_text(key: &str, res: &Resolved, s: &Settings) -> String {
         _ => String::new(),
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::model::BuildingRecord;
+
+    #[test]
+    fn frame_period_follows_the_order_of_rules() {
+        // Formula: T_frame × period_factor; input: T_in × T_frame/T_formula (method §9).
+        assert!((frame_period_s(0.4, 0.3, None, 1.3) - 0.52).abs() < 1e-15);
+        assert!((frame_period_s(0.4, 0.32, Some(0.6), 1.3) - 0.75).abs() < 1e-15);
+        assert_eq!(frame_kappa(false, &Settings::default()), 1.5);
+        assert_eq!(frame_kappa(true, &Settings::default()), 2.5);
+    }
+
+    fn record() -> BuildingRecord {
+        BuildingRecord {
+            row: 2,
+            id: "F".into(),
+            storeys: 5,
+            storey_height_m: Some(3.0),
+            ground_storey_height_m: Some(3.0),
+            plan_area_m2: 400.0,
+            column_area_m2: 5.0,
+            rc_wall_area_x_m2: Some(4.0),
+            rc_wall_area_y_m2: Some(0.0),
+            wall_length_x_m: Some(6.0),
+            infill_area_x_m2: Some(8.0),
+            fc_mpa: Some(20.0),
+            fy_mpa: Some(420.0),
+            agr_g: Some(0.3),
+            period_x_s: Some(0.5),
+            ..Default::default()
+        }
+    }
+
+    fn input(r: &BuildingRecord) -> BuildingInput<'_> {
+        BuildingInput {
+            record: r,
+            walls: vec![],
+            storeys: vec![],
+            footprint: vec![],
+            site: None,
+        }
+    }
+
+    #[test]
+    fn frame_alone_bound_by_hand_and_independent_of_new_walls() {
+        let r = record();
+        let s = Settings::default();
+        let inp = input(&r);
+        let p = prepare(&inp, &s).unwrap();
+        let (x, _, _) = direction(&p, &s, Dir::X, 0.0);
+        let f = x.frame_alone.unwrap();
+        // Period: input 0.5 s × T_frame/T_formula of the building with its walls.
+        let t_frame = period::period_frame_s(s.ct_period, 15.0);
+        assert!((f.period_s - 0.5 * t_frame / x.detail.period_formula_s).abs() < 1e-12);
+        // C_y = C_m + C_c = (0.2·8 + 1·5)·1000/(12·2000) = 0.275.
+        assert!((f.strength_coefficient - 6600.0 / 24000.0).abs() < 1e-12);
+        // κ_frame (no soft/weak storey), the building's own column capacity.
+        assert_eq!(f.kappa, s.kappa_frame);
+        let cap = p.column_cap.unwrap().levels;
+        assert!((f.dcr.ls - f.drift_demand_columns / cap.ls).abs() < 1e-15);
+        assert!((f.drift_demand_columns - 1.5 * f.roof_drift_demand).abs() < 1e-15);
+        // DCR at LS and CP not above the bound; IO untouched by it.
+        assert!(x.dcr.ls <= f.dcr.ls && x.dcr.cp <= f.dcr.cp);
+        let io = x
+            .group_dcr
+            .walls
+            .unwrap()
+            .io
+            .max(x.group_dcr.columns.unwrap().io);
+        assert_eq!(x.dcr.io, io);
+        // One number per direction and level: the same with new walls (sizing).
+        let (x2, _, _) = direction(&p, &s, Dir::X, 6.0);
+        let f2 = x2.frame_alone.unwrap();
+        assert_eq!((f2.period_s, f2.dcr), (f.period_s, f.dcr));
+        // No RC walls in Y and no new ones: no bound; with new walls in Y: the bound.
+        let (y, _, _) = direction(&p, &s, Dir::Y, 0.0);
+        assert!(y.frame_alone.is_none());
+        let (y2, _, _) = direction(&p, &s, Dir::Y, 3.0);
+        assert!(y2.frame_alone.is_some());
+    }
+
+    #[test]
+    fn governing_group_is_columns_where_the_bound_governs() {
+        // Long unconfined walls of weak concrete (fc 14, fy 220, lw 6 m; KV-038-like) reach
+        // their capacity early; the frame alone carries the demand.
+        let mut r = record();
+        r.fc_mpa = Some(14.0);
+        r.fy_mpa = Some(220.0);
+        r.rc_wall_area_x_m2 = Some(1.5);
+        r.rc_wall_area_y_m2 = Some(1.5);
+        r.wall_length_y_m = Some(6.0);
+        r.period_x_s = None;
+        let b = screen(&input(&r), &Settings::default(), &NewWalls::default()).unwrap();
+        let d = b.directions.get(b.governing.direction);
+        let f = d.frame_alone.unwrap();
+        assert!(f.governs.ls, "{:?} vs {:?}", d.group_dcr, f.dcr);
+        assert!(b.governing.frame_alone);
+        assert_eq!(b.governing.group, Group::Columns);
+        assert_eq!(b.score, f.dcr.ls);
+        let json = serde_json::to_value(&b).unwrap();
+        assert_eq!(json["governing"]["frame_alone"], true);
+        assert!(json["directions"]["x"]["frame_alone"]["dcr"]["ls"].is_number());
+        assert!(
+            json["directions"]["x"]["frame_alone"]["dcr"]
+                .get("io")
+                .is_none()
+        );
+    }
+}

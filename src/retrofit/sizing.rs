@@ -303,6 +303,7 @@ pub fn size_building(
         column_remedy: has_short_columns(base),
         funded: None,
         funded_best: None,
+        excluded: None,
         note: notes.join("; "),
     })
 }
@@ -536,6 +537,26 @@ mod tests {
         assert_eq!(rf.added_wall_area_m2.x, None);
         assert_eq!(rf.added_wall_area_m2.y, Some(0.0));
         assert!(rf.note.starts_with(NO_SOLUTION_NOTE), "{}", rf.note);
+    }
+
+    #[test]
+    fn short_columns_get_a_column_remedy_even_without_walls() {
+        // Method §12: class 2 from the short-column flag alone, DCR_LS below the target in
+        // both directions → both added areas 0, column_remedy true.
+        let s = Settings::default();
+        let mut base = result_with(2, 0.6, 0.5, 1000.0, 9.0);
+        base.flags.push(crate::results::Flag {
+            code: SHORT_COLUMN.into(),
+            direction: None,
+            detail: String::new(),
+        });
+        let rf = size_building(&base, &s, |_: &NewWalls| Ok(base.clone())).unwrap();
+        assert!(rf.column_remedy);
+        assert_eq!(rf.added_wall_area_m2.x, Some(0.0));
+        assert_eq!(rf.added_wall_area_m2.y, Some(0.0));
+        let plain = result_with(1, 1.8, 0.5, 1000.0, 9.0);
+        let rf = size_building(&plain, &s, fake_screen).unwrap();
+        assert!(!rf.column_remedy);
     }
 
     #[test]

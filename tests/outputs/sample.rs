@@ -156,6 +156,7 @@ pub fn building(i: usize, class: u8) -> BuildingResult {
             column_remedy: i == 3,
             funded: Some(i < 6),
             funded_best: Some(i % 2 == 1),
+            excluded: None,
             note: String::new(),
         }),
         row: i + 2,
