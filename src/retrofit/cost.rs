@@ -103,7 +103,8 @@ pub fn replace_recommended(cost: Option<f64>, replacement: f64, replace_ratio: f
 }
 
 /// Note of a captive-column remedy without a price (method §12).
-pub const COLUMN_REMEDY_UNPRICED: &str = "captive-column remedy not costed: unit_cost_short_column_m2 is not set (no built-in price); left out of the budget plans";
+pub const COLUMN_REMEDY_UNPRICED: &str =
+    "column remedy not costed: unit_cost_short_column_m2 is not set (no built-in price)";
 
 /// Fills `cost`, `replacement_cost` and `replace` of a sized retrofit when all three unit
 /// costs are set; leaves them `None` otherwise. A retrofit with a direction without a
@@ -193,7 +194,7 @@ pub fn unfunded_reason(r: &Retrofit, settings: &Settings) -> Option<String> {
             "nothing to fund: no added walls needed and no column remedy (detailed study)".into(),
         ),
         None if r.column_remedy && settings.unit_cost_short_column_m2.is_none() => {
-            Some("captive-column remedy not costed: unit_cost_short_column_m2 is not set".into())
+            Some("column remedy without a price (unit_cost_short_column_m2 not set)".into())
         }
         None => Some(format!(
             "costs not computed: set {}",

@@ -289,10 +289,20 @@ pub fn size_building(
             format!("{NO_SOLUTION_NOTE} (direction {})", unsolved.join(" and ")),
         );
     } else if areas.x == Some(0.0) && areas.y == Some(0.0) {
-        notes.push(format!(
-            "no added walls needed: DCR_LS is at or below the target {target} in both directions (class {} for other reasons, e.g. short columns — detailed study)",
-            base.class
-        ));
+        if has_short_columns(base) {
+            notes.push(format!(
+                "no added walls needed: DCR_LS is at or below the target {target} in both directions; the captive columns need their own remedy (separating the infill from the columns, or jacketing them)"
+            ));
+        } else {
+            notes.push(format!(
+                "no added walls needed: DCR_LS is at or below the target {target} in both directions (class {} for other reasons — detailed study)",
+                base.class
+            ));
+        }
+    } else if has_short_columns(base) {
+        notes.push(
+            "the captive columns need their own remedy besides the walls (separating the infill from the columns, or jacketing them)".into(),
+        );
     }
     Some(Retrofit {
         added_wall_area_m2: areas,

@@ -278,8 +278,7 @@ pub fn report(n: usize) -> Report {
             },
             excluded: vec![Excluded {
                 id: "B0007".into(),
-                reason: "captive-column remedy not costed: unit_cost_short_column_m2 is not set"
-                    .into(),
+                reason: "column remedy without a price (unit_cost_short_column_m2 not set)".into(),
             }],
         }),
         buildings,

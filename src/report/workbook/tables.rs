@@ -257,7 +257,7 @@ pub const RETROFIT: &[Column] = &[
         "Excluded from the budget plans (reason)",
         "excluded",
         Kind::Text,
-        30.0,
+        44.0,
     ),
     col("Note", "note", Kind::Text, 48.0),
 ];
