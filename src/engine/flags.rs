@@ -15,9 +15,9 @@ use crate::results::{
 use crate::settings::Settings;
 
 use super::BuildingInput;
-use super::building::storey_strength;
 use super::capacity::MemberCapacity;
 use super::resolve::{Resolved, StoreyAreas, StoreySource, WallSpec};
+use super::strength::storey_strength;
 use super::torsion;
 
 /// Lateral stiffness proxy of storey i in d: k = (A_cw + w_m·A_mw + A_col/2)/h_i (m²/m;
@@ -122,6 +122,8 @@ pub struct StoreyState {
     pub weak: bool,
     /// S1/S2.
     pub weak_ratio: Option<f64>,
+    /// Which storey data the checks used (method §10 precedence).
+    pub source: StoreySource,
 }
 
 impl StoreyState {
@@ -131,7 +133,18 @@ impl StoreyState {
     }
 }
 
-/// Soft/weak storey state of direction d with `added` m² of new walls at every storey.
+/// The storey data a soft/weak storey flag used (method §10 precedence), for its wording.
+pub fn storey_data(source: StoreySource) -> StoreyData {
+    match source {
+        StoreySource::Sheet => StoreyData::Sheet,
+        StoreySource::Upper => StoreyData::UpperColumns,
+        StoreySource::Derived { walls_sheet } => StoreyData::Derived { walls_sheet },
+        StoreySource::None => StoreyData::None,
+    }
+}
+
+/// Soft/weak storey state of direction d with `added` m² of new walls at every storey, on
+/// the storey data of [`super::resolve::storey_data`] (no check with one storey).
 pub fn storey_state(
     res: &Resolved,
     d: Dir,
@@ -140,13 +153,14 @@ pub fn storey_state(
     added: f64,
     s: &Settings,
 ) -> StoreyState {
-    if res.storey_source == StoreySource::None || res.storeys.len() < 2 {
+    if res.storeys.len() < 2 {
         return StoreyState {
             soft: Soft::None,
             r2: None,
             r_mean: None,
             weak: false,
             weak_ratio: None,
+            source: res.storey_source,
         };
     }
     let k: Vec<f64> = res
@@ -155,8 +169,19 @@ pub fn storey_state(
         .map(|st| stiffness_proxy(st, d, added, s.infill_weight))
         .collect();
     let (soft, r2, r_mean) = soft_storey(&k, s);
-    let s1 = storey_strength(&res.storeys[0], d, beta, beta_new, added, s);
-    let s2 = storey_strength(&res.storeys[1], d, beta, beta_new, added, s);
+    let strength = |st: &StoreyAreas| {
+        storey_strength(
+            beta,
+            beta_new,
+            *st.rc_wall_m2.get(d),
+            added,
+            *st.infill_m2.get(d),
+            st.column_m2,
+            s,
+        )
+    };
+    let s1 = strength(&res.storeys[0]);
+    let s2 = strength(&res.storeys[1]);
     let (weak, weak_ratio) = weak_storey(s1, s2, s);
     StoreyState {
         soft,
@@ -164,6 +189,7 @@ pub fn storey_state(
         r_mean,
         weak,
         weak_ratio,
+        source: res.storey_source,
     }
 }
 
@@ -269,10 +295,7 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
     let push = |fl: &mut Vec<Flag>, d: Option<Dir>, detail: FlagDetail| {
         fl.push(Flag::new(d, detail));
     };
-    let data = match res.storey_source {
-        StoreySource::Upper => StoreyData::UpperColumns,
-        StoreySource::Sheet | StoreySource::None => StoreyData::Sheet,
-    };
+    let data = storey_data(res.storey_source);
     for d in Dir::BOTH {
         let Some(st) = states_after.get(d) else {
             continue;
@@ -536,9 +559,10 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
         let mut hits: Vec<CalibrationWall> = Vec::new();
         for w in res.walls_in(d) {
             let lvh = if w.lw > 0.0 { lv_wall / w.lw } else { 0.0 };
+            let nu_cap = super::capacity::capacity_axial_ratio(w.nu, w.existing, s);
             let hit = CalibrationWall {
                 wall: wall_ref(w),
-                nu: (w.nu > s.calibration_axial_max).then_some(w.nu),
+                nu: (nu_cap > s.calibration_axial_max).then_some(nu_cap),
                 steel_pct: (w.boundary_steel_pct < s.calibration_steel_min_pct
                     || w.boundary_steel_pct > s.calibration_steel_max_pct)
                     .then_some(w.boundary_steel_pct),
@@ -558,7 +582,8 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
         } else {
             0.0
         };
-        let nu_out = (nu > s.calibration_axial_max).then_some(nu);
+        let nu_cap = super::capacity::capacity_axial_ratio(nu, true, s);
+        let nu_out = (nu_cap > s.calibration_axial_max).then_some(nu_cap);
         let span_out = span_outside(lvh).then_some(lvh);
         if nu_out.is_some() || span_out.is_some() {
             push(

@@ -61,10 +61,16 @@ fn factor_text(r: f64) -> String {
     }
 }
 
-fn data_text(d: StoreyData) -> &'static str {
+/// Plain words for the storey data a soft/weak storey flag used (method §10).
+pub fn data_text(d: StoreyData) -> &'static str {
     match d {
-        StoreyData::Sheet => "storeys sheet",
-        StoreyData::UpperColumns => "upper-storey columns (storey 2 only)",
+        StoreyData::Sheet => "data from the storeys sheet",
+        StoreyData::UpperColumns => "data from the upper_* cells (storey 2)",
+        StoreyData::Derived { walls_sheet: true } => "data from the walls sheet and storey heights",
+        StoreyData::Derived { walls_sheet: false } => {
+            "data from the storey heights (storey 2 repeats the ground storey)"
+        }
+        StoreyData::None => "one storey: no data",
     }
 }
 
@@ -82,7 +88,7 @@ fn soft_text(f: &SoftStorey, table_type: &str) -> String {
         String::new()
     };
     format!(
-        "ground-storey stiffness proxy (A_cw + {} + A_col/2)/h: {ratios} (limits {} / {}, ASCE 7-16 Table 12.3-2 type {table_type}; data: {}{with})",
+        "ground-storey stiffness proxy (A_cw + {} + A_col/2)/h: {ratios} (limits {} / {}, ASCE 7-16 Table 12.3-2 type {table_type}; {}{with})",
         infill_term(f.infill_weight),
         f.limit,
         f.limit_mean,
@@ -163,7 +169,7 @@ pub fn detail(f: &Flag) -> String {
         FlagDetail::SoftStorey(x) => soft_text(x, "1a"),
         FlagDetail::SoftStoreyExtreme(x) => soft_text(x, "1b"),
         FlagDetail::WeakStorey(x) => format!(
-            "ground-storey strength is {:.1} % of the storey above (limit {:.0} %, ASCE 7-16 Table 12.3-2 type 5a; data: {})",
+            "ground-storey strength is {:.1} % of the storey above (limit {:.0} %, ASCE 7-16 Table 12.3-2 type 5a; {})",
             x.ratio.unwrap_or(0.0) * 100.0,
             x.limit * 100.0,
             data_text(x.data)

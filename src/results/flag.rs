@@ -143,13 +143,22 @@ pub struct WallRef {
     pub representative: bool,
 }
 
-/// Where the storey-by-storey data of the soft/weak storey tests came from (method §10).
+/// Where the storey-by-storey data of the soft/weak storey tests came from (method §10
+/// precedence).
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum StoreyData {
     /// The storeys sheet.
     Sheet,
-    /// The buildings row's `upper_*` columns (storey 2 only).
+    /// The buildings row's `upper_*` cells (storey 2).
     UpperColumns,
+    /// Derived: storey 2 from the walls sheet (`walls_sheet`) or repeating the ground
+    /// storey, with the storey heights.
+    Derived {
+        /// The walls sheet gave storey 2's walls.
+        walls_sheet: bool,
+    },
+    /// One storey: no data (no check).
+    None,
 }
 
 /// Numbers of a soft / extremely soft storey flag (ASCE 7-16 Table 12.3-2 types 1a/1b).

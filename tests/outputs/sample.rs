@@ -5,8 +5,8 @@
 use seistriage::model::{Dir, FaultDistance, NotScreened, PerDir, Problem, Severity, Use};
 use seistriage::results::{
     BudgetPlan, BuildingDetail, BuildingResult, Counts, DefaultValue, DirectionDetail,
-    DirectionResult, Flag, FlagCode, FlagDetail, FundingPlan, Governing, Group, Groups, InputInfo,
-    Levels, Report, Retrofit, SoftStorey, SpectrumShape, StoreyData, WallResult,
+    DirectionResult, Excluded, Flag, FlagCode, FlagDetail, FundingPlan, Governing, Group, Groups,
+    InputInfo, Levels, Report, Retrofit, SoftStorey, SpectrumShape, StoreyData, WallResult,
 };
 use seistriage::settings::{GroundType, Level, Settings};
 
@@ -48,6 +48,8 @@ fn direction(i: usize, d: Dir, class: u8) -> DirectionResult {
             ls: dcr,
             cp: dcr * 0.75,
         },
+        frame_alone: None,
+        group_dcr: Default::default(),
         detail: DirectionDetail {
             rc_wall_area_m2: 1.5,
             infill_area_m2: 4.0,
@@ -109,6 +111,7 @@ pub fn building(i: usize, class: u8) -> BuildingResult {
                 Group::Walls
             },
             level: Level::Ls,
+            frame_alone: false,
         },
         axial_load_ratio: 0.12,
         strength_coefficient: PerDir { x: 0.27, y: 0.3 },
@@ -164,9 +167,19 @@ pub fn building(i: usize, class: u8) -> BuildingResult {
             } else {
                 Vec::new()
             },
+            column_remedy: i == 3,
             funded: Some(i < 6),
             funded_best: Some(i % 2 == 1),
-            note: String::new(),
+            excluded: None,
+            // The note is the retrofit's own (the sizing writes it; the writers copy it).
+            note: if i == 5 {
+                format!(
+                    "{} (direction y)",
+                    seistriage::retrofit::sizing::NO_SOLUTION_NOTE
+                )
+            } else {
+                String::new()
+            },
         }),
         row: i + 2,
         detail: BuildingDetail {
@@ -293,6 +306,10 @@ pub fn report(n: usize) -> Report {
                 occupants_protected: 21,
                 method: Some("exact 0/1 knapsack".into()),
             },
+            excluded: vec![Excluded {
+                id: "B0007".into(),
+                reason: "column remedy without a price (unit_cost_short_column_m2 not set)".into(),
+            }],
         }),
         buildings,
         not_screened,
