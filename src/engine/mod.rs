@@ -1,5 +1,30 @@
 /*!
-The screening engine: `method.md` §0–§11 as pure functions on typed values.
+The screening engine: `method.md` §0–§11 as pure functions on typed values (§12 is
+`crate::retrofit`, §13 the uncertainty stage). No text is composed here: flags come out as
+typed numbers (`results::Flag`) and the report layer words them (`report::flag_text`).
+
+Where each clause of `method.md` lives (file → function; one step from a formula to its code):
+
+| Clause | What | File → function |
+|---|---|---|
+| §0 | quantities per building: heights, areas, fc/fy (eras, defaults), hazard, detailing rules, walls (listed or representative), storey data | `resolve.rs` → [`resolve::resolve`], [`resolve::boundary_present`], [`resolve::columns_detailed`], [`resolve::storey_data`]; the value a default took: [`flags::default_value`] |
+| §1 | column, wall and priority indices CI, WI_d, PI_d, WIrc_d | `indices.rs` → [`indices::column_index_pct`], [`indices::wall_index_pct`], [`indices::priority_index_pct`], [`indices::rc_wall_index_pct`] |
+| §2 | axial load ratio ν | `resolve.rs` → [`resolve::axial_load_ratio`]; capacity ν: [`capacity::capacity_axial_ratio`] |
+| §3 | strength coefficient C_y (β, τ, α1, C_m + max(C_rc + α1·C_c, C_c)); storey strength proxy | `strength.rs` → [`strength::beta`], [`strength::strength_coefficient`], [`strength::storey_strength`] |
+| §4 | period (eq. 4.6/4.7, Ac, period factor, input period) | `period.rs` → [`period::period_frame_s`], [`period::period_wall_s`], [`period::formula_period_s`]; frame alone: [`building::frame_period_s`] |
+| §5 | elastic spectrum (EN 1998-1 Types 1/2, η; ASCE 7 two-parameter) | `spectrum.rs` → [`spectrum::se_ec8_g`], [`spectrum::sa_two_parameter_g`], [`spectrum::eta`]; per building: [`building::demand_spectrum`] |
+| §6 | N2: Γ, S_ay, q_u, d_t*, roof drift | `n2.rs` → [`n2::participation_factor`], [`n2::yield_acceleration_g`], [`n2::target_displacement_m`], [`n2::roof_drift`]; chained: [`building::demand_chain`] |
+| §7 | drift demand per group, κ (graded, soft/weak, retrofit) | `demand.rs` → [`demand::kappa`], [`demand::kappa_retrofit`], [`demand::wall_drift`], [`demand::column_drift`] |
+| §8 | chord-rotation capacity (EN 1998-3 A.1, θy; ASCE 41 tables) | `capacity.rs` → [`capacity::wall_capacity`], [`capacity::column_capacity`], [`capacity::levels`]; `asce41.rs` → [`asce41::wall_levels`] |
+| §9 | DCRs, frame-alone bound, governing group and direction | `dcr.rs` → [`dcr::group_dcr`], [`dcr::direction_dcr`], [`dcr::apply_frame_alone`], [`dcr::governing_direction`] |
+| §10 | flags (soft/weak storey, boundary elements, ν, slender/squat, torsion, calibration, near fault, period range, brittle, defaults) | `flags.rs` → [`flags::raise`], [`flags::storey_state`], [`flags::soft_storey`], [`flags::weak_storey`]; `torsion.rs` → [`torsion::check`]; wording: `report/flag_text.rs` |
+| §11 | classes and the priority order | `rank.rs` → [`rank::class`], [`rank::class_name`], [`rank::priority_order`], [`rank::rank`] |
+| §12 | retrofit sizing, cost, budget plan | `retrofit/sizing.rs` → `size_building`, `bisect`; `retrofit/cost.rs` → `apply`, `funding_cost`; `retrofit/budget.rs` → `plans`; `retrofit/mod.rs` → `size_all`, `budget_plan` |
+| §13 | uncertainty and rank robustness (`--samples N`) | `src/uncertainty/` (the sampling stage; it re-runs this engine) |
+
+One building end to end: [`building::prepare`] (§0, §2, §5 spectrum, §8 column capacity)
+then [`building::direction`] per direction (§1, §3–§9) then [`building::screen`] (§9
+governing, §10, §11 class); [`screen_all`] screens a stock in parallel and ranks it.
 */
 
 use std::collections::HashMap;
