@@ -491,7 +491,7 @@ fn not_raised(before: f64, after: f64) -> bool {
 
 proptest! {
     // 10,000 generated cases, as issue 13 asks (2.7 s in a debug build, measured once on the
-    // shared 2-core machine; see DEVELOPERS.md).
+    // shared 2-core machine; see docs/journal.md).
     #![proptest_config(ProptestConfig { cases: 10_000, failure_persistence: None, .. ProptestConfig::default() })]
 
     /// Method §3 and §9 (issue 13, item 1): with the EN 1998-3 capacity model, adding RC wall
