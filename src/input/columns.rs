@@ -684,6 +684,164 @@ pub const SETTINGS: SheetSpec = SheetSpec {
     ],
 };
 
+/// What a unit measures; units convert only within one kind.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Quantity {
+    /// Lengths (base m).
+    Length,
+    /// Areas (base m²).
+    Area,
+    /// Stresses and pressures (base kPa).
+    Stress,
+    /// Angles (base deg).
+    Angle,
+    /// Percentages (base %).
+    Percent,
+    /// Accelerations (base g).
+    Acceleration,
+    /// Times (base s).
+    Time,
+}
+
+impl Quantity {
+    /// A plain-words name for messages.
+    pub fn name(self) -> &'static str {
+        match self {
+            Quantity::Length => "a length",
+            Quantity::Area => "an area",
+            Quantity::Stress => "a stress",
+            Quantity::Angle => "an angle",
+            Quantity::Percent => "a percentage",
+            Quantity::Acceleration => "an acceleration",
+            Quantity::Time => "a time",
+        }
+    }
+}
+
+/// One known unit: how it is written (after [`super::header::normalise`]), what it
+/// measures and its size in the base unit of its kind.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Unit {
+    /// How the unit is shown in messages.
+    pub label: &'static str,
+    /// Accepted spellings, normalised (lower case, `²` → `2`).
+    pub spellings: &'static [&'static str],
+    /// What it measures.
+    pub quantity: Quantity,
+    /// Size in the base unit of its kind = `num / den` (mm = 1/1000 m; MPa = 1000/1 kPa;
+    /// m/s² = 1/9.81 g), kept as a fraction so that a conversion divides where it should
+    /// (250 mm → 250 / 1000 = 0.25 m exactly, as typed in metres).
+    pub num: f64,
+    /// See `num`.
+    pub den: f64,
+}
+
+/// A conversion between two units of one kind: `v × mul ÷ div`.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Factor {
+    /// Multiplier.
+    pub mul: f64,
+    /// Divisor.
+    pub div: f64,
+}
+
+impl Factor {
+    /// No conversion.
+    pub const ONE: Factor = Factor { mul: 1.0, div: 1.0 };
+    /// The conversion from `from` to `to` (same kind).
+    pub fn between(from: &Unit, to: &Unit) -> Factor {
+        Factor {
+            mul: from.num * to.den,
+            div: from.den * to.num,
+        }
+    }
+    /// Converts a value.
+    pub fn apply(self, v: f64) -> f64 {
+        if self == Self::ONE {
+            v
+        } else {
+            v * self.mul / self.div
+        }
+    }
+}
+
+/// Standard gravity used to read an acceleration given in m/s² as g (inventory.md: agr_g
+/// in m/s² is divided by 9.81).
+pub const G_M_S2: f64 = 9.81;
+
+const fn unit(
+    label: &'static str,
+    spellings: &'static [&'static str],
+    quantity: Quantity,
+    num: f64,
+    den: f64,
+) -> Unit {
+    Unit {
+        label,
+        spellings,
+        quantity,
+        num,
+        den,
+    }
+}
+
+/// Every unit the reader knows (inventory.md's header rule): lengths mm, cm, m (and km for
+/// settings such as near_fault_km); areas mm², cm², m²; stresses N/mm² = MPa, kN/m² = kPa;
+/// angles ° = deg; percentages pct or %; accelerations g and m/s² (÷ 9.81); times s. A
+/// header or cell unit is converted to the column's canonical unit when both are of the
+/// same kind; any other unit is refused.
+pub const UNITS: &[Unit] = &[
+    unit("mm", &["mm", "millimetre", "millimetres", "millimeter", "millimeters"], Quantity::Length, 1.0, 1000.0),
+    unit("cm", &["cm", "centimetre", "centimetres", "centimeter", "centimeters"], Quantity::Length, 1.0, 100.0),
+    unit("m", &["m", "metre", "metres", "meter", "meters"], Quantity::Length, 1.0, 1.0),
+    unit("km", &["km"], Quantity::Length, 1000.0, 1.0),
+    unit("mm²", &["mm2", "sq_mm"], Quantity::Area, 1.0, 1e6),
+    unit("cm²", &["cm2", "sq_cm"], Quantity::Area, 1.0, 1e4),
+    unit("m²", &["m2", "sq_m", "sqm"], Quantity::Area, 1.0, 1.0),
+    unit("MPa", &["mpa", "n/mm2"], Quantity::Stress, 1000.0, 1.0),
+    unit("kPa", &["kpa", "kn/m2"], Quantity::Stress, 1.0, 1.0),
+    unit("deg", &["deg", "°", "degrees", "degree"], Quantity::Angle, 1.0, 1.0),
+    unit("%", &["%", "pct", "percent"], Quantity::Percent, 1.0, 1.0),
+    unit("g", &["g"], Quantity::Acceleration, 1.0, 1.0),
+    unit("m/s²", &["m/s2", "m/s^2", "m/sec2"], Quantity::Acceleration, 1.0, G_M_S2),
+    unit("s", &["s", "sec", "seconds"], Quantity::Time, 1.0, 1.0),
+];
+
+/// The known unit of a (normalised or raw) spelling.
+pub fn find_unit(text: &str) -> Option<&'static Unit> {
+    let n = super::header::normalise(text);
+    let n = n.trim_matches('_');
+    UNITS.iter().find(|u| u.spellings.contains(&n))
+}
+
+/// The canonical unit of a column, from its `unit` text (None for text, whole numbers,
+/// years and other unitless columns).
+pub fn canonical_unit(c: &Column) -> Option<&'static Unit> {
+    match c.unit {
+        "decimal degrees WGS84" => find_unit("deg"),
+        u => find_unit(u),
+    }
+}
+
+/// The canonical unit of a settings key: its last `_token` when that is a known unit
+/// (`near_fault_km` → km, `agr_g` → g, `fc_reference_mpa` → MPa).
+pub fn key_unit(key: &str) -> Option<&'static Unit> {
+    let (_, last) = key.rsplit_once('_')?;
+    find_unit(last)
+}
+
+/// The canonical name without its unit suffix (`plan_area_m2` → `plan_area`).
+pub fn name_without_unit(c: &Column) -> &'static str {
+    if let Some(u) = canonical_unit(c)
+        && let Some((head, last)) = c.name.rsplit_once('_')
+        && !head.is_empty()
+        && u.spellings.contains(&last)
+    {
+        return head;
+    }
+    c.name
+}
+
 /// Every sheet, in template order.
 pub const SHEETS: [&SheetSpec; 5] = [&BUILDINGS, &WALLS, &STOREYS, &FOOTPRINTS, &SETTINGS];
 

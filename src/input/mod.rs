@@ -73,6 +73,17 @@ pub enum InputError {
         /// The numbers.
         message: String,
     },
+    /// A fatal problem of a sheet's header (a required column missing or unusable, no
+    /// header row): one line naming the file, the sheet and what is missing.
+    #[error("{path}: sheet {sheet}: {message}")]
+    MissingColumns {
+        /// Path.
+        path: String,
+        /// Sheet name as found in the file.
+        sheet: String,
+        /// What is missing.
+        message: String,
+    },
     /// The caller of [`read_inventory_settled`] refused the settings (its own error says
     /// why); the other sheets were not read.
     #[error("{path}: reading stopped: the settings were refused")]
@@ -115,11 +126,11 @@ impl SheetRun<'_> {
                 c.building_problems.extend(problems);
             }
             "walls" => {
-                let r = parse::wall(&row, self.decimal_comma);
+                let r = parse::wall_with(&row, self.decimal_comma, &self.limits);
                 c.walls.push(r);
             }
             "storeys" => {
-                let r = parse::storey(&row, self.decimal_comma);
+                let r = parse::storey_with(&row, self.decimal_comma, &self.limits);
                 c.storeys.push(r);
             }
             "footprints" => {
@@ -412,6 +423,7 @@ fn read_workbook(
             .find(|n| header::normalise(n) == spec.name)
             .cloned()
     };
+    let fallback = find(&BUILDINGS).is_none();
     let buildings = match find(&BUILDINGS) {
         Some(n) => n,
         None => {
@@ -451,9 +463,23 @@ fn read_workbook(
     ];
     for (spec, name) in sheets {
         let Some(name) = name else { continue };
-        run_sheet(spec, &name, false, opts, &p, collected, |sink| {
+        let read = run_sheet(spec, &name, false, opts, &p, collected, |sink| {
             wb.read_sheet(&name, &p, &budget, counter, sink)
-        })?;
+        });
+        match read {
+            Err(InputError::MissingColumns { path, .. }) if fallback && spec.name == "buildings" => {
+                return Err(InputError::MissingColumns {
+                    path,
+                    sheet: "buildings".into(),
+                    message: format!(
+                        "no sheet named buildings, and the first sheet \"{name}\" does not hold the required columns ({}); sheets found: {}",
+                        BUILDINGS.required_names().join(", "),
+                        names.iter().map(|n| format!("\"{n}\"")).collect::<Vec<_>>().join(", ")
+                    ),
+                });
+            }
+            r => r?,
+        }
     }
     collected
         .borrow_mut()
