@@ -823,10 +823,14 @@ mod tests {
         assert_eq!(s.spectrum, Spectrum::Ec8Type2);
         assert_eq!(s.era.len(), 1);
         let mut s = Settings::default();
-        assert!(matches!(
-            s.apply_toml("agr = 0.2"),
-            Err(SettingsError::UnknownKey(_))
-        ));
+        // Every unknown key at once, each with the nearest known key, in one message.
+        let e = s.apply_toml("agr = 0.2\nbudjet = 5\nzzzz = 1\n").unwrap_err();
+        assert!(matches!(&e, SettingsError::UnknownKeys(k) if k.len() == 3), "{e:?}");
+        let m = e.to_string();
+        assert!(m.contains("`agr` (did you mean `agr_g`?)"), "{m}");
+        assert!(m.contains("`budjet` (did you mean `budget`?)"), "{m}");
+        assert!(m.contains("`zzzz`,") || m.ends_with("`zzzz`"), "{m}");
+        assert_eq!(m.matches("unknown").count(), 1, "{m}");
         assert!(matches!(
             s.apply_toml("gamma_el = \"x\""),
             Err(SettingsError::BadValue { .. })
@@ -850,6 +854,61 @@ mod tests {
             );
         }
         assert_eq!(Settings::default().validate(), Ok(()));
+    }
+
+    #[test]
+    fn settings_numbers_follow_the_inventory_rules() {
+        let mut s = Settings::default();
+        // A decimal comma in a TOML text value, a unit after the number, grouping.
+        let notes = s
+            .apply_toml("agr_g = \"0,28\"\nnear_fault_km = \"12 km\"\nbudget = \"2 000 000\"\n")
+            .map(|()| ());
+        assert_eq!(notes, Ok(()));
+        assert_eq!(s.agr_g, Some(0.28));
+        assert_eq!(s.near_fault_km, 12.0);
+        assert_eq!(s.budget, Some(2_000_000.0));
+        let notes = Settings::default()
+            .apply_toml_noted("agr_g = \"0,28\"\n")
+            .unwrap();
+        assert_eq!(notes.len(), 1, "{notes:?}");
+        // A unit of another kind is refused; so is an agR that looks like m/s².
+        let e = Settings::default().apply_toml("agr_g = \"0.3 MPa\"").unwrap_err();
+        assert!(e.to_string().contains("without its unit"), "{e}");
+        let e = Settings::default().apply_toml("agr_g = 2.943").unwrap_err();
+        assert!(e.to_string().contains("m/s²"), "{e}");
+        // "1,200" as agR: 1200 g is refused, so 1.2 is used with a warning.
+        let mut s = Settings::default();
+        let notes = s.set_from_text_noted("agr_g", "1,200").unwrap();
+        assert_eq!((s.agr_g, notes.len()), (Some(1.2), 1));
+        // "1,200" as a budget: both readings plausible, refused showing both.
+        let e = Settings::default()
+            .set_from_text_noted("budget", "1,200")
+            .unwrap_err()
+            .to_string();
+        assert!(e.contains("1.2") && e.contains("1200"), "{e}");
+    }
+
+    #[test]
+    fn a_renamed_key_is_accepted_under_its_new_name_with_a_warning() {
+        for (old, new, how) in RENAMED_KEYS {
+            let mut s = Settings::default();
+            let known_new = s.value_text(new).is_some();
+            let known_old = s.value_text(old).is_some();
+            // Exactly one of the two names is a key of this build.
+            assert!(known_new != known_old, "{old} / {new}");
+            let notes = s.set_from_text_noted(old, "0.625").unwrap();
+            if known_new {
+                assert_eq!(notes.len(), 1, "{notes:?}");
+                assert!(notes[0].contains(new), "{notes:?}");
+                let expected = match how {
+                    Rename::Same => 0.625,
+                    Rename::Reciprocal => 1.6,
+                };
+                assert_eq!(s.value_text(new), Some(format!("{expected}")));
+            } else {
+                assert!(notes.is_empty());
+            }
+        }
     }
 
     #[test]
