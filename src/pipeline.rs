@@ -162,6 +162,29 @@ pub fn settle_sheet_settings(
     Ok(settings)
 }
 
+/// The inventory's `eras` sheet, when it has rows, replaces the settings' era table
+/// (inventory.md, sheet `eras`); a warning says so when the settings had one too.
+fn with_eras_sheet(mut settings: Settings, inventory: &Inventory, problems: &mut Vec<Problem>) -> Settings {
+    if inventory.eras.is_empty() {
+        return settings;
+    }
+    if !settings.era.is_empty() && settings.era != inventory.eras {
+        problems.push(Problem {
+            sheet: "eras".into(),
+            row: None,
+            column: String::new(),
+            message: format!(
+                "the eras sheet ({} rows) replaces the settings' era table ({} rows)",
+                inventory.eras.len(),
+                settings.era.len()
+            ),
+            severity: Severity::Warning,
+        });
+    }
+    settings.era = inventory.eras.clone();
+    settings
+}
+
 /// SHA-256 of a file, hex, read in blocks (an inventory may be gigabytes); empty when the
 /// file cannot be read.
 pub fn sha256_hex(path: &Path) -> String {
@@ -210,6 +233,7 @@ pub fn load(path: &Path, opts: &RunOptions) -> Result<Loaded, PipelineError> {
     };
     let mut problems = std::mem::take(&mut inventory.problems);
     problems.append(&mut sheet_problems);
+    let settings = with_eras_sheet(settings, &inventory, &mut problems);
     let (geo, geo_problems) = Geography::load(opts.districts.as_deref(), opts.faults.as_deref())?;
     problems.extend(geo_problems);
     let (sites, site_problems) = crate::geography::locate(&inventory.buildings, &geo, &settings);

@@ -58,7 +58,10 @@ fn committed_demo_files_are_current() {
 fn demo_workbook_has_the_canonical_sheets_and_headers() {
     let book = sheets(&demo::demo_workbook().unwrap());
     let names: Vec<_> = book.iter().map(|(n, _)| n.as_str()).collect();
-    assert_eq!(names, ["buildings", "walls", "storeys", "footprints"]);
+    assert_eq!(
+        names,
+        ["buildings", "walls", "storeys", "footprints", "eras", "settings"]
+    );
     let (_, buildings) = &book[0];
     let header: Vec<String> = buildings
         .rows()

@@ -842,8 +842,50 @@ pub fn name_without_unit(c: &Column) -> &'static str {
     c.name
 }
 
+/// Sheet `eras` (optional): the era table of the settings, as a sheet; replaces the
+/// settings' `[[era]]` rows when present.
+pub const ERAS: SheetSpec = SheetSpec {
+    name: "eras",
+    required: false,
+    meaning: "one row per construction era (replaces the settings' [[era]] table)",
+    columns: &[
+        col(
+            "from_year",
+            "year",
+            Year,
+            false,
+            "open (no lower end)",
+            "First year of the era (inclusive).",
+        ),
+        col(
+            "to_year",
+            "year",
+            Year,
+            false,
+            "open (no upper end)",
+            "Last year of the era (inclusive).",
+        ),
+        col(
+            "fc_mpa",
+            "MPa",
+            Number,
+            false,
+            "default_fc_mpa (settings)",
+            "Concrete compressive strength of buildings of the era (5–120 MPa).",
+        ),
+        col(
+            "fy_mpa",
+            "MPa",
+            Number,
+            false,
+            "default_fy_mpa (settings)",
+            "Reinforcement yield strength of buildings of the era (150–700 MPa).",
+        ),
+    ],
+};
+
 /// Every sheet, in template order.
-pub const SHEETS: [&SheetSpec; 5] = [&BUILDINGS, &WALLS, &STOREYS, &FOOTPRINTS, &SETTINGS];
+pub const SHEETS: [&SheetSpec; 6] = [&BUILDINGS, &WALLS, &STOREYS, &FOOTPRINTS, &ERAS, &SETTINGS];
 
 #[cfg(test)]
 mod tests {

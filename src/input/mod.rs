@@ -27,7 +27,7 @@ use std::cell::RefCell;
 use std::path::Path;
 
 use crate::model::{Inventory, Problem, Severity};
-use columns::{BUILDINGS, FOOTPRINTS, SETTINGS, STOREYS, SheetSpec, WALLS};
+use columns::{BUILDINGS, ERAS, FOOTPRINTS, SETTINGS, STOREYS, SheetSpec, WALLS};
 pub use parse::Limits;
 pub use raw::Budget;
 use raw::{CellCounter, DataRow, RawRow, SheetReader, column_letters};
@@ -136,6 +136,10 @@ impl SheetRun<'_> {
             "footprints" => {
                 let r = parse::footprint(&row, self.decimal_comma);
                 c.footprints.push(r);
+            }
+            "eras" => {
+                let r = parse::era(&row, self.decimal_comma, &self.limits);
+                c.eras.push(r);
             }
             _ => {
                 let key = row.cells.first().map(|c| c.as_text()).unwrap_or_default();
@@ -455,11 +459,12 @@ fn read_workbook(
     let mut settings_problems = Vec::new();
     let opts = &settled_options(&p, opts, settle, collected, &mut settings_problems)?;
     collected.borrow_mut().sheet_problems = first_problems;
-    let sheets: [(&'static SheetSpec, Option<String>); 4] = [
+    let sheets: [(&'static SheetSpec, Option<String>); 5] = [
         (&BUILDINGS, Some(buildings.clone())),
         (&WALLS, find(&WALLS).filter(|n| *n != buildings)),
         (&STOREYS, find(&STOREYS).filter(|n| *n != buildings)),
         (&FOOTPRINTS, find(&FOOTPRINTS).filter(|n| *n != buildings)),
+        (&ERAS, find(&ERAS).filter(|n| *n != buildings)),
     ];
     for (spec, name) in sheets {
         let Some(name) = name else { continue };
@@ -515,7 +520,7 @@ fn read_csv_files(
     let opts = &settled_options(&p, opts, settle, collected, &mut settings_problems)?;
     let mut files: Vec<(&'static SheetSpec, std::path::PathBuf)> =
         vec![(&BUILDINGS, path.to_path_buf())];
-    for spec in [&WALLS, &STOREYS, &FOOTPRINTS] {
+    for spec in [&WALLS, &STOREYS, &FOOTPRINTS, &ERAS] {
         if let Some(file) = sibling(spec) {
             files.push((spec, file));
         }
@@ -570,7 +575,7 @@ pub fn csv_has_siblings(path: &Path) -> bool {
         .map(|s| s.to_string_lossy().into_owned())
         .unwrap_or_default();
     let dir = path.parent().unwrap_or(Path::new("."));
-    [&WALLS, &STOREYS, &FOOTPRINTS, &SETTINGS]
+    [&WALLS, &STOREYS, &FOOTPRINTS, &ERAS, &SETTINGS]
         .iter()
         .any(|spec| dir.join(format!("{stem}.{}.csv", spec.name)).is_file())
 }

@@ -4,7 +4,7 @@ read or is out of its plausible range (`sheet, row, column: expected …, found 
 defaults of the method are applied: a blank optional cell stays `None`.
 */
 
-use super::columns::{BUILDINGS, FOOTPRINTS, STOREYS, SheetSpec, WALLS};
+use super::columns::{BUILDINGS, ERAS, FOOTPRINTS, STOREYS, SheetSpec, WALLS};
 use super::raw::{DataRow, RawCell, format_number};
 use super::xlsx::year_of_serial;
 use crate::model::{
@@ -1188,6 +1188,47 @@ pub fn storey_with(row: &DataRow, decimal_comma: bool, limits: &Limits) -> (Stor
     s.infill_area_x_m2 = p.non_negative("infill_area_x_m2");
     s.infill_area_y_m2 = p.non_negative("infill_area_y_m2");
     (s, p.problems)
+}
+
+/// Reads one row of the `eras` sheet (years as in year_built, strengths with the fc / fy
+/// unit-mistake ranges).
+pub fn era(row: &DataRow, decimal_comma: bool, limits: &Limits) -> (crate::settings::Era, Vec<Problem>) {
+    let mut p = RowParser::new(&ERAS, row, decimal_comma);
+    let from_year = p.year("from_year", limits);
+    let to_year = p.year("to_year", limits);
+    let mut strength = |name: &str, (lo, hi): (f64, f64)| {
+        p.checked(name, &|v| {
+            if v < lo || v > hi {
+                Err(format!(
+                    "expected {} to {} MPa, found {} (a unit mistake?)",
+                    format_number(lo),
+                    format_number(hi),
+                    format_number(value_round(v))
+                ))
+            } else {
+                Ok(())
+            }
+        })
+    };
+    let fc_mpa = strength("fc_mpa", limits.fc_mpa);
+    let fy_mpa = strength("fy_mpa", limits.fy_mpa);
+    if let (Some(a), Some(b)) = (from_year, to_year)
+        && b < a
+    {
+        p.error(
+            "to_year",
+            format!("expected a last year at or after the first year {a}, found {b}"),
+        );
+    }
+    (
+        crate::settings::Era {
+            from_year,
+            to_year,
+            fc_mpa,
+            fy_mpa,
+        },
+        p.problems,
+    )
 }
 
 /// Reads one row of the `footprints` sheet.
