@@ -87,9 +87,10 @@ fn write_readme(ws: &mut Worksheet, bold: &Format, wrap: &Format) -> Result<(), 
     let mut r = 0u32;
     let lines = [
         "seistriage blank inventory workbook",
-        "Fill one row per building in the sheet 'buildings'. The sheets walls, storeys, footprints and settings are optional; delete the ones you do not use.",
+        "Fill one row per building in the sheet 'buildings'. The sheets walls, storeys, footprints, eras and settings are optional; delete the ones you do not use.",
         "A title row above the header row is allowed: the header row is found by the required column names (or give --header-row N).",
         HEADER_RULE_HELP,
+        crate::input::SURVEY_TEXT_HELP,
         "Blank optional cells take the default listed below; every default used is reported per building.",
         crate::CAUTION,
     ];

@@ -884,6 +884,34 @@ pub const ERAS: SheetSpec = SheetSpec {
     ],
 };
 
+/// The header-matching rule with its units and aliases, printed in `--help` and on the
+/// template's read-me sheet. A test keeps it in step with [`UNITS`] and the aliases.
+pub const HEADER_RULE_HELP: &str = "Column names are matched after normalising: lower case; '²' -> '2'; runs of spaces, \
+'_' and '-' -> one '_'. The unit of a header is the text in its last brackets or parentheses \
+(\"Wall thickness (mm)\"), else a trailing known unit (\"plan area m2\"); the rest is the name, \
+compared with the canonical name without its unit. 'Plan Area [m2]', 'plan-area m²', \
+'PLAN_AREA_M2' and 'plan area' all match plan_area_m2. The canonical unit (or none) is read as \
+is; another unit of the same kind is converted, with a warning on the header row: lengths mm, \
+cm, m, km; areas mm², cm², m² (also mm2, cm2, m2, sq_m, sqm); stresses MPa = N/mm², kPa = kN/m²; \
+angles deg = °; percentages % = pct = percent; accelerations g, m/s² (divided by 9.81); times s \
+(also sec). A unit of another kind, or one not listed, is an error on that column, which is then \
+not used (for a required column the file is refused). Extra accepted names: building_id for \
+id; occupancy for use; construction_year, year_of_construction for year_built; lat for \
+latitude; lon, lng, long for longitude; stories, floors, number_of_storeys for storeys; \
+building for building_id (walls, storeys, footprints); story, floor for storey; setting, name \
+for key.";
+
+/// How survey text in a numeric cell is read (inventory.md), printed on the read-me sheet.
+pub const SURVEY_TEXT_HELP: &str = "Numbers written as text are read with a warning: a decimal comma ('3,2'); digits grouped \
+in threes by spaces or apostrophes ('1 200', '1'200'); both separators ('1.200,5': the last one \
+is the decimal mark); the column's unit after the number ('20 MPa', '3.1 m'; another unit of \
+the same kind is converted); a circa year ('c. 1960', 'ca 1960', '~1960'). A period alone is \
+always the decimal mark. '1,200' is ambiguous: each reading goes through the column's checks; \
+when both pass the cell is refused, showing both. The settings sheet and file follow the same \
+rules. Values that look like a unit mistake are refused, naming the likely unit: storey height \
+outside 1.5-12 m, wall thickness 0.05-1.5 m, column depth 0.1-3 m, wall length 0.3-100 m, \
+agr_g above 1.5 g (m/s²?), floor weight outside 2-40 kPa.";
+
 /// Every sheet, in template order.
 pub const SHEETS: [&SheetSpec; 6] = [&BUILDINGS, &WALLS, &STOREYS, &FOOTPRINTS, &ERAS, &SETTINGS];
 
@@ -913,6 +941,17 @@ mod tests {
 #[cfg(test)]
 mod help_tests {
     use super::SHEETS;
+
+    #[test]
+    fn every_unit_is_named_in_the_help_text() {
+        for u in super::UNITS {
+            assert!(
+                crate::input::HEADER_RULE_HELP.contains(u.label),
+                "unit {} missing from HEADER_RULE_HELP",
+                u.label
+            );
+        }
+    }
 
     #[test]
     fn every_alias_is_named_in_the_help_text() {

@@ -700,14 +700,9 @@ fn csv_info(file: &Path, budget: &Budget) -> Result<bool, InputError> {
     Ok(csv::delimiter_of(&head) == b';')
 }
 
-/// The header-matching rule, printed in `--help` and on the template's read-me sheet.
-pub const HEADER_RULE_HELP: &str = "Column names are matched after normalising: lower case; '²' -> '2'; brackets and \
-parentheses removed; runs of spaces, '_' and '-' -> one '_'; then one trailing unit token \
-(m, m2, mm, kn, kpa, mpa, g, s, pct, %, deg, year) is stripped. 'Plan Area [m2]', 'plan-area m²' \
-and 'PLAN_AREA_M2' all match plan_area_m2. Extra accepted names: building_id for id; \
-occupancy for use; construction_year, year_of_construction for year_built; lat for latitude; \
-lon, lng, long for longitude; stories, floors, number_of_storeys for storeys; building for \
-building_id (walls, storeys, footprints); story, floor for storey; setting, name for key.";
+/// The header-matching rule, printed in `--help` and on the template's read-me sheet (kept
+/// with the units and aliases in [`columns`]).
+pub use columns::{HEADER_RULE_HELP, SURVEY_TEXT_HELP};
 
 #[cfg(test)]
 mod tests {

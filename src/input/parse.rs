@@ -308,7 +308,7 @@ pub fn survey_number(text: &str, decimal_comma: bool, circa: bool) -> Result<Sur
         }
     }
     let (num, unit) = t.split_at(end);
-    let num = num.trim_end_matches(is_group_space);
+    let num = num.trim_end();
     let unit = unit.trim();
     let unit = (!unit.is_empty()).then(|| unit.to_string());
     if num.is_empty() {
