@@ -164,7 +164,11 @@ pub fn settle_sheet_settings(
 
 /// The inventory's `eras` sheet, when it has rows, replaces the settings' era table
 /// (inventory.md, sheet `eras`); a warning says so when the settings had one too.
-fn with_eras_sheet(mut settings: Settings, inventory: &Inventory, problems: &mut Vec<Problem>) -> Settings {
+fn with_eras_sheet(
+    mut settings: Settings,
+    inventory: &Inventory,
+    problems: &mut Vec<Problem>,
+) -> Settings {
     if inventory.eras.is_empty() {
         return settings;
     }

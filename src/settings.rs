@@ -581,9 +581,7 @@ impl Settings {
         let unknown: Vec<String> = table
             .keys()
             .filter(|k| {
-                k.as_str() != "era"
-                    && self.value_text(k).is_none()
-                    && self.renamed(k).is_none()
+                k.as_str() != "era" && self.value_text(k).is_none() && self.renamed(k).is_none()
             })
             .cloned()
             .collect();
@@ -634,7 +632,11 @@ impl Settings {
     /// refused), an ambiguous "1,200" put through [`Settings::validate`] both ways. A key
     /// renamed by a revision of the contract ([`RENAMED_KEYS`]) is accepted under its new
     /// name. Returns the warnings that say what was done.
-    pub fn set_from_text_noted(&mut self, key: &str, text: &str) -> Result<Vec<String>, SettingsError> {
+    pub fn set_from_text_noted(
+        &mut self,
+        key: &str,
+        text: &str,
+    ) -> Result<Vec<String>, SettingsError> {
         let mut notes = Vec::new();
         let mut key = key.to_string();
         let mut text = text.to_string();
@@ -824,8 +826,13 @@ mod tests {
         assert_eq!(s.era.len(), 1);
         let mut s = Settings::default();
         // Every unknown key at once, each with the nearest known key, in one message.
-        let e = s.apply_toml("agr = 0.2\nbudjet = 5\nzzzz = 1\n").unwrap_err();
-        assert!(matches!(&e, SettingsError::UnknownKeys(k) if k.len() == 3), "{e:?}");
+        let e = s
+            .apply_toml("agr = 0.2\nbudjet = 5\nzzzz = 1\n")
+            .unwrap_err();
+        assert!(
+            matches!(&e, SettingsError::UnknownKeys(k) if k.len() == 3),
+            "{e:?}"
+        );
         let m = e.to_string();
         assert!(m.contains("`agr` (did you mean `agr_g`?)"), "{m}");
         assert!(m.contains("`budjet` (did you mean `budget`?)"), "{m}");
@@ -860,9 +867,8 @@ mod tests {
     fn settings_numbers_follow_the_inventory_rules() {
         let mut s = Settings::default();
         // A decimal comma in a TOML text value, a unit after the number, grouping.
-        let notes = s
-            .apply_toml("agr_g = \"0,28\"\nnear_fault_km = \"12 km\"\nbudget = \"2 000 000\"\n")
-            .map(|()| ());
+        let notes =
+            s.apply_toml("agr_g = \"0,28\"\nnear_fault_km = \"12 km\"\nbudget = \"2 000 000\"\n");
         assert_eq!(notes, Ok(()));
         assert_eq!(s.agr_g, Some(0.28));
         assert_eq!(s.near_fault_km, 12.0);
@@ -872,7 +878,9 @@ mod tests {
             .unwrap();
         assert_eq!(notes.len(), 1, "{notes:?}");
         // A unit of another kind is refused; so is an agR that looks like m/s².
-        let e = Settings::default().apply_toml("agr_g = \"0.3 MPa\"").unwrap_err();
+        let e = Settings::default()
+            .apply_toml("agr_g = \"0.3 MPa\"")
+            .unwrap_err();
         assert!(e.to_string().contains("without its unit"), "{e}");
         let e = Settings::default().apply_toml("agr_g = 2.943").unwrap_err();
         assert!(e.to_string().contains("m/s²"), "{e}");

@@ -64,7 +64,10 @@ pub fn run(inventory: &Path, opts: &RunOptions, strict: bool) -> anyhow::Result<
         )?;
     }
     if screened == 0 {
-        writeln!(out, "no row can be screened: `screen` would refuse this inventory")?;
+        writeln!(
+            out,
+            "no row can be screened: `screen` would refuse this inventory"
+        )?;
         return Ok(ExitCode::from(1));
     }
     if strict && errors > 0 {

@@ -37,6 +37,12 @@ fn same_file(a: &Path, b: &Path) -> bool {
     }
 }
 
+/// The outputs written (kind, path) as the summary names them.
+type Written = Vec<(String, PathBuf)>;
+/// Maps the outputs written to what the summary shows (the stdout scratch file → "standard
+/// output").
+type Shown<'a> = dyn Fn(&[(String, PathBuf)]) -> Written + 'a;
+
 /// Whether an output path is `-` (standard output).
 fn is_stdout(p: &Path) -> bool {
     p.as_os_str() == "-"
@@ -67,16 +73,19 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
     } else {
         "geojson"
     };
-    let scratch = std::env::temp_dir().join(format!(
-        "seistriage-stdout-{}.{ext}",
-        std::process::id()
-    ));
+    let scratch =
+        std::env::temp_dir().join(format!("seistriage-stdout-{}.{ext}", std::process::id()));
     let (guard, file) = report::atomic::TempFile::create_at(scratch.clone())
         .with_context(|| format!("creating {}", scratch.display()))?;
     drop(file);
     let swap = |p: &Option<PathBuf>| {
-        p.as_ref()
-            .map(|p| if is_stdout(p) { scratch.clone() } else { p.clone() })
+        p.as_ref().map(|p| {
+            if is_stdout(p) {
+                scratch.clone()
+            } else {
+                p.clone()
+            }
+        })
     };
     let inner = Options {
         json: swap(&o.json),
@@ -101,7 +110,7 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
 /// standard output (the summary then goes to stderr and names it "standard output").
 fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitCode> {
     let summary_to_stderr = stdout_scratch.is_some();
-    let shown = |written: &[(String, PathBuf)]| -> Vec<(String, PathBuf)> {
+    let shown = |written: &[(String, PathBuf)]| -> Written {
         written
             .iter()
             .map(|(k, p)| {
@@ -269,7 +278,7 @@ fn run_streamed(
     o: &Options,
     out: &Path,
     summary_to_stderr: bool,
-    shown: &dyn Fn(&[(String, PathBuf)]) -> Vec<(String, PathBuf)>,
+    shown: &Shown<'_>,
 ) -> anyhow::Result<ExitCode> {
     for p in [
         Some(out),

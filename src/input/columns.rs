@@ -791,19 +791,61 @@ const fn unit(
 /// header or cell unit is converted to the column's canonical unit when both are of the
 /// same kind; any other unit is refused.
 pub const UNITS: &[Unit] = &[
-    unit("mm", &["mm", "millimetre", "millimetres", "millimeter", "millimeters"], Quantity::Length, 1.0, 1000.0),
-    unit("cm", &["cm", "centimetre", "centimetres", "centimeter", "centimeters"], Quantity::Length, 1.0, 100.0),
-    unit("m", &["m", "metre", "metres", "meter", "meters"], Quantity::Length, 1.0, 1.0),
+    unit(
+        "mm",
+        &[
+            "mm",
+            "millimetre",
+            "millimetres",
+            "millimeter",
+            "millimeters",
+        ],
+        Quantity::Length,
+        1.0,
+        1000.0,
+    ),
+    unit(
+        "cm",
+        &[
+            "cm",
+            "centimetre",
+            "centimetres",
+            "centimeter",
+            "centimeters",
+        ],
+        Quantity::Length,
+        1.0,
+        100.0,
+    ),
+    unit(
+        "m",
+        &["m", "metre", "metres", "meter", "meters"],
+        Quantity::Length,
+        1.0,
+        1.0,
+    ),
     unit("km", &["km"], Quantity::Length, 1000.0, 1.0),
     unit("mm²", &["mm2", "sq_mm"], Quantity::Area, 1.0, 1e6),
     unit("cm²", &["cm2", "sq_cm"], Quantity::Area, 1.0, 1e4),
     unit("m²", &["m2", "sq_m", "sqm"], Quantity::Area, 1.0, 1.0),
     unit("MPa", &["mpa", "n/mm2"], Quantity::Stress, 1000.0, 1.0),
     unit("kPa", &["kpa", "kn/m2"], Quantity::Stress, 1.0, 1.0),
-    unit("deg", &["deg", "°", "degrees", "degree"], Quantity::Angle, 1.0, 1.0),
+    unit(
+        "deg",
+        &["deg", "°", "degrees", "degree"],
+        Quantity::Angle,
+        1.0,
+        1.0,
+    ),
     unit("%", &["%", "pct", "percent"], Quantity::Percent, 1.0, 1.0),
     unit("g", &["g"], Quantity::Acceleration, 1.0, 1.0),
-    unit("m/s²", &["m/s2", "m/s^2", "m/sec2"], Quantity::Acceleration, 1.0, G_M_S2),
+    unit(
+        "m/s²",
+        &["m/s2", "m/s^2", "m/sec2"],
+        Quantity::Acceleration,
+        1.0,
+        G_M_S2,
+    ),
     unit("s", &["s", "sec", "seconds"], Quantity::Time, 1.0, 1.0),
 ];
 

@@ -4,7 +4,9 @@ canonical name the same way, strip one trailing unit token, compare. Also finds 
 row of a sheet (the row that holds the required names) and maps columns.
 */
 
-use super::columns::{Column, Factor, SheetSpec, Unit, canonical_unit, find_unit, name_without_unit};
+use super::columns::{
+    Column, Factor, SheetSpec, Unit, canonical_unit, find_unit, name_without_unit,
+};
 
 /// Unit tokens stripped once from the end of a normalised name.
 pub const UNIT_TOKENS: [&str; 12] = [
@@ -298,7 +300,10 @@ mod tests {
             split_unit("Wall (RC) thickness [cm]"),
             ("wall_rc_thickness".into(), Some("cm".into()))
         );
-        assert_eq!(split_unit("PLAN_AREA_M2"), ("plan_area".into(), Some("m2".into())));
+        assert_eq!(
+            split_unit("PLAN_AREA_M2"),
+            ("plan_area".into(), Some("m2".into()))
+        );
         assert_eq!(split_unit("plan area"), ("plan_area".into(), None));
         let m = map_headers(&BUILDINGS, &[(0, "Wall thickness (mm)".into())]);
         assert_eq!(m.factor("wall_thickness_m").apply(250.0), 0.25);

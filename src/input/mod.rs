@@ -472,14 +472,20 @@ fn read_workbook(
             wb.read_sheet(&name, &p, &budget, counter, sink)
         });
         match read {
-            Err(InputError::MissingColumns { path, .. }) if fallback && spec.name == "buildings" => {
+            Err(InputError::MissingColumns { path, .. })
+                if fallback && spec.name == "buildings" =>
+            {
                 return Err(InputError::MissingColumns {
                     path,
                     sheet: "buildings".into(),
                     message: format!(
                         "no sheet named buildings, and the first sheet \"{name}\" does not hold the required columns ({}); sheets found: {}",
                         BUILDINGS.required_names().join(", "),
-                        names.iter().map(|n| format!("\"{n}\"")).collect::<Vec<_>>().join(", ")
+                        names
+                            .iter()
+                            .map(|n| format!("\"{n}\""))
+                            .collect::<Vec<_>>()
+                            .join(", ")
                     ),
                 });
             }

@@ -106,7 +106,12 @@ pub fn unit_mistake_check(
 /// The agR check: not negative, and at most `max` g (above it the hint gives the value ÷
 /// 9.81: it looks like m/s²).
 pub fn agr_check(max: f64) -> impl Fn(f64) -> Result<(), String> {
-    let upper = unit_mistake_check("a reference peak ground acceleration agR", "g", (0.0, max), AGR_SLIPS);
+    let upper = unit_mistake_check(
+        "a reference peak ground acceleration agR",
+        "g",
+        (0.0, max),
+        AGR_SLIPS,
+    );
     move |v: f64| {
         non_negative_check(v)?;
         upper(v)
@@ -236,7 +241,10 @@ pub struct SurveyNumber {
 }
 
 fn is_group_space(c: char) -> bool {
-    matches!(c, ' ' | '\u{a0}' | '\u{202f}' | '\u{2009}' | '\u{2007}' | '\'' | '\u{2019}')
+    matches!(
+        c,
+        ' ' | '\u{a0}' | '\u{202f}' | '\u{2009}' | '\u{2007}' | '\'' | '\u{2019}'
+    )
 }
 
 fn digits(s: &str) -> bool {
@@ -286,7 +294,10 @@ pub fn survey_number(text: &str, decimal_comma: bool, circa: bool) -> Result<Sur
         if let Some(prefix) = CIRCA.iter().find(|p| lower.starts_with(*p)) {
             let rest = t.get(prefix.len()..).unwrap_or("").trim_start();
             if rest.starts_with(|c: char| c.is_ascii_digit()) {
-                notes.push(format!("the circa year \"{}\" is read as the year", text.trim()));
+                notes.push(format!(
+                    "the circa year \"{}\" is read as the year",
+                    text.trim()
+                ));
                 t = rest;
             }
         }
@@ -326,7 +337,10 @@ pub fn survey_number(text: &str, decimal_comma: bool, circa: bool) -> Result<Sur
         if rest.contains(is_group_space) || int.contains("  ") {
             return Err("expected digits grouped in threes before the decimal mark; write the number without separators and use a decimal point".into());
         }
-        let int_n: String = int.chars().map(|c| if is_group_space(c) { ' ' } else { c }).collect();
+        let int_n: String = int
+            .chars()
+            .map(|c| if is_group_space(c) { ' ' } else { c })
+            .collect();
         if !grouped_in_threes(&int_n, ' ') {
             return Err("expected digits grouped in threes (\"1 200\"); write the number without separators".into());
         }
@@ -342,7 +356,11 @@ pub fn survey_number(text: &str, decimal_comma: bool, circa: bool) -> Result<Sur
     let plain: String = if commas > 0 && periods > 0 {
         let last_comma = body.rfind(',').unwrap_or(0);
         let last_period = body.rfind('.').unwrap_or(0);
-        let (dec, group) = if last_comma > last_period { (',', '.') } else { ('.', ',') };
+        let (dec, group) = if last_comma > last_period {
+            (',', '.')
+        } else {
+            ('.', ',')
+        };
         let (int, frac) = body.split_at(if dec == ',' { last_comma } else { last_period });
         let frac = &frac[1..];
         if grouped || !grouped_in_threes(int, group) || !digits(frac) {
@@ -364,7 +382,9 @@ pub fn survey_number(text: &str, decimal_comma: bool, circa: bool) -> Result<Sur
             if frac.len() == 3 && grouped_in_threes(&format!("{int},{frac}"), ',') {
                 alternative = Some(format!("{sign}{int}{frac}"));
             } else {
-                notes.push("the decimal comma is read as a decimal point (use a decimal point)".into());
+                notes.push(
+                    "the decimal comma is read as a decimal point (use a decimal point)".into(),
+                );
             }
             decimal
         }
@@ -466,7 +486,13 @@ pub fn read_survey_text(
     };
     let value = factor.apply(n.value);
     let note = |notes: &[String]| {
-        (!notes.is_empty()).then(|| format!("read \"{shown}\" as {}: {}", format_number(value_round(value)), notes.join("; ")))
+        (!notes.is_empty()).then(|| {
+            format!(
+                "read \"{shown}\" as {}: {}",
+                format_number(value_round(value)),
+                notes.join("; ")
+            )
+        })
     };
     match n.alternative.map(|a| factor.apply(a)) {
         None => match check(value) {
@@ -479,7 +505,10 @@ pub fn read_survey_text(
         },
         Some(alt) => {
             let (a, b) = (check(value), check(alt));
-            let (va, vb) = (format_number(value_round(value)), format_number(value_round(alt)));
+            let (va, vb) = (
+                format_number(value_round(value)),
+                format_number(value_round(alt)),
+            );
             match (a, b) {
                 (Ok(()), Ok(())) => Checked::Refused(format!(
                     "\"{shown}\" is ambiguous: {va} (decimal comma) or {vb} (thousands separator), both plausible; write {va} or {vb} without the comma"
@@ -603,7 +632,11 @@ impl<'a> RowParser<'a> {
     /// column's unit): a number cell, or survey text read by [`read_survey_text`] (a header
     /// unit converted, a unit in the cell converted or refused, each reading of an
     /// ambiguous "1,200" checked). `None` when blank or refused (then an error is recorded).
-    pub fn checked(&mut self, name: &str, check: &dyn Fn(f64) -> Result<(), String>) -> Option<f64> {
+    pub fn checked(
+        &mut self,
+        name: &str,
+        check: &dyn Fn(f64) -> Result<(), String>,
+    ) -> Option<f64> {
         let i = self.position(name);
         let scale = i
             .and_then(|i| self.scale.get(i))
@@ -625,7 +658,8 @@ impl<'a> RowParser<'a> {
                 }
             }
             RawCell::Text(t) => {
-                match read_survey_text(t, self.decimal_comma, false, name, canonical, scale, check) {
+                match read_survey_text(t, self.decimal_comma, false, name, canonical, scale, check)
+                {
                     Checked::Value(v, note) => {
                         if let Some(n) = note {
                             self.warn(name, n);
@@ -652,7 +686,10 @@ impl<'a> RowParser<'a> {
 
     fn require(&mut self, name: &str, what: &str) -> bool {
         if self.cell(name).is_blank() {
-            self.error(name, format!("expected {what} (required), found a blank cell"));
+            self.error(
+                name,
+                format!("expected {what} (required), found a blank cell"),
+            );
             return false;
         }
         true
@@ -682,9 +719,8 @@ impl<'a> RowParser<'a> {
             return None;
         }
         let v = self.checked(name, &|v| {
-            let n = whole_of(v).ok_or_else(|| {
-                format!("expected a whole number, found {}", format_number(v))
-            })?;
+            let n = whole_of(v)
+                .ok_or_else(|| format!("expected a whole number, found {}", format_number(v)))?;
             check(n)
         })?;
         whole_of(v)
@@ -770,9 +806,9 @@ impl<'a> RowParser<'a> {
             },
             RawCell::Text(t) => {
                 let t = t.trim();
-                let survey = survey_number(t, false, true).ok().filter(|n| {
-                    n.unit.is_none() && n.alternative.is_none() && in_range(n.value)
-                });
+                let survey = survey_number(t, false, true)
+                    .ok()
+                    .filter(|n| n.unit.is_none() && n.alternative.is_none() && in_range(n.value));
                 if let Some(n) = survey {
                     if !n.notes.is_empty() {
                         self.warn(
@@ -960,7 +996,12 @@ fn coordinates(p: &mut RowParser<'_>, b: &mut BuildingRecord) {
 fn storey_height(p: &mut RowParser<'_>, name: &str, limits: &Limits) -> Option<f64> {
     let v = p.checked(
         name,
-        &unit_mistake_check("a storey height", "m", limits.storey_height_error_m, LENGTH_SLIPS),
+        &unit_mistake_check(
+            "a storey height",
+            "m",
+            limits.storey_height_error_m,
+            LENGTH_SLIPS,
+        ),
     )?;
     let (lo, hi) = limits.storey_height_m;
     if v < lo || v > hi {
@@ -1025,7 +1066,12 @@ pub fn building(
     b.wall_length_y_m = p.checked("wall_length_y_m", &wall_length);
     b.wall_thickness_m = p.checked(
         "wall_thickness_m",
-        &unit_mistake_check("a wall thickness", "m", limits.wall_thickness_m, LENGTH_SLIPS),
+        &unit_mistake_check(
+            "a wall thickness",
+            "m",
+            limits.wall_thickness_m,
+            LENGTH_SLIPS,
+        ),
     );
     b.infill_area_x_m2 = p.non_negative("infill_area_x_m2");
     b.infill_area_y_m2 = p.non_negative("infill_area_y_m2");
@@ -1083,7 +1129,12 @@ pub fn building(
     }
     b.floor_weight_kpa = p.checked(
         "floor_weight_kpa",
-        &unit_mistake_check("a floor weight", "kPa", limits.floor_weight_error_kpa, WEIGHT_SLIPS),
+        &unit_mistake_check(
+            "a floor weight",
+            "kPa",
+            limits.floor_weight_error_kpa,
+            WEIGHT_SLIPS,
+        ),
     );
     if let Some(v) = b.floor_weight_kpa {
         let (lo, hi) = limits.floor_weight_kpa;
@@ -1127,7 +1178,11 @@ pub fn wall(row: &DataRow, decimal_comma: bool) -> (WallRecord, Vec<Problem>) {
 }
 
 /// [`wall`] with given limits.
-pub fn wall_with(row: &DataRow, decimal_comma: bool, limits: &Limits) -> (WallRecord, Vec<Problem>) {
+pub fn wall_with(
+    row: &DataRow,
+    decimal_comma: bool,
+    limits: &Limits,
+) -> (WallRecord, Vec<Problem>) {
     let mut p = RowParser::new(&WALLS, row, decimal_comma);
     let mut w = WallRecord {
         row: row.row,
@@ -1146,7 +1201,12 @@ pub fn wall_with(row: &DataRow, decimal_comma: bool, limits: &Limits) -> (WallRe
     }
     w.thickness_m = p.checked(
         "thickness_m",
-        &unit_mistake_check("a wall thickness", "m", limits.wall_thickness_m, LENGTH_SLIPS),
+        &unit_mistake_check(
+            "a wall thickness",
+            "m",
+            limits.wall_thickness_m,
+            LENGTH_SLIPS,
+        ),
     );
     w.x_m = p.number("x_m");
     w.y_m = p.number("y_m");
@@ -1173,7 +1233,11 @@ pub fn storey(row: &DataRow, decimal_comma: bool) -> (StoreyRecord, Vec<Problem>
 }
 
 /// [`storey`] with given limits.
-pub fn storey_with(row: &DataRow, decimal_comma: bool, limits: &Limits) -> (StoreyRecord, Vec<Problem>) {
+pub fn storey_with(
+    row: &DataRow,
+    decimal_comma: bool,
+    limits: &Limits,
+) -> (StoreyRecord, Vec<Problem>) {
     let mut p = RowParser::new(&STOREYS, row, decimal_comma);
     let mut s = StoreyRecord {
         row: row.row,
@@ -1192,7 +1256,11 @@ pub fn storey_with(row: &DataRow, decimal_comma: bool, limits: &Limits) -> (Stor
 
 /// Reads one row of the `eras` sheet (years as in year_built, strengths with the fc / fy
 /// unit-mistake ranges).
-pub fn era(row: &DataRow, decimal_comma: bool, limits: &Limits) -> (crate::settings::Era, Vec<Problem>) {
+pub fn era(
+    row: &DataRow,
+    decimal_comma: bool,
+    limits: &Limits,
+) -> (crate::settings::Era, Vec<Problem>) {
     let mut p = RowParser::new(&ERAS, row, decimal_comma);
     let from_year = p.year("from_year", limits);
     let to_year = p.year("to_year", limits);
@@ -1280,7 +1348,10 @@ mod tests {
             assert_eq!(survey_number(t, false, true).unwrap().value, 1960.0, "{t}");
         }
         // A ;-separated CSV's decimal comma is the file's convention.
-        assert_eq!(survey_number("1,200", true, false).unwrap().alternative, None);
+        assert_eq!(
+            survey_number("1,200", true, false).unwrap().alternative,
+            None
+        );
     }
 
     #[test]
@@ -1294,8 +1365,19 @@ mod tests {
             Checked::Value(v, Some(_)) if v == 3.1
         ));
         // 1,200 as a plan area: both plausible.
-        let r = read_survey_text("1,200", false, false, "plan_area_m2", m, one, &positive_check);
-        assert!(matches!(&r, Checked::Refused(e) if e.contains("1.2") && e.contains("1200")), "{r:?}");
+        let r = read_survey_text(
+            "1,200",
+            false,
+            false,
+            "plan_area_m2",
+            m,
+            one,
+            &positive_check,
+        );
+        assert!(
+            matches!(&r, Checked::Refused(e) if e.contains("1.2") && e.contains("1200")),
+            "{r:?}"
+        );
         // A unit in the cell: converted, or refused when of another kind.
         assert!(matches!(
             read_survey_text("310 cm", false, false, "storey_height_m", m, one, &range),

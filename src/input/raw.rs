@@ -377,7 +377,11 @@ impl<'s> SheetReader<'s> {
                 format!(
                     "the required column(s) {m} are missing from the header row (row {}; found {}); add them (names and units: `seistriage template`)",
                     row.row,
-                    if found.is_empty() { "no names".to_string() } else { found }
+                    if found.is_empty() {
+                        "no names".to_string()
+                    } else {
+                        found
+                    }
                 )
             } else {
                 format!(
@@ -469,7 +473,9 @@ impl<'s> SheetReader<'s> {
         if let State::Searching(buf) = &self.state {
             if self.header_row.is_some() || buf.is_empty() {
                 let message = if let Some(h) = self.header_row {
-                    format!("expected the header row at row {h} (--header-row), found the sheet ends before it")
+                    format!(
+                        "expected the header row at row {h} (--header-row), found the sheet ends before it"
+                    )
                 } else {
                     "expected a header row and data, found an empty sheet".to_string()
                 };

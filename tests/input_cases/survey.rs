@@ -186,12 +186,10 @@ fn header_units_are_converted_with_a_warning_and_give_the_clean_twins_results() 
         "\"agR [m/s²]\" is in m/s²: its values are converted to g (÷ 9.81)",
     ] {
         assert!(
-            problems(&a)
-                .iter()
-                .any(|(s, r, _, sev, m)| s == "buildings"
-                    && *r == Some(1)
-                    && sev == "warning"
-                    && m.contains(needle)),
+            problems(&a).iter().any(|(s, r, _, sev, m)| s == "buildings"
+                && *r == Some(1)
+                && sev == "warning"
+                && m.contains(needle)),
             "{needle}: {:#?}",
             problems(&a)
         );
@@ -213,8 +211,18 @@ fn an_unknown_or_wrong_kind_header_unit_is_an_error_and_the_column_is_not_used()
     r.push(N(250.0));
     workbook(d, "k.xlsx", &[("buildings", vec![h, r])]);
     let (_, v) = screen(d, "k.xlsx", &["--settings", "h.toml"]);
-    assert!(has_problem(&v, "fc_mpa", "error", "\"psi\", which the reader does not know"));
-    assert!(has_problem(&v, "wall_thickness_m", "error", "kPa, which is a stress"));
+    assert!(has_problem(
+        &v,
+        "fc_mpa",
+        "error",
+        "\"psi\", which the reader does not know"
+    ));
+    assert!(has_problem(
+        &v,
+        "wall_thickness_m",
+        "error",
+        "kPa, which is a stress"
+    ));
     // Not used: the building is screened with the defaults, and says so.
     let b = &v["buildings"][0];
     let defaults: Vec<&str> = b["defaults_used"]
@@ -223,7 +231,10 @@ fn an_unknown_or_wrong_kind_header_unit_is_an_error_and_the_column_is_not_used()
         .iter()
         .filter_map(Value::as_str)
         .collect();
-    assert!(defaults.contains(&"fc_mpa") && defaults.contains(&"wall_thickness_m"), "{defaults:?}");
+    assert!(
+        defaults.contains(&"fc_mpa") && defaults.contains(&"wall_thickness_m"),
+        "{defaults:?}"
+    );
     // A required column with an unknown unit: one fatal line naming file, sheet, column.
     let mut h = head();
     h[3] = S("Plan area (ft²)");
@@ -280,13 +291,38 @@ fn unit_mistakes_are_errors_naming_the_likely_unit_and_rare_values_are_warnings(
             .map(|(_, r)| r.clone())
             .unwrap_or_default()
     };
-    assert!(reason("M1").contains("storey height from 1.5 to 12 m, found 3100 m: it looks like mm (3.1 m)"), "{}", reason("M1"));
-    assert!(reason("M2").contains("it looks like mm (0.4 m)"), "{}", reason("M2"));
-    assert!(reason("M3").contains("it looks like m/s² (0.3 g)"), "{}", reason("M3"));
-    assert!(reason("M4").contains("floor weight from 2 to 40 kPa"), "{}", reason("M4"));
-    assert!(reason("M5").contains("column depth from 0.1 to 3 m, found 40 m: it looks like cm (0.4 m)"), "{}", reason("M5"));
+    assert!(
+        reason("M1")
+            .contains("storey height from 1.5 to 12 m, found 3100 m: it looks like mm (3.1 m)"),
+        "{}",
+        reason("M1")
+    );
+    assert!(
+        reason("M2").contains("it looks like mm (0.4 m)"),
+        "{}",
+        reason("M2")
+    );
+    assert!(
+        reason("M3").contains("it looks like m/s² (0.3 g)"),
+        "{}",
+        reason("M3")
+    );
+    assert!(
+        reason("M4").contains("floor weight from 2 to 40 kPa"),
+        "{}",
+        reason("M4")
+    );
+    assert!(
+        reason("M5").contains("column depth from 0.1 to 3 m, found 40 m: it looks like cm (0.4 m)"),
+        "{}",
+        reason("M5")
+    );
     // 400 mm = 0.4 m is a plausible wall length too; the first plausible unit is named.
-    assert!(reason("M6").contains("it looks like mm (0.4 m)"), "{}", reason("M6"));
+    assert!(
+        reason("M6").contains("it looks like mm (0.4 m)"),
+        "{}",
+        reason("M6")
+    );
     assert_eq!(ns.len(), 6, "{ns:?}");
     let ids: Vec<&str> = v["buildings"]
         .as_array()
@@ -295,8 +331,18 @@ fn unit_mistakes_are_errors_naming_the_likely_unit_and_rare_values_are_warnings(
         .filter_map(|b| b["id"].as_str())
         .collect();
     assert_eq!(ids, ["W1"]);
-    assert!(has_problem(&v, "storey_height_m", "warning", "unusual but possible"));
-    assert!(has_problem(&v, "floor_weight_kpa", "warning", "unusual but possible"));
+    assert!(has_problem(
+        &v,
+        "storey_height_m",
+        "warning",
+        "unusual but possible"
+    ));
+    assert!(has_problem(
+        &v,
+        "floor_weight_kpa",
+        "warning",
+        "unusual but possible"
+    ));
 }
 
 #[test]
@@ -362,21 +408,50 @@ fn survey_text_is_read_with_a_warning_and_gives_the_clean_twins_results() {
     assert_eq!(a["buildings"], b["buildings"]);
     assert_eq!(a["buildings"].as_array().unwrap().len(), 3);
     for (row, column, needle) in [
-        (2, "storey_height_m", "read \"3,2\" as 3.2: the decimal comma is read as a decimal point (use a decimal point)"),
-        (2, "plan_area_m2", "the digit grouping (spaces or apostrophes) is removed"),
+        (
+            2,
+            "storey_height_m",
+            "read \"3,2\" as 3.2: the decimal comma is read as a decimal point (use a decimal point)",
+        ),
+        (
+            2,
+            "plan_area_m2",
+            "the digit grouping (spaces or apostrophes) is removed",
+        ),
         (2, "fc_mpa", "the unit \"MPa\" after the number is removed"),
-        (2, "year_built", "the circa year \"c. 1960\" is read as the year"),
-        (2, "wall_thickness_m", "the value in mm is converted to m (÷ 1000)"),
+        (
+            2,
+            "year_built",
+            "the circa year \"c. 1960\" is read as the year",
+        ),
+        (
+            2,
+            "wall_thickness_m",
+            "the value in mm is converted to m (÷ 1000)",
+        ),
         (3, "column_area_m2", "both separators"),
-        (3, "storey_height_m", "the unit \"m\" after the number is removed"),
-        (3, "floor_weight_kpa", "read \"12,000\" as 12 (decimal comma): the other reading, 12000, is refused"),
-        (4, "storey_height_m", "read \"3,100\" as 3.1 (decimal comma): the other reading, 3100, is refused"),
+        (
+            3,
+            "storey_height_m",
+            "the unit \"m\" after the number is removed",
+        ),
+        (
+            3,
+            "floor_weight_kpa",
+            "read \"12,000\" as 12 (decimal comma): the other reading, 12000, is refused",
+        ),
+        (
+            4,
+            "storey_height_m",
+            "read \"3,100\" as 3.1 (decimal comma): the other reading, 3100, is refused",
+        ),
         (4, "year_built", "~1980"),
     ] {
         assert!(
-            problems(&a)
-                .iter()
-                .any(|(_, r, c, s, m)| *r == Some(row) && c == column && s == "warning" && m.contains(needle)),
+            problems(&a).iter().any(|(_, r, c, s, m)| *r == Some(row)
+                && c == column
+                && s == "warning"
+                && m.contains(needle)),
             "row {row} {column}: {needle}\n{:#?}",
             problems(&a)
         );
@@ -407,16 +482,31 @@ fn an_ambiguous_comma_is_refused_showing_both_readings_or_settled_by_the_checks(
     };
     // Both plausible: refused, showing both.
     assert!(
-        reason("A1").contains("\"1,200\" is ambiguous: 1.2 (decimal comma) or 1200 (thousands separator)"),
+        reason("A1")
+            .contains("\"1,200\" is ambiguous: 1.2 (decimal comma) or 1200 (thousands separator)"),
         "{}",
         reason("A1")
     );
     // 12,000 kPa is refused, 12.000 kPa passes: used with a warning.
-    assert!(has_problem(&v, "floor_weight_kpa", "warning", "read \"12,000\" as 12 (decimal comma)"));
+    assert!(has_problem(
+        &v,
+        "floor_weight_kpa",
+        "warning",
+        "read \"12,000\" as 12 (decimal comma)"
+    ));
     // Storeys: 1.2 is not whole and 1200 is above 60: both readings refused, both shown.
-    assert!(reason("A3").contains("reads as 1.2 (decimal comma)") && reason("A3").contains("1200 (thousands separator)"), "{}", reason("A3"));
+    assert!(
+        reason("A3").contains("reads as 1.2 (decimal comma)")
+            && reason("A3").contains("1200 (thousands separator)"),
+        "{}",
+        reason("A3")
+    );
     // A period alone is always the decimal mark: two of them are refused, with what to do.
-    assert!(reason("A4").contains("write the number without thousands separators"), "{}", reason("A4"));
+    assert!(
+        reason("A4").contains("write the number without thousands separators"),
+        "{}",
+        reason("A4")
+    );
     assert_eq!(ns.len(), 3, "{ns:?}");
 }
 
@@ -434,9 +524,24 @@ fn a_unit_of_another_kind_in_a_cell_is_refused_with_what_to_do() {
          C3,4,3,400,10,20\n",
     );
     let (_, v) = screen(d, "u.csv", &["--settings", "h.toml"]);
-    assert!(has_problem(&v, "storey_height_m", "error", "write the number without its unit"));
-    assert!(has_problem(&v, "fc_mpa", "error", "\"psi\", which the reader does not know"));
-    assert!(has_problem(&v, "fc_mpa", "error", "leave it blank for the default"));
+    assert!(has_problem(
+        &v,
+        "storey_height_m",
+        "error",
+        "write the number without its unit"
+    ));
+    assert!(has_problem(
+        &v,
+        "fc_mpa",
+        "error",
+        "\"psi\", which the reader does not know"
+    ));
+    assert!(has_problem(
+        &v,
+        "fc_mpa",
+        "error",
+        "leave it blank for the default"
+    ));
 }
 
 #[test]
@@ -507,17 +612,33 @@ fn coordinates_out_of_range_or_swapped_are_named_and_missing_ones_counted() {
     let o = run(
         d,
         &[
-            "screen", "c.csv", "--settings", "h.toml", "--districts", "d.geojson", "--json",
-            "c.json", "--out", "c.xlsx",
+            "screen",
+            "c.csv",
+            "--settings",
+            "h.toml",
+            "--districts",
+            "d.geojson",
+            "--json",
+            "c.json",
+            "--out",
+            "c.xlsx",
         ],
     );
     let summary = String::from_utf8_lossy(&o.stdout);
     assert!(o.status.success(), "{}", text(&o));
     let v: Value = serde_json::from_slice(&std::fs::read(d.join("c.json")).unwrap()).unwrap();
-    assert!(has_problem(&v, "latitude", "warning", "latitude and longitude look swapped"));
+    assert!(has_problem(
+        &v,
+        "latitude",
+        "warning",
+        "latitude and longitude look swapped"
+    ));
     let ns = not_screened(&v);
     let g3 = ns.iter().find(|(i, _)| i == "G3").unwrap();
-    assert!(g3.1.contains("between -90 and 90, found 120; latitude and longitude look swapped"), "{g3:?}");
+    assert!(
+        g3.1.contains("between -90 and 90, found 120; latitude and longitude look swapped"),
+        "{g3:?}"
+    );
     let g5 = ns.iter().find(|(i, _)| i == "G5").unwrap();
     assert!(!g5.1.contains("swapped"), "{g5:?}");
     // G2 is used as given (and so falls in no district); G4 has no coordinates.
@@ -532,11 +653,18 @@ fn check_runs_screens_resolution_and_says_how_many_rows_will_be_screened() {
     let dir = tempfile::tempdir().unwrap();
     let d = dir.path();
     // No hazard anywhere: screen refuses every row; check says so and exits 1.
-    workbook(d, "n.xlsx", &[("buildings", vec![head(), good("H1"), good("H2")])]);
+    workbook(
+        d,
+        "n.xlsx",
+        &[("buildings", vec![head(), good("H1"), good("H2")])],
+    );
     let o = run(d, &["check", "n.xlsx"]);
     let out = text(&o);
     assert_eq!(o.status.code(), Some(1), "{out}");
-    assert!(out.contains("buildings, row 2: H1: not screened: no hazard given"), "{out}");
+    assert!(
+        out.contains("buildings, row 2: H1: not screened: no hazard given"),
+        "{out}"
+    );
     assert!(out.contains("0 rows will be screened"), "{out}");
     let s = run(d, &["screen", "n.xlsx", "--out", "n-out.xlsx"]);
     assert_eq!(s.status.code(), Some(1));
@@ -551,7 +679,11 @@ fn check_runs_screens_resolution_and_says_how_many_rows_will_be_screened() {
     workbook(d, "o.xlsx", &[("buildings", vec![h, r1, r2])]);
     let o = run(d, &["check", "o.xlsx"]);
     assert_eq!(o.status.code(), Some(0), "{}", text(&o));
-    assert!(text(&o).contains("2 rows: 1 rows will be screened, 1 will not"), "{}", text(&o));
+    assert!(
+        text(&o).contains("2 rows: 1 rows will be screened, 1 will not"),
+        "{}",
+        text(&o)
+    );
     let o = run(d, &["check", "o.xlsx", "--strict"]);
     assert_eq!(o.status.code(), Some(1), "{}", text(&o));
     // The hazard in the settings sheet, as screen reads it.
@@ -559,12 +691,19 @@ fn check_runs_screens_resolution_and_says_how_many_rows_will_be_screened() {
     workbook(
         d,
         "p.xlsx",
-        &[("buildings", vec![head(), good("H1")]), ("settings", settings)],
+        &[
+            ("buildings", vec![head(), good("H1")]),
+            ("settings", settings),
+        ],
     );
     let o = run(d, &["check", "p.xlsx", "--strict"]);
     assert_eq!(o.status.code(), Some(0), "{}", text(&o));
     assert!(text(&o).contains("1 rows will be screened"), "{}", text(&o));
-    assert!(text(&o).contains("warning: settings, row 2, agr_g: read \"0,2\" as 0.2"), "{}", text(&o));
+    assert!(
+        text(&o).contains("warning: settings, row 2, agr_g: read \"0,2\" as 0.2"),
+        "{}",
+        text(&o)
+    );
 }
 
 #[test]
@@ -572,7 +711,11 @@ fn a_workbook_without_a_buildings_sheet_is_read_from_its_first_sheet_or_refused_
     let dir = tempfile::tempdir().unwrap();
     let d = dir.path();
     write(d, "h.toml", HAZARD);
-    workbook(d, "first.xlsx", &[("Survey 2026", vec![head(), good("B1")])]);
+    workbook(
+        d,
+        "first.xlsx",
+        &[("Survey 2026", vec![head(), good("B1")])],
+    );
     let o = run(d, &["check", "first.xlsx", "--settings", "h.toml"]);
     assert_eq!(o.status.code(), Some(0), "{}", text(&o));
     assert!(text(&o).contains("the first sheet \"Survey 2026\" is read as buildings"));
@@ -588,17 +731,25 @@ fn a_workbook_without_a_buildings_sheet_is_read_from_its_first_sheet_or_refused_
     let err = String::from_utf8_lossy(&o.stderr);
     assert_eq!(o.status.code(), Some(1));
     assert_eq!(err.trim().lines().count(), 1, "{err}");
-    assert!(err.contains("none.xlsx") && err.contains("sheets found: \"Notes\", \"Data\""), "{err}");
+    assert!(
+        err.contains("none.xlsx") && err.contains("sheets found: \"Notes\", \"Data\""),
+        "{err}"
+    );
     // A required column missing from the header: one line, not one per row.
     let mut h = head();
     h[2] = S("levels");
-    let rows: Vec<Vec<C>> = std::iter::once(h).chain((0..50).map(|_| good("R"))).collect();
+    let rows: Vec<Vec<C>> = std::iter::once(h)
+        .chain((0..50).map(|_| good("R")))
+        .collect();
     workbook(d, "miss.xlsx", &[("buildings", rows)]);
     let o = run(d, &["screen", "miss.xlsx", "--settings", "h.toml"]);
     let err = String::from_utf8_lossy(&o.stderr);
     assert_eq!(o.status.code(), Some(1));
     assert_eq!(err.trim().lines().count(), 1, "{err}");
-    assert!(err.contains("miss.xlsx: sheet buildings: the required column(s) storeys are missing"), "{err}");
+    assert!(
+        err.contains("miss.xlsx: sheet buildings: the required column(s) storeys are missing"),
+        "{err}"
+    );
 }
 
 #[test]
@@ -606,17 +757,60 @@ fn outputs_to_standard_output_and_their_usage_errors() {
     let dir = tempfile::tempdir().unwrap();
     let d = dir.path();
     write(d, "h.toml", HAZARD);
-    workbook(d, "i.xlsx", &[("buildings", vec![head(), good("O1"), good("O2")])]);
-    let o = run(d, &["screen", "i.xlsx", "--settings", "h.toml", "--out", "r.xlsx", "--json", "-"]);
+    workbook(
+        d,
+        "i.xlsx",
+        &[("buildings", vec![head(), good("O1"), good("O2")])],
+    );
+    let o = run(
+        d,
+        &[
+            "screen",
+            "i.xlsx",
+            "--settings",
+            "h.toml",
+            "--out",
+            "r.xlsx",
+            "--json",
+            "-",
+        ],
+    );
     assert!(o.status.success(), "{}", text(&o));
     let v: Value = serde_json::from_slice(&o.stdout).expect("stdout is the JSON alone");
     assert_eq!(v["counts"]["screened"], 2);
     let err = String::from_utf8_lossy(&o.stderr);
-    assert!(err.contains("JSON: standard output") && err.contains("CAUTION"), "{err}");
-    let o = run(d, &["screen", "i.xlsx", "--settings", "h.toml", "--out", "r.xlsx", "--csv", "-"]);
+    assert!(
+        err.contains("JSON: standard output") && err.contains("CAUTION"),
+        "{err}"
+    );
+    let o = run(
+        d,
+        &[
+            "screen",
+            "i.xlsx",
+            "--settings",
+            "h.toml",
+            "--out",
+            "r.xlsx",
+            "--csv",
+            "-",
+        ],
+    );
     assert!(o.status.success());
     assert!(String::from_utf8_lossy(&o.stdout).starts_with("rank,id,"));
-    let o = run(d, &["screen", "i.xlsx", "--settings", "h.toml", "--out", "r.xlsx", "--geojson", "-"]);
+    let o = run(
+        d,
+        &[
+            "screen",
+            "i.xlsx",
+            "--settings",
+            "h.toml",
+            "--out",
+            "r.xlsx",
+            "--geojson",
+            "-",
+        ],
+    );
     assert!(o.status.success());
     assert!(String::from_utf8_lossy(&o.stdout).contains("FeatureCollection"));
     let o = run(d, &["screen", "i.xlsx", "--json", "-", "--csv", "-"]);
@@ -625,7 +819,16 @@ fn outputs_to_standard_output_and_their_usage_errors() {
     // A closed stdout: exit 0.
     let mut child = Command::new(env!("CARGO_BIN_EXE_seistriage"))
         .current_dir(d)
-        .args(["screen", "i.xlsx", "--settings", "h.toml", "--out", "r.xlsx", "--json", "-"])
+        .args([
+            "screen",
+            "i.xlsx",
+            "--settings",
+            "h.toml",
+            "--out",
+            "r.xlsx",
+            "--json",
+            "-",
+        ])
         .stdout(std::process::Stdio::piped())
         .stderr(std::process::Stdio::null())
         .spawn()
@@ -655,13 +858,34 @@ fn budget_and_out_are_checked_with_a_hint() {
         } else {
             format!("--budget={bad}")
         };
-        let o = run(d, &["screen", "i.xlsx", "--settings", "h.toml", flag.as_str()]);
+        let o = run(
+            d,
+            &["screen", "i.xlsx", "--settings", "h.toml", flag.as_str()],
+        );
         assert_eq!(o.status.code(), Some(2), "{bad}");
-        assert!(String::from_utf8_lossy(&o.stderr).contains(hint), "{bad}: {}", text(&o));
+        assert!(
+            String::from_utf8_lossy(&o.stderr).contains(hint),
+            "{bad}: {}",
+            text(&o)
+        );
     }
-    let o = run(d, &["screen", "i.xlsx", "--settings", "h.toml", "--out", "res.csv"]);
+    let o = run(
+        d,
+        &[
+            "screen",
+            "i.xlsx",
+            "--settings",
+            "h.toml",
+            "--out",
+            "res.csv",
+        ],
+    );
     assert_eq!(o.status.code(), Some(2));
-    assert!(String::from_utf8_lossy(&o.stderr).contains("use --csv FILE"), "{}", text(&o));
+    assert!(
+        String::from_utf8_lossy(&o.stderr).contains("use --csv FILE"),
+        "{}",
+        text(&o)
+    );
     assert!(!d.join("res.csv").exists());
 }
 
@@ -669,7 +893,11 @@ fn budget_and_out_are_checked_with_a_hint() {
 fn unknown_settings_keys_are_reported_once_all_at_once_with_the_nearest_key() {
     let dir = tempfile::tempdir().unwrap();
     let d = dir.path();
-    write(d, "bad.toml", "agr_g = 0.25\nbudjet = 100\nnear_falt_km = 5\n");
+    write(
+        d,
+        "bad.toml",
+        "agr_g = 0.25\nbudjet = 100\nnear_falt_km = 5\n",
+    );
     workbook(d, "i.xlsx", &[("buildings", vec![head(), good("O1")])]);
     let o = run(d, &["screen", "i.xlsx", "--settings", "bad.toml"]);
     let err = String::from_utf8_lossy(&o.stderr);
@@ -677,7 +905,10 @@ fn unknown_settings_keys_are_reported_once_all_at_once_with_the_nearest_key() {
     assert_eq!(err.trim().lines().count(), 1, "{err}");
     assert_eq!(err.matches("budjet").count(), 1, "{err}");
     assert!(err.contains("`budjet` (did you mean `budget`?)"), "{err}");
-    assert!(err.contains("`near_falt_km` (did you mean `near_fault_km`?)"), "{err}");
+    assert!(
+        err.contains("`near_falt_km` (did you mean `near_fault_km`?)"),
+        "{err}"
+    );
     // agR in m/s² in a settings file: refused with the hint.
     write(d, "ms.toml", "agr_g = 2.943\n");
     let o = run(d, &["check", "i.xlsx", "--settings", "ms.toml"]);
@@ -695,18 +926,28 @@ fn unknown_settings_keys_are_reported_once_all_at_once_with_the_nearest_key() {
 fn template_settings_writes_the_documented_settings_file() {
     let dir = tempfile::tempdir().unwrap();
     let d = dir.path();
-    let o = run(d, &["template", "--out", "t.xlsx", "--settings", "conf/s.toml"]);
+    let o = run(
+        d,
+        &["template", "--out", "t.xlsx", "--settings", "conf/s.toml"],
+    );
     assert!(o.status.success(), "{}", text(&o));
     let written = std::fs::read_to_string(d.join("conf/s.toml")).unwrap();
     let committed = std::fs::read_to_string(
         PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("templates/settings.toml"),
     )
     .unwrap();
-    assert_eq!(written.replace("\r\n", "\n"), committed.replace("\r\n", "\n"));
+    assert_eq!(
+        written.replace("\r\n", "\n"),
+        committed.replace("\r\n", "\n")
+    );
     // Uncommented, it is a valid settings file.
     let uncommented: String = written
         .lines()
-        .map(|l| l.strip_prefix("# ").filter(|l| l.contains(" = ")).unwrap_or(l))
+        .map(|l| {
+            l.strip_prefix("# ")
+                .filter(|l| l.contains(" = "))
+                .unwrap_or(l)
+        })
         .map(|l| format!("{l}\n"))
         .collect();
     let mut s = seistriage::settings::Settings::default();
@@ -735,11 +976,21 @@ fn the_bundled_demo_screens_on_its_own_like_the_demo_command() {
             "demo/demo-faults.geojson",
         ],
     );
-    for k in ["buildings", "counts", "budget_plan", "not_screened", "settings"] {
+    for k in [
+        "buildings",
+        "counts",
+        "budget_plan",
+        "not_screened",
+        "settings",
+    ] {
         assert_eq!(geo[k], demo[k], "{k}");
     }
     // On its own it equals the demo's settings file without the geography.
-    let (_, file) = screen(d, "demo/demo.xlsx", &["--settings", "demo/demo-settings.toml"]);
+    let (_, file) = screen(
+        d,
+        "demo/demo.xlsx",
+        &["--settings", "demo/demo-settings.toml"],
+    );
     assert_eq!(alone["buildings"], file["buildings"]);
     assert_eq!(alone["settings"], demo["settings"]);
     assert_eq!(alone["counts"]["screened"], demo["counts"]["screened"]);
