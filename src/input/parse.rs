@@ -458,7 +458,12 @@ pub fn read_survey_text(
     let shown = shorten(text);
     let n = match survey_number(text, decimal_comma, circa) {
         Ok(n) => n,
-        Err(e) => return Checked::Refused(format!("{e}, found the text \"{shown}\"")),
+        Err(e) if e == "expected a number" => {
+            return Checked::Refused(format!(
+                "{e}, found the text \"{shown}\"; write the number alone (digits, with a decimal point)"
+            ));
+        }
+        Err(e) => return Checked::Refused(format!("{e} (found the text \"{shown}\")")),
     };
     let mut notes = n.notes.clone();
     let factor = match &n.unit {

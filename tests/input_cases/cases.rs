@@ -124,7 +124,7 @@ fn text_in_a_numeric_cell_rejects_the_row_with_sheet_row_column_message() {
     assert_eq!(p.len(), 1);
     assert_eq!(
         p[0].to_string(),
-        "error: buildings, row 3, plan_area_m2: expected a number, found the text \"four hundred\""
+        "error: buildings, row 3, plan_area_m2: expected a number, found the text \"four hundred\"; write the number alone (digits, with a decimal point)"
     );
     assert_counts(&inv);
 }
