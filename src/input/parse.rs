@@ -811,9 +811,20 @@ impl<'a> RowParser<'a> {
             },
             RawCell::Text(t) => {
                 let t = t.trim();
-                let survey = survey_number(t, false, true)
-                    .ok()
-                    .filter(|n| n.unit.is_none() && n.alternative.is_none() && in_range(n.value));
+                // "1,960": of the two readings only the thousands one is a year.
+                let survey = survey_number(t, false, true).ok().and_then(|mut n| {
+                    if let Some(a) = n.alternative.take() {
+                        if in_range(n.value) || !in_range(a) {
+                            return None;
+                        }
+                        n.notes.push(format!(
+                            "the comma is read as a thousands separator ({} is not a year)",
+                            format_number(n.value)
+                        ));
+                        n.value = a;
+                    }
+                    (n.unit.is_none() && in_range(n.value)).then_some(n)
+                });
                 if let Some(n) = survey {
                     if !n.notes.is_empty() {
                         self.warn(
@@ -948,8 +959,20 @@ fn date_text_year(t: &str) -> Option<i32> {
 /// Latitude and longitude: each within ±90 / ±180, else an error on the row that says when
 /// they look swapped (swapping them gives valid values). inventory.md, "Coordinates".
 fn coordinates(p: &mut RowParser<'_>, b: &mut BuildingRecord) {
-    let lat = p.number("latitude");
-    let lon = p.number("longitude");
+    // Each reading of an ambiguous "40,500" must at least be a longitude (|v| ≤ 180) to be
+    // taken; the latitude range and the swap are judged below, on both values together.
+    let degrees = |v: f64| {
+        if (-180.0..=180.0).contains(&v) {
+            Ok(())
+        } else {
+            Err(format!(
+                "expected decimal degrees between -180 and 180, found {}",
+                format_number(v)
+            ))
+        }
+    };
+    let lat = p.checked("latitude", &degrees);
+    let lon = p.checked("longitude", &degrees);
     let lat_ok = lat.is_none_or(|v| (-90.0..=90.0).contains(&v));
     let lon_ok = lon.is_none_or(|v| (-180.0..=180.0).contains(&v));
     if !(lat_ok && lon_ok) {

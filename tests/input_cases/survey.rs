@@ -390,7 +390,8 @@ fn survey_text_is_read_with_a_warning_and_gives_the_clean_twins_results() {
         &format!(
             "{SURVEY_HEAD}T1,5,\"3,2\",1 200,\"12,5\",6,5,20 MPa,12 kPa,c. 1960,250 mm\n\
              T2,4,3.1 m,1\u{a0}200.5,\"1.200,5\",6,5,\"20,0\",\"12,000\",ca 1975,0.25\n\
-             T3,4,\"3,100\",1'200,10,6,5,25,12,~1980,25 cm\n"
+             T3,4,\"3,100\",1'200,10,6,5,25,12,~1980,25 cm\n\
+             T4,4,3,400,10,6,5,25,12,\"1,980\",0.25\n"
         ),
     );
     write(
@@ -399,14 +400,15 @@ fn survey_text_is_read_with_a_warning_and_gives_the_clean_twins_results() {
         &format!(
             "{SURVEY_HEAD}T1,5,3.2,1200,12.5,6,5,20,12,1960,0.25\n\
              T2,4,3.1,1200.5,1200.5,6,5,20,12,1975,0.25\n\
-             T3,4,3.1,1200,10,6,5,25,12,1980,0.25\n"
+             T3,4,3.1,1200,10,6,5,25,12,1980,0.25\n\
+             T4,4,3,400,10,6,5,25,12,1980,0.25\n"
         ),
     );
     let (_, a) = screen(d, "dirty.csv", &["--settings", "h.toml"]);
     let (_, b) = screen(d, "clean.csv", &["--settings", "h.toml"]);
     assert_eq!(a["not_screened"], b["not_screened"]);
     assert_eq!(a["buildings"], b["buildings"]);
-    assert_eq!(a["buildings"].as_array().unwrap().len(), 3);
+    assert_eq!(a["buildings"].as_array().unwrap().len(), 4);
     for (row, column, needle) in [
         (
             2,
@@ -446,6 +448,11 @@ fn survey_text_is_read_with_a_warning_and_gives_the_clean_twins_results() {
             "read \"3,100\" as 3.1 (decimal comma): the other reading, 3100, is refused",
         ),
         (4, "year_built", "~1980"),
+        (
+            5,
+            "year_built",
+            "the comma is read as a thousands separator (1.98 is not a year)",
+        ),
     ] {
         assert!(
             problems(&a).iter().any(|(_, r, c, s, m)| *r == Some(row)
@@ -607,7 +614,8 @@ fn coordinates_out_of_range_or_swapped_are_named_and_missing_ones_counted() {
          G2,4,400,10,20.5,40.5\n\
          G3,4,400,10,120,40\n\
          G4,4,400,10,,\n\
-         G5,4,400,10,95,200\n",
+         G5,4,400,10,95,200\n\
+         G6,4,400,10,\"40,500\",\"20,500\"\n",
     );
     let o = run(
         d,
@@ -642,6 +650,18 @@ fn coordinates_out_of_range_or_swapped_are_named_and_missing_ones_counted() {
     let g5 = ns.iter().find(|(i, _)| i == "G5").unwrap();
     assert!(!g5.1.contains("swapped"), "{g5:?}");
     // G2 is used as given (and so falls in no district); G4 has no coordinates.
+    // "40,500" as a coordinate: 40500° is no coordinate, so 40.5 is used (with a warning).
+    let g6 = v["buildings"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .find(|b| b["id"] == "G6")
+        .unwrap();
+    assert_eq!(
+        (g6["latitude"].as_f64(), g6["longitude"].as_f64()),
+        (Some(40.5), Some(20.5))
+    );
+    assert_eq!(g6["district"], "North");
     assert!(
         summary.contains("1 buildings without coordinates are not in the GeoJSON or on the map"),
         "{summary}"
