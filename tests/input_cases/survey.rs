@@ -1015,3 +1015,61 @@ fn the_bundled_demo_screens_on_its_own_like_the_demo_command() {
     assert_eq!(alone["settings"], demo["settings"]);
     assert_eq!(alone["counts"]["screened"], demo["counts"]["screened"]);
 }
+
+#[test]
+fn a_settings_key_renamed_by_revision_6_is_accepted_with_a_warning_naming_the_new_key() {
+    let dir = tempfile::tempdir().unwrap();
+    let d = dir.path();
+    // Revision 6 (method §8): the wall factor `wall_capacity_factor` (a multiplier) became
+    // the divisor `wall_rotation_divisor`; 1 / 0.625 = 1.6 exactly.
+    write(
+        d,
+        "old.toml",
+        "agr_g = 0.25\nwall_capacity_factor = 0.625\n",
+    );
+    write(d, "new.toml", "agr_g = 0.25\nwall_rotation_divisor = 1.6\n");
+    workbook(
+        d,
+        "i.xlsx",
+        &[("buildings", vec![head(), good("R1"), good("R2")])],
+    );
+    let (_, old) = screen(d, "i.xlsx", &["--settings", "old.toml"]);
+    let (_, new) = screen(d, "i.xlsx", &["--settings", "new.toml"]);
+    assert_eq!(old["buildings"], new["buildings"]);
+    assert_eq!(old["settings"]["wall_rotation_divisor"], 1.6);
+    assert!(
+        has_problem(
+            &old,
+            "wall_capacity_factor",
+            "warning",
+            "is now `wall_rotation_divisor`"
+        ),
+        "{:#?}",
+        problems(&old)
+    );
+    // In the settings sheet too, with its row number.
+    let settings = vec![
+        vec![S("key"), S("value")],
+        vec![S("agr_g"), N(0.25)],
+        vec![S("wall_capacity_factor"), N(0.625)],
+    ];
+    workbook(
+        d,
+        "s.xlsx",
+        &[
+            ("buildings", vec![head(), good("R1"), good("R2")]),
+            ("settings", settings),
+        ],
+    );
+    let (_, sheet) = screen(d, "s.xlsx", &[]);
+    assert_eq!(sheet["buildings"], new["buildings"]);
+    assert!(
+        problems(&sheet)
+            .iter()
+            .any(|(s, r, c, sev, m)| s == "settings"
+                && *r == Some(3)
+                && c == "wall_capacity_factor"
+                && sev == "warning"
+                && m.contains("wall_rotation_divisor"))
+    );
+}
