@@ -490,6 +490,14 @@ pub fn read_survey_text(
         },
     };
     let value = factor.apply(n.value);
+    // A header conversion is warned on the header row; a refused value names it too.
+    let header_note = (n.unit.is_none() && scale != super::columns::Factor::ONE).then(|| {
+        format!(
+            "written {}, converted from the header's unit: {}",
+            format_number(n.value),
+            super::header::factor_text(scale)
+        )
+    });
     let note = |notes: &[String]| {
         (!notes.is_empty()).then(|| {
             format!(
@@ -502,11 +510,15 @@ pub fn read_survey_text(
     match n.alternative.map(|a| factor.apply(a)) {
         None => match check(value) {
             Ok(()) => Checked::Value(value, note(&notes)),
-            Err(e) => Checked::Refused(if notes.is_empty() {
-                e
-            } else {
-                format!("{e} (read from \"{shown}\": {})", notes.join("; "))
-            }),
+            Err(e) => {
+                let mut all = notes.clone();
+                all.extend(header_note);
+                Checked::Refused(if all.is_empty() {
+                    e
+                } else {
+                    format!("{e} (read from \"{shown}\": {})", all.join("; "))
+                })
+            }
         },
         Some(alt) => {
             let (a, b) = (check(value), check(alt));
@@ -652,10 +664,21 @@ impl<'a> RowParser<'a> {
             .and_then(super::columns::canonical_unit);
         match self.cell(name) {
             RawCell::Empty => None,
-            RawCell::Number(v) if v.is_finite() => {
-                let v = scale.apply(*v);
+            RawCell::Number(raw) if raw.is_finite() => {
+                let v = scale.apply(*raw);
                 match check(v) {
                     Ok(()) => Some(v),
+                    Err(e) if scale != super::columns::Factor::ONE => {
+                        let how = super::header::factor_text(scale);
+                        self.cell_error(
+                            name,
+                            format!(
+                                "{e} (written {}, converted from the header's unit: {how})",
+                                format_number(*raw)
+                            ),
+                        );
+                        None
+                    }
                     Err(e) => {
                         self.cell_error(name, e);
                         None
