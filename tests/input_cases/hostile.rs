@@ -240,6 +240,31 @@ mod survey_text {
         }
 
         #[test]
+        fn the_reader_never_accepts_an_out_of_range_value_from_survey_text(
+            height in survey_like(), thickness in survey_like(), agr in survey_like(),
+            weight in survey_like(), semicolon in any::<bool>(),
+        ) {
+            let dir = tempfile::tempdir().unwrap();
+            let sep = if semicolon { ';' } else { ',' };
+            let q = |t: &str| format!("\"{}\"", t.replace('"', ""));
+            let body = format!(
+                "id{sep}storeys{sep}plan_area_m2{sep}column_area_m2{sep}storey_height_m{sep}wall_thickness_m{sep}agr_g{sep}floor_weight_kpa\n\
+                 P1{sep}4{sep}400{sep}10{sep}{}{sep}{}{sep}{}{sep}{}\n",
+                q(&height), q(&thickness), q(&agr), q(&weight)
+            );
+            let p = dir.path().join("p.csv");
+            std::fs::write(&p, body).unwrap();
+            let inv = seistriage::input::read_inventory(&p, &seistriage::input::ReadOptions::default()).unwrap();
+            prop_assert_eq!(inv.rows, inv.buildings.len() + inv.not_screened.len());
+            for b in &inv.buildings {
+                if let Some(h) = b.storey_height_m { prop_assert!((1.5..=12.0).contains(&h), "{height:?} -> {h}"); }
+                if let Some(t) = b.wall_thickness_m { prop_assert!((0.05..=1.5).contains(&t), "{thickness:?} -> {t}"); }
+                if let Some(a) = b.agr_g { prop_assert!((0.0..=1.5).contains(&a), "{agr:?} -> {a}"); }
+                if let Some(w) = b.floor_weight_kpa { prop_assert!((2.0..=40.0).contains(&w), "{weight:?} -> {w}"); }
+            }
+        }
+
+        #[test]
         fn an_ambiguous_comma_is_never_taken_silently(a in 1u32..1000, b in 0u32..1000) {
             let t = format!("{a},{b:03}");
             let n = survey_number(&t, false, false).unwrap();
