@@ -753,6 +753,115 @@ impl Settings {
                 message: format!("must be at least 1, found {}", self.max_storeys),
             });
         }
+        // The inventory's unit-mistake limits apply to the settings' defaults too
+        // (inventory.md, "Errors that catch unit mistakes"): a default storey height of
+        // 3100 is a unit mistake in the settings as in a cell.
+        {
+            use crate::input::parse::{
+                UNIT_MISTAKE_COLUMN_DEPTH_M, UNIT_MISTAKE_FLOOR_WEIGHT_KPA,
+                UNIT_MISTAKE_STOREY_HEIGHT_M, UNIT_MISTAKE_WALL_LENGTH_M,
+                UNIT_MISTAKE_WALL_THICKNESS_M, unit_mistake_check,
+            };
+            let length_slips: &'static [(&'static str, f64, f64)] =
+                &[("mm", 1.0, 1000.0), ("cm", 1.0, 100.0)];
+            let checks: [(
+                &str,
+                f64,
+                &str,
+                &str,
+                (f64, f64),
+                &'static [(&'static str, f64, f64)],
+            ); 10] = [
+                (
+                    "default_storey_height_m",
+                    self.default_storey_height_m,
+                    "a storey height",
+                    "m",
+                    UNIT_MISTAKE_STOREY_HEIGHT_M,
+                    length_slips,
+                ),
+                (
+                    "default_wall_thickness_m",
+                    self.default_wall_thickness_m,
+                    "a wall thickness",
+                    "m",
+                    UNIT_MISTAKE_WALL_THICKNESS_M,
+                    length_slips,
+                ),
+                (
+                    "new_wall_thickness_m",
+                    self.new_wall_thickness_m,
+                    "a wall thickness",
+                    "m",
+                    UNIT_MISTAKE_WALL_THICKNESS_M,
+                    length_slips,
+                ),
+                (
+                    "default_column_depth_m",
+                    self.default_column_depth_m,
+                    "a column depth",
+                    "m",
+                    UNIT_MISTAKE_COLUMN_DEPTH_M,
+                    length_slips,
+                ),
+                (
+                    "default_wall_length_m",
+                    self.default_wall_length_m,
+                    "a wall length",
+                    "m",
+                    UNIT_MISTAKE_WALL_LENGTH_M,
+                    length_slips,
+                ),
+                (
+                    "new_wall_length_m",
+                    self.new_wall_length_m,
+                    "a wall length",
+                    "m",
+                    UNIT_MISTAKE_WALL_LENGTH_M,
+                    length_slips,
+                ),
+                (
+                    "floor_weight_kpa",
+                    self.floor_weight_kpa,
+                    "a floor weight",
+                    "kPa",
+                    UNIT_MISTAKE_FLOOR_WEIGHT_KPA,
+                    &[],
+                ),
+                (
+                    "default_fc_mpa",
+                    self.default_fc_mpa,
+                    "a concrete strength",
+                    "MPa",
+                    (5.0, 120.0),
+                    &[],
+                ),
+                (
+                    "new_wall_fc_mpa",
+                    self.new_wall_fc_mpa,
+                    "a concrete strength",
+                    "MPa",
+                    (5.0, 120.0),
+                    &[],
+                ),
+                (
+                    "default_fy_mpa",
+                    self.default_fy_mpa,
+                    "a steel strength",
+                    "MPa",
+                    (150.0, 700.0),
+                    &[],
+                ),
+            ];
+            for (key, v, what, unit, range, slips) in checks {
+                unit_mistake_check(what, unit, range, slips)(v).map_err(|message| {
+                    SettingsError::OutOfRange {
+                        key: key.into(),
+                        message,
+                    }
+                })?;
+            }
+        }
         if let Some(v) = self.agr_g {
             crate::input::parse::agr_check(crate::input::parse::UNIT_MISTAKE_AGR_MAX_G)(v)
                 .map_err(|message| SettingsError::OutOfRange {
@@ -885,6 +994,11 @@ mod tests {
             .apply_toml("agr_g = \"0.3 MPa\"")
             .unwrap_err();
         assert!(e.to_string().contains("without its unit"), "{e}");
+        // The unit-mistake limits of the inventory hold for the settings' defaults too.
+        let e = Settings::default()
+            .apply_toml("default_storey_height_m = 3100")
+            .unwrap_err();
+        assert!(e.to_string().contains("it looks like mm (3.1 m)"), "{e}");
         let e = Settings::default().apply_toml("agr_g = 2.943").unwrap_err();
         assert!(e.to_string().contains("m/s²"), "{e}");
         // "1,200" as agR: 1200 g is refused, so 1.2 is used with a warning.
