@@ -47,6 +47,17 @@ pub enum SettingsError {
     },
 }
 
+/// One unit-mistake check of a settings default: (key, value, what, unit, range, likely
+/// slips as (unit, multiplier, divisor)).
+type LimitCheck = (
+    &'static str,
+    f64,
+    &'static str,
+    &'static str,
+    (f64, f64),
+    &'static [(&'static str, f64, f64)],
+);
+
 /// Ground type of EN 1998-1 Table 3.1.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord, Serialize, Deserialize)]
 pub enum GroundType {
@@ -764,14 +775,7 @@ impl Settings {
             };
             let length_slips: &'static [(&'static str, f64, f64)] =
                 &[("mm", 1.0, 1000.0), ("cm", 1.0, 100.0)];
-            let checks: [(
-                &str,
-                f64,
-                &str,
-                &str,
-                (f64, f64),
-                &'static [(&'static str, f64, f64)],
-            ); 10] = [
+            let checks: [LimitCheck; 10] = [
                 (
                     "default_storey_height_m",
                     self.default_storey_height_m,
