@@ -210,6 +210,7 @@ pub fn default_value(key: &str, res: &Resolved, s: &Settings) -> DefaultValue {
         "fy_mpa" => DefaultValue::MPa(res.fy_mpa),
         "floor_weight_kpa" => DefaultValue::KPa(res.floor_weight_kpa),
         "ground_type" => DefaultValue::Ground(s.default_ground_type),
+        "rc_wall_area_x_m2" | "rc_wall_area_y_m2" => DefaultValue::NoRcWalls,
         _ => DefaultValue::None,
     }
 }

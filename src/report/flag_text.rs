@@ -317,6 +317,7 @@ pub fn default_value_text(v: &DefaultValue) -> String {
         DefaultValue::Ground(g) => g.to_string(),
         DefaultValue::Boundary(true) => "present by year rule".into(),
         DefaultValue::Boundary(false) => "treated as absent".into(),
+        DefaultValue::NoRcWalls => "0 m² (no RC walls)".into(),
         DefaultValue::None => String::new(),
     }
 }

@@ -336,6 +336,8 @@ pub enum DefaultValue {
     Ground(GroundType),
     /// Boundary elements: present by the year rule (true) or treated as absent.
     Boundary(bool),
+    /// A blank RC wall area: 0 m², no RC walls in that direction.
+    NoRcWalls,
     /// A key with no value to show.
     None,
 }
