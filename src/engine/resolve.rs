@@ -416,30 +416,23 @@ pub fn storey_data(
     )
 }
 
-/// Resolves every quantity of method §0 for one building. `Err` holds the reasons the
-/// building cannot be screened.
-pub fn resolve(input: &BuildingInput<'_>, settings: &Settings) -> Result<Resolved, Vec<String>> {
+/// Storey heights h_i (the storeys sheet's, else the ground-storey and typical heights),
+/// floor heights z_i and the total height H (method §0); defaulted keys are noted.
+struct Heights {
+    heights_m: Vec<f64>,
+    z_m: Vec<f64>,
+    height_m: f64,
+    /// The typical storey height in force (given or the default).
+    typical_h: f64,
+}
+
+fn storey_heights(
+    input: &BuildingInput<'_>,
+    settings: &Settings,
+    defaults: &mut Vec<String>,
+) -> Heights {
     let r = input.record;
-    let mut defaults: Vec<String> = Vec::new();
-    let mut errors: Vec<String> = Vec::new();
-
     let n = r.storeys;
-    if n == 0 {
-        errors.push("storeys must be a whole number of at least 1".into());
-    }
-    if !(r.plan_area_m2.is_finite() && r.plan_area_m2 > 0.0) {
-        errors.push(format!(
-            "plan area must be above 0 m², found {}",
-            r.plan_area_m2
-        ));
-    }
-
-    let use_ = r.use_.unwrap_or_else(|| {
-        defaults.push("use".into());
-        Use::Residential
-    });
-
-    // Storey heights: storeys sheet first, else ground / typical heights.
     let sheet_height = |i: u32| {
         input
             .storeys
@@ -471,12 +464,27 @@ pub fn resolve(input: &BuildingInput<'_>, settings: &Settings) -> Result<Resolve
         z_m.push(acc);
     }
     let height_m = acc;
+    Heights {
+        heights_m,
+        z_m,
+        height_m,
+        typical_h,
+    }
+}
 
-    let plan_area_m2 = r.plan_area_m2;
-    let floor_area_m2 = f64::from(n) * plan_area_m2;
-    let column_area_m2 = nonneg(Some(r.column_area_m2)).unwrap_or(0.0);
+/// Concrete and steel strengths (row, else the era table, else the defaults) and the floor
+/// weight (method §0); defaulted keys are noted.
+struct Materials {
+    fc_mpa: f64,
+    fy_mpa: f64,
+    floor_weight_kpa: f64,
+}
 
-    // Materials.
+fn materials(
+    r: &crate::model::BuildingRecord,
+    settings: &Settings,
+    defaults: &mut Vec<String>,
+) -> Materials {
     let (era_fc, era_fy) = era_strength(settings, r.year_built);
     let fc_mpa = positive(r.fc_mpa).unwrap_or_else(|| {
         defaults.push("fc_mpa".into());
@@ -490,24 +498,33 @@ pub fn resolve(input: &BuildingInput<'_>, settings: &Settings) -> Result<Resolve
         defaults.push("floor_weight_kpa".into());
         settings.floor_weight_kpa
     });
-    let weight_kn = floor_weight_kpa * floor_area_m2;
+    Materials {
+        fc_mpa,
+        fy_mpa,
+        floor_weight_kpa,
+    }
+}
 
-    let hazard = match resolve_hazard(input, settings, &mut defaults) {
-        Ok(h) => Some(h),
-        Err(e) => {
-            errors.push(e);
-            None
-        }
-    };
+/// The walls of §0: listed one by one (walls sheet; those starting above the ground storey
+/// are set aside for the wall-discontinued flag) or one representative wall per direction,
+/// with the ground-storey RC wall area per direction; defaulted keys are noted. ν is set by
+/// the caller once the areas are known.
+struct Walls {
+    walls: Vec<WallSpec>,
+    walls_listed: bool,
+    walls_above_ground: PerDir<Vec<String>>,
+    rc_wall_area_m2: PerDir<f64>,
+}
 
-    let boundary_elements = boundary_present(
-        r.boundary_elements,
-        r.year_built,
-        settings.boundary_elements_from_year,
-    );
-    let columns_detailed = columns_detailed(r.year_built, settings.seismic_detailing_from_year);
-
-    // Walls.
+fn walls(
+    input: &BuildingInput<'_>,
+    settings: &Settings,
+    fc_mpa: f64,
+    fy_mpa: f64,
+    boundary_elements: bool,
+    defaults: &mut Vec<String>,
+) -> Walls {
+    let r = input.record;
     let listed: Vec<_> = input
         .walls
         .iter()
@@ -643,6 +660,126 @@ pub fn resolve(input: &BuildingInput<'_>, settings: &Settings) -> Result<Resolve
         defaults.push("boundary_elements".into());
     }
 
+    Walls {
+        walls,
+        walls_listed,
+        walls_above_ground,
+        rc_wall_area_m2,
+    }
+}
+
+/// The storey-by-storey areas of the soft/weak storey flags (method §10 precedence, see
+/// [`storey_data`]), with the listed walls standing in each storey (start ≤ i ≤ end).
+fn storey_areas(
+    input: &BuildingInput<'_>,
+    settings: &Settings,
+    heights_m: &[f64],
+    ground: StoreyAreas,
+    walls_listed: bool,
+) -> (Vec<StoreyAreas>, StoreySource) {
+    let r = input.record;
+    let n = r.storeys;
+    let wall_tw = positive(r.wall_thickness_m);
+    let listed: Vec<_> = input
+        .walls
+        .iter()
+        .filter(|w| w.direction.is_some())
+        .collect();
+    let listed_wall_area_at = |i: u32, d: Dir| -> f64 {
+        listed
+            .iter()
+            .filter(|w| w.direction == Some(d))
+            .filter(|w| w.start_storey.unwrap_or(1) <= i && w.end_storey.unwrap_or(n) >= i)
+            .map(|w| {
+                w.length_m.max(0.0)
+                    * positive(w.thickness_m)
+                        .or(wall_tw)
+                        .unwrap_or(settings.default_wall_thickness_m)
+            })
+            .fold(0.0, |a, b| a + b)
+    };
+    storey_data(
+        input,
+        n,
+        heights_m,
+        ground,
+        walls_listed,
+        listed_wall_area_at,
+    )
+}
+
+/// Resolves every quantity of method §0 for one building. `Err` holds the reasons the
+/// building cannot be screened.
+pub fn resolve(input: &BuildingInput<'_>, settings: &Settings) -> Result<Resolved, Vec<String>> {
+    let r = input.record;
+    let mut defaults: Vec<String> = Vec::new();
+    let mut errors: Vec<String> = Vec::new();
+
+    let n = r.storeys;
+    if n == 0 {
+        errors.push("storeys must be a whole number of at least 1".into());
+    }
+    if !(r.plan_area_m2.is_finite() && r.plan_area_m2 > 0.0) {
+        errors.push(format!(
+            "plan area must be above 0 m², found {}",
+            r.plan_area_m2
+        ));
+    }
+
+    let use_ = r.use_.unwrap_or_else(|| {
+        defaults.push("use".into());
+        Use::Residential
+    });
+
+    // Storey heights: storeys sheet first, else ground / typical heights.
+    let Heights {
+        heights_m,
+        z_m,
+        height_m,
+        typical_h,
+    } = storey_heights(input, settings, &mut defaults);
+
+    let plan_area_m2 = r.plan_area_m2;
+    let floor_area_m2 = f64::from(n) * plan_area_m2;
+    let column_area_m2 = nonneg(Some(r.column_area_m2)).unwrap_or(0.0);
+
+    // Materials.
+    let Materials {
+        fc_mpa,
+        fy_mpa,
+        floor_weight_kpa,
+    } = materials(r, settings, &mut defaults);
+    let weight_kn = floor_weight_kpa * floor_area_m2;
+
+    let hazard = match resolve_hazard(input, settings, &mut defaults) {
+        Ok(h) => Some(h),
+        Err(e) => {
+            errors.push(e);
+            None
+        }
+    };
+
+    let boundary_elements = boundary_present(
+        r.boundary_elements,
+        r.year_built,
+        settings.boundary_elements_from_year,
+    );
+    let columns_detailed = columns_detailed(r.year_built, settings.seismic_detailing_from_year);
+
+    // Walls.
+    let Walls {
+        mut walls,
+        walls_listed,
+        walls_above_ground,
+        rc_wall_area_m2,
+    } = walls(
+        input,
+        settings,
+        fc_mpa,
+        fy_mpa,
+        boundary_elements,
+        &mut defaults,
+    );
     let column_depth_m = match positive(r.column_depth_m) {
         Some(v) => v,
         None => {
@@ -683,27 +820,7 @@ pub fn resolve(input: &BuildingInput<'_>, settings: &Settings) -> Result<Resolve
         rc_wall_m2: rc_wall_area_m2,
         infill_m2: infill_area_m2,
     };
-    let listed_wall_area_at = |i: u32, d: Dir| -> f64 {
-        listed
-            .iter()
-            .filter(|w| w.direction == Some(d))
-            .filter(|w| w.start_storey.unwrap_or(1) <= i && w.end_storey.unwrap_or(n) >= i)
-            .map(|w| {
-                w.length_m.max(0.0)
-                    * positive(w.thickness_m)
-                        .or(wall_tw)
-                        .unwrap_or(settings.default_wall_thickness_m)
-            })
-            .fold(0.0, |a, b| a + b)
-    };
-    let (storeys, storey_source) = storey_data(
-        input,
-        n,
-        &heights_m,
-        ground,
-        walls_listed,
-        listed_wall_area_at,
-    );
+    let (storeys, storey_source) = storey_areas(input, settings, &heights_m, ground, walls_listed);
 
     if !errors.is_empty() {
         return Err(errors);
