@@ -624,6 +624,17 @@ pub fn resolve(input: &BuildingInput<'_>, settings: &Settings) -> Result<Resolve
             });
         }
     }
+    // interface.md `defaults_used`: rc_wall_area_x_m2 / rc_wall_area_y_m2 when neither the
+    // cell nor the walls sheet gives walls in that direction (the area then takes 0 m²).
+    for d in Dir::BOTH {
+        let cell = match d {
+            Dir::X => r.rc_wall_area_x_m2,
+            Dir::Y => r.rc_wall_area_y_m2,
+        };
+        if cell.is_none() && !listed.iter().any(|w| w.direction == Some(d)) {
+            defaults.push(format!("rc_wall_area_{}_m2", d.code()));
+        }
+    }
     if thickness_defaulted {
         defaults.push("wall_thickness_m".into());
     }

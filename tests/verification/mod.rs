@@ -2,6 +2,7 @@
 //! citing its source beside the check and stating its tolerance.
 
 mod asce41;
+mod audit;
 mod bldg;
 mod capacity;
 mod flags;
