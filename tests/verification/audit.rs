@@ -191,3 +191,23 @@ fn wall_along(id: &str, dir: Dir, lw: f64) -> WallRecord {
         ..super::bldg::wall(id, dir, lw, 0.0, 0.0)
     }
 }
+
+/// method.md §6: "T_d < TC and qu > 1: dt* = (det*/qu)·(1 + (qu−1)·TC/T_d), not less than
+/// det*, not more than 3·det*". With no strength (S_ay = 0, possible when a user sets
+/// `tau_column_mpa` = 0 on a frame without infill) qu = Se/S_ay is unbounded and the
+/// formula tends to det*·TC/T_d (the 1/qu terms vanish), then clamped to [det*, 3·det*].
+/// Hand calculation: det* = 0.04 m, T = 0.3 s, TC = 0.6 s → 0.04·0.6/0.3 = 0.08 m (2·det*,
+/// inside the clamp); T = 0.1 s → 0.04·6 = 0.24 m → clamped to 3·det* = 0.12 m.
+/// Cross-check: qu = 1e9 gives the same to 1e-9 through the finite branch.
+#[test]
+fn audit_n2_without_strength_takes_the_limit_of_the_formula() {
+    use seistriage::engine::n2::target_displacement_m;
+    let (dt, _) = target_displacement_m(0.04, None, 0.3, 0.6);
+    close(dt, 0.08, "§6 limit qu → ∞, T = 0.3 s");
+    let (big, _) = target_displacement_m(0.04, Some(1e9), 0.3, 0.6);
+    assert!((big - 0.08).abs() < 1e-9, "finite qu = 1e9 gives {big}");
+    let (dt, _) = target_displacement_m(0.04, None, 0.1, 0.6);
+    close(dt, 0.12, "§6 limit clamped at 3·det*");
+    let (dt, _) = target_displacement_m(0.04, None, 0.8, 0.6);
+    close(dt, 0.04, "§6 T ≥ TC: det*");
+}
