@@ -211,3 +211,39 @@ fn audit_n2_without_strength_takes_the_limit_of_the_formula() {
     let (dt, _) = target_displacement_m(0.04, None, 0.8, 0.6);
     close(dt, 0.04, "§6 T ≥ TC: det*");
 }
+
+/// method.md §8 ASCE 41 model (`capacity_model = "asce41"`), the reference building in X.
+///
+/// Hand calculation: V_i = min(1, Se/C_y)·β_i·τ_w·A_i with Se = 0.8625 g, C_y = 1.145833,
+/// β = 1, τ_w = 2 MPa, A_i = one wall lw·tw = 1.0 m² (capped at the group's 4 m²) →
+/// V = 0.752727·2·1 = 1.505455 MN; v = 12.04·1.505455/(0.25·4·√20) = 4.053024 √psi;
+/// Q = ν·CF = 0.08 ≤ 0.1 (clamped); unconfined rows Q ≤ 0.1: LS 0.008 (v ≤ 4) → 0.006
+/// (v ≥ 6) at t = 0.026512 → θp,LS = 0.007946976; IO 0.002 both; CP 0.015 → 0.010 →
+/// 0.014867441. Capacity = θy + θp with θy = 0.004792610 (EN 1998-3 A.11b as above):
+/// IO 0.006792610, LS 0.012739586, CP 0.019660051. DCR_walls = δ_r/θ: IO 0.7204870,
+/// LS 0.3841559, CP 0.2489305; columns (A.1, κ 1.2): IO 0.6191, LS 0.3070800, CP 0.2303;
+/// frame-alone bound LS 0.4870 and CP 0.3653 are not lower: DCR = the walls' values.
+/// (Against the Eurocode test above: the ASCE 41 wall capacity is higher here, 0.01274
+/// vs 0.00999 at LS, so X no longer reaches the bound.)
+#[test]
+fn audit_asce41_wall_capacity_by_hand() {
+    let s = Settings {
+        capacity_model: seistriage::settings::CapacityModel::Asce41,
+        ..Settings::default()
+    };
+    let r = Case::new(record("C")).screen(&s);
+    let x = &r.directions.x;
+    let w = x.capacity.walls.expect("walls");
+    close(w.io, 0.006_792_610_043_440_101, "ASCE 41 IO");
+    close(w.ls, 0.012_739_586_407_830_52, "ASCE 41 LS");
+    close(w.cp, 0.019_660_050_954_416_15, "ASCE 41 CP");
+    close(x.dcr.io, 0.720_486_969_494_344_9, "DCR_IO");
+    close(x.dcr.ls, 0.384_155_879_828_788_46, "DCR_LS");
+    close(x.dcr.cp, 0.248_930_536_167_084_24, "DCR_CP");
+    assert!(!r.governing.frame_alone);
+    // Y is a bare frame (no RC walls, the same infill): DCR_LS,Y = 1.5·0.006209558/
+    // (0.75·0.02549947) = 0.4870342 > 0.3841559, so Y and its columns govern (§9).
+    assert_eq!(r.governing.direction, Dir::Y);
+    assert_eq!(r.governing.group, Group::Columns);
+    close(r.score, 0.487_034_200_827_394_8, "score from Y");
+}
