@@ -510,7 +510,7 @@ settings_table! {
     calibration_shear_span_max: f64 = 8.0; "[practice]";
         "Upper bound of the calibrated shear-span ratio Lv/h.";
     wall_area_mismatch_pct: f64 = 5.0; "[project]";
-        "Difference (%) between listed walls and rc_wall_area_* above which a warning is given.";
+        "Difference (%) between listed walls and rc_wall_area_*, and between a storeys-sheet row for storey 1 and the buildings row (method §10), above which a warning is given.";
     // ---- capacity model choice and ranking (method §8, §11) ----
     capacity_model: CapacityModel = CapacityModel::Eurocode; "[project]";
         "Wall capacity model: eurocode, asce41 or lower-of-both.";

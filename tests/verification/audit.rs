@@ -247,3 +247,66 @@ fn audit_asce41_wall_capacity_by_hand() {
     assert_eq!(r.governing.group, Group::Columns);
     close(r.score, 0.487_034_200_827_394_8, "score from Y");
 }
+
+/// method.md §10 (storey data, source 1): "storey 1 is always the buildings row (and its
+/// listed walls) with the storeys row's height, and a storey-1 row whose areas differ from
+/// the buildings row by more than 5 % raises a warning". Through the built binary
+/// (`seistriage check`).
+///
+/// Hand check: buildings row Z1: column area 4 m², RC walls X 6 m², Y 5 m², no infill.
+/// Storeys row for storey 1 (sheet row 2): columns 4.1 (|4.1 − 4|/4 = 2.5 % ≤ 5 %: no
+/// warning), walls X 6.5 (8.33 % > 5 %: warning), walls Y 5 (0 %), infill X blank (not
+/// compared), infill Y 0 (0 = 0). The storey-2 row (sheet row 3) differs from the ground
+/// storey by design and is never compared. Building Z2 has no storeys rows: no warning.
+#[test]
+fn audit_storey_one_row_differing_from_the_buildings_row_warns() {
+    use crate::input_cases::{B, N, S, good, head, workbook};
+    let dir = tempfile::tempdir().unwrap();
+    let storeys = vec![
+        [
+            "building_id",
+            "storey",
+            "height_m",
+            "column_area_m2",
+            "rc_wall_area_x_m2",
+            "rc_wall_area_y_m2",
+            "infill_area_x_m2",
+            "infill_area_y_m2",
+        ]
+        .iter()
+        .map(|h| S(h))
+        .collect(),
+        vec![S("Z1"), N(1.0), N(3.5), N(4.1), N(6.5), N(5.0), B, N(0.0)],
+        vec![S("Z1"), N(2.0), N(3.0), N(2.0), N(1.0), N(1.0), N(9.0), N(9.0)],
+    ];
+    let path = workbook(
+        dir.path(),
+        "s1.xlsx",
+        &[
+            ("buildings", vec![head(), good("Z1"), good("Z2")]),
+            ("storeys", storeys),
+        ],
+    );
+    let settings = dir.path().join("s1.toml");
+    std::fs::write(&settings, "agr_g = 0.2\n").unwrap();
+    let out = std::process::Command::new(env!("CARGO_BIN_EXE_seistriage"))
+        .arg("check")
+        .arg(&path)
+        .arg("--settings")
+        .arg(&settings)
+        .output()
+        .unwrap();
+    let stdout = String::from_utf8_lossy(&out.stdout);
+    assert_eq!(out.status.code(), Some(0), "{stdout}");
+    let storey_warnings: Vec<&str> = stdout
+        .lines()
+        .filter(|l| l.contains("storeys, row"))
+        .collect();
+    assert_eq!(storey_warnings.len(), 1, "{stdout}");
+    let w = storey_warnings[0];
+    assert!(
+        w.starts_with("warning: storeys, row 2, rc_wall_area_x_m2:"),
+        "{w}"
+    );
+    assert!(w.contains("within 5 %") && w.contains("(6 m²)") && w.contains("found 6.5 m²"), "{w}");
+}
