@@ -387,8 +387,16 @@ fn storey_one_check(
     };
     let pairs = [
         ("column_area_m2", st.column_area_m2, Some(b.column_area_m2)),
-        ("rc_wall_area_x_m2", st.rc_wall_area_x_m2, wall(0, b.rc_wall_area_x_m2)),
-        ("rc_wall_area_y_m2", st.rc_wall_area_y_m2, wall(1, b.rc_wall_area_y_m2)),
+        (
+            "rc_wall_area_x_m2",
+            st.rc_wall_area_x_m2,
+            wall(0, b.rc_wall_area_x_m2),
+        ),
+        (
+            "rc_wall_area_y_m2",
+            st.rc_wall_area_y_m2,
+            wall(1, b.rc_wall_area_y_m2),
+        ),
         (
             "infill_area_x_m2",
             st.infill_area_x_m2,

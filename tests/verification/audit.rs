@@ -70,14 +70,32 @@ fn audit_reference_building_x_by_hand_sections_0_to_9() {
     let c = x.capacity.columns.expect("columns");
     close(c.cp, 0.025_499_473_808_724_43, "column θum §8");
     close(c.io, 0.009_486_155_456_121_055, "column IO = θy §8");
-    let f = x.frame_alone.expect("bound applies: columns and RC walls in X");
+    let f = x
+        .frame_alone
+        .expect("bound applies: columns and RC walls in X");
     close(f.period_s, 0.483_556_469_320_593_8, "frame period §9");
-    close(f.roof_drift_demand, 0.006_209_557_923_975_594, "δ_r,frame §9");
+    close(
+        f.roof_drift_demand,
+        0.006_209_557_923_975_594,
+        "δ_r,frame §9",
+    );
     close(f.dcr.ls, 0.487_034_200_827_394_8, "DCR_frame,LS §9");
     close(f.dcr.cp, 0.365_275_650_620_546_1, "DCR_frame,CP §9");
-    close(x.dcr.io, 1.021_152_770_785_861_9, "DCR_IO §9 (no bound at IO)");
-    close(x.dcr.ls, 0.487_034_200_827_394_8, "DCR_LS = min(walls, frame) §9");
-    close(x.dcr.cp, 0.365_275_650_620_546_1, "DCR_CP = min(walls, frame) §9");
+    close(
+        x.dcr.io,
+        1.021_152_770_785_861_9,
+        "DCR_IO §9 (no bound at IO)",
+    );
+    close(
+        x.dcr.ls,
+        0.487_034_200_827_394_8,
+        "DCR_LS = min(walls, frame) §9",
+    );
+    close(
+        x.dcr.cp,
+        0.365_275_650_620_546_1,
+        "DCR_CP = min(walls, frame) §9",
+    );
     assert_eq!(r.class, 3, "§11: DCR_IO ≥ 1 > DCR_LS");
     close(r.score, 0.487_034_200_827_394_8, "score at LS");
     assert_eq!(r.governing.direction, Dir::X);
@@ -118,9 +136,21 @@ fn audit_frame_alone_with_input_period_and_soft_storey_by_hand() {
     close(x.roof_drift_demand, 0.005_953_411_110_734_55, "δ_r §6");
     close(x.dcr.ls, 0.778_239_733_545_356_6, "DCR_LS §9");
     let f = x.frame_alone.expect("bound");
-    close(f.period_s, 0.533_333_333_333_333_3, "input × T_frame/T_formula §9");
-    close(f.roof_drift_demand, 0.007_178_605_861_059_628, "δ_r,frame §9");
-    close(f.dcr.ls, 0.938_399_214_941_647, "DCR_frame,LS with κ_soft §9");
+    close(
+        f.period_s,
+        0.533_333_333_333_333_3,
+        "input × T_frame/T_formula §9",
+    );
+    close(
+        f.roof_drift_demand,
+        0.007_178_605_861_059_628,
+        "δ_r,frame §9",
+    );
+    close(
+        f.dcr.ls,
+        0.938_399_214_941_647,
+        "DCR_frame,LS with κ_soft §9",
+    );
     assert!(!r.governing.frame_alone);
     assert_eq!(r.governing.group, Group::Columns);
 }
@@ -165,10 +195,7 @@ fn audit_defaults_used_lists_blank_wall_areas() {
     let mut rec2 = rec;
     rec2.rc_wall_area_x_m2 = None;
     let mut case = Case::new(rec2);
-    case.walls = vec![
-        wall_along("W1", Dir::X, 4.0),
-        wall_along("W2", Dir::Y, 4.0),
-    ];
+    case.walls = vec![wall_along("W1", Dir::X, 4.0), wall_along("W2", Dir::Y, 4.0)];
     let listed = case.screen(&s);
     assert!(
         !listed
@@ -181,8 +208,18 @@ fn audit_defaults_used_lists_blank_wall_areas() {
     // Walls listed along X only: Y takes 0 m² by default.
     case.walls.truncate(1);
     let only_x = case.screen(&s);
-    assert!(only_x.defaults_used.iter().any(|d| d == "rc_wall_area_y_m2"));
-    assert!(!only_x.defaults_used.iter().any(|d| d == "rc_wall_area_x_m2"));
+    assert!(
+        only_x
+            .defaults_used
+            .iter()
+            .any(|d| d == "rc_wall_area_y_m2")
+    );
+    assert!(
+        !only_x
+            .defaults_used
+            .iter()
+            .any(|d| d == "rc_wall_area_x_m2")
+    );
 }
 
 fn wall_along(id: &str, dir: Dir, lw: f64) -> WallRecord {
@@ -277,7 +314,16 @@ fn audit_storey_one_row_differing_from_the_buildings_row_warns() {
         .map(|h| S(h))
         .collect(),
         vec![S("Z1"), N(1.0), N(3.5), N(4.1), N(6.5), N(5.0), B, N(0.0)],
-        vec![S("Z1"), N(2.0), N(3.0), N(2.0), N(1.0), N(1.0), N(9.0), N(9.0)],
+        vec![
+            S("Z1"),
+            N(2.0),
+            N(3.0),
+            N(2.0),
+            N(1.0),
+            N(1.0),
+            N(9.0),
+            N(9.0),
+        ],
     ];
     let path = workbook(
         dir.path(),
@@ -308,5 +354,8 @@ fn audit_storey_one_row_differing_from_the_buildings_row_warns() {
         w.starts_with("warning: storeys, row 2, rc_wall_area_x_m2:"),
         "{w}"
     );
-    assert!(w.contains("within 5 %") && w.contains("(6 m²)") && w.contains("found 6.5 m²"), "{w}");
+    assert!(
+        w.contains("within 5 %") && w.contains("(6 m²)") && w.contains("found 6.5 m²"),
+        "{w}"
+    );
 }
