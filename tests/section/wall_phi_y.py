@@ -5,7 +5,10 @@ integration test `verification::section` to cross-check the wall yield curvature
 approximation phi_y = 2.0*eps_y/lw of Priestley, Calvi & Kowalsky (2007).
 
 Input (stdin): a JSON list of cases {"lw_m", "tw_m", "fc_mpa", "fy_mpa", "nu",
-"rho_boundary", "rho_web"}. Output (stdout): a JSON list, one object per case, with the
+"rho_boundary", "rho_web"}; a case with "analysis": "neutral_axis" gets instead the
+neutral-axis depth c at the nominal moment (ACI 318-19 stress block) of a wall with its steel
+rho_web distributed uniformly, for the c estimate of the boundary-element check (method
+section 10). Output (stdout): a JSON list, one object per case, with the
 first-yield point (phi_y_first, m_y_first), the nominal moment m_n, the bilinear yield
 curvature phi_y = phi_y_first * m_n / m_y_first (1/m, kNm) and what limited each analysis.
 
@@ -188,11 +191,47 @@ def analyse(case):
     }
 
 
+def beta1(fc):
+    """ACI 318-19 Table 22.2.2.4.3."""
+    return min(0.85, max(0.65, 0.85 - 0.05 * (fc - 28.0) / 7.0))
+
+
+def neutral_axis(case):
+    """Neutral-axis depth c (m) at the nominal moment of a wall with its vertical steel
+    rho_web distributed uniformly over its length (no boundary steel), by the library's
+    ultimate analysis with the ACI 318-19 section 22.2 assumptions: rectangular stress block
+    0.85 fc over beta1*c (Table 22.2.2.4.3), extreme-fibre strain 0.003, elastic-perfectly
+    plastic steel. Bar lines at about 250 mm, the first at 50 mm from each end."""
+    lw = case["lw_m"] * 1000.0
+    tw = case["tw_m"] * 1000.0
+    fc = case["fc_mpa"]
+    concrete, steel = materials(fc, case["fy_mpa"], 0.004, 0.015)
+    concrete.ultimate_stress_strain_profile = RectangularStressBlock(
+        compressive_strength=fc, alpha=0.85, gamma=beta1(fc), ultimate_strain=0.003
+    )
+    geom = rectangular_section(d=lw, b=tw, material=concrete)
+    n_lines = max(2, round((lw - 100.0) / WEB_SPACING_MM) + 1)
+    step = (lw - 100.0) / (n_lines - 1)
+    area = case["rho_web"] * lw * tw / n_lines
+    for i in range(n_lines):
+        geom = add_bar(geom, area=area, material=steel, x=tw / 2.0, y=50.0 + i * step, n=4)
+    sec = ConcreteSection(geom)
+    n = case["nu"] * fc * case["lw_m"] * case["tw_m"] * 1.0e6
+    res = sec.ultimate_bending_capacity(theta=0.0, n=n)
+    return {**case, "c_m": res.d_n / 1000.0, "beta1": beta1(fc)}
+
+
+def analyse_case(case):
+    if case.get("analysis") == "neutral_axis":
+        return neutral_axis(case)
+    return analyse(case)
+
+
 def main():
     cases = json.load(sys.stdin)
     # two worker processes: the cases are independent and each takes some seconds
     with multiprocessing.Pool(processes=min(2, max(1, len(cases)))) as pool:
-        results = pool.map(analyse, cases)
+        results = pool.map(analyse_case, cases)
     json.dump(results, sys.stdout, indent=1)
     sys.stdout.write("\n")
 
