@@ -53,7 +53,11 @@ fn en1998_1_table_4_3_importance_factors_and_the_hospital_in_screening() {
         let r = Case::new(rec).screen(&s);
         assert_abs_diff_eq!(r.detail.gamma_i, gi, epsilon = TOL);
         assert_abs_diff_eq!(r.detail.ag_g, gi * 0.3, epsilon = TOL);
-        assert_abs_diff_eq!(r.directions.y.detail.se_g, gi * 0.3 * 1.15 * 2.5, epsilon = TOL);
+        assert_abs_diff_eq!(
+            r.directions.y.detail.se_g,
+            gi * 0.3 * 1.15 * 2.5,
+            epsilon = TOL
+        );
     }
     let mut rec = record("G2");
     rec.use_ = Some(Use::Hospital);
