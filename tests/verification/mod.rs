@@ -29,6 +29,7 @@
 mod asce41;
 mod bldg;
 mod capacity;
+mod corrected;
 mod flags;
 mod geodesy;
 mod indices;
