@@ -74,6 +74,28 @@ impl InputArgs {
             faults: self.faults.clone(),
             level: self.level.map(Into::into),
             budget,
+            ..Default::default()
+        }
+    }
+}
+
+/// Sampling options of method §13 (screen and explain).
+#[derive(Args, Debug, Clone, Copy)]
+struct SampleArgs {
+    /// Number of samples of the uncertainty stage (method §13; 0 = none, the default).
+    #[arg(long, value_name = "N")]
+    samples: Option<u32>,
+    /// Seed of the portable draws (unsigned 64-bit integer; default 1).
+    #[arg(long, value_name = "S")]
+    seed: Option<u64>,
+}
+
+impl SampleArgs {
+    fn apply(self, o: seistriage::pipeline::RunOptions) -> seistriage::pipeline::RunOptions {
+        seistriage::pipeline::RunOptions {
+            samples: self.samples,
+            seed: self.seed,
+            ..o
         }
     }
 }
@@ -97,6 +119,8 @@ enum Command {
         id: String,
         #[command(flatten)]
         input: InputArgs,
+        #[command(flatten)]
+        sampling: SampleArgs,
     },
     /// Write the blank inventory workbook.
     Template {
@@ -154,6 +178,8 @@ struct ScreenArgs {
     /// Retrofit budget (currency-neutral).
     #[arg(long, value_name = "AMOUNT")]
     budget: Option<f64>,
+    #[command(flatten)]
+    sampling: SampleArgs,
     /// Worker threads (default: all cores).
     #[arg(long, value_name = "N", value_parser = clap::value_parser!(u32).range(1..))]
     threads: Option<u32>,
@@ -178,7 +204,7 @@ fn main() -> ExitCode {
     let result = match cli.command {
         Command::Screen(a) => cmd::screen::run(&cmd::screen::Options {
             inventory: a.inventory.clone(),
-            run: a.input.run_options(a.budget),
+            run: a.sampling.apply(a.input.run_options(a.budget)),
             out: a.out,
             json: a.json,
             csv: a.csv,
@@ -193,7 +219,8 @@ fn main() -> ExitCode {
             inventory,
             id,
             input,
-        } => cmd::explain::run(&inventory, &id, &input.run_options(None)),
+            sampling,
+        } => cmd::explain::run(&inventory, &id, &sampling.apply(input.run_options(None))),
         Command::Template { out } => cmd::template::run(&out),
         Command::Demo { out, quiet } => cmd::demo::run(&out, quiet),
         Command::Generate {
