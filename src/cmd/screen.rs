@@ -180,6 +180,18 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
 /// `screen` on the streaming path (a CSV stock above the threshold; see
 /// `seistriage::stream`): bounded memory, per-row tables as CSV files beside the workbook.
 fn run_streamed(o: &Options, out: &Path) -> anyhow::Result<ExitCode> {
+    // Method §13 on a streamed stock needs per-sample ranks over the whole stock, about
+    // 13·B·N bytes in memory (README, Performance): not offered on this path.
+    let settings = pipeline::settle_settings(&[], &mut Vec::new(), &o.run)?;
+    if settings.samples > 0 {
+        bail!(
+            "{}: --samples (method §13) is not available for a stock this large (more than {} CSV lines, screened in chunks): \
+             the per-sample ranks of the whole stock would not fit in bounded memory; \
+             run without --samples (or samples = 0), or screen the stock in parts",
+            o.inventory.display(),
+            seistriage::stream::threshold()
+        );
+    }
     for p in [
         Some(out),
         o.json.as_deref(),
