@@ -503,6 +503,37 @@ fn the_binary_writes_consistent_uncertainty_fields() {
     let csv = std::fs::read_to_string(dir.path().join("r.csv")).unwrap();
     let header = csv.lines().next().unwrap();
     assert!(header.ends_with("p_deficit,rank_p05,rank_p95"), "{header}");
+    // The CSV's rank interval is the JSON's.
+    let first: Vec<&str> = csv.lines().nth(1).unwrap().split(',').collect();
+    let b0 = &json["buildings"][0]["uncertainty"];
+    assert_eq!(first[first.len() - 2], b0["rank"]["p05"].to_string());
+    assert_eq!(first[first.len() - 1], b0["rank"]["p95"].to_string());
+    // The workbook: Confidence right after Priority, one row per building in rank order.
+    use calamine::Reader;
+    let mut wb: calamine::Xlsx<_> = calamine::open_workbook(dir.path().join("r.xlsx")).unwrap();
+    let names = wb.sheet_names();
+    let at = names.iter().position(|n| n == "Priority").unwrap();
+    assert_eq!(names[at + 1], "Confidence");
+    let conf = wb.worksheet_range("Confidence").unwrap();
+    for (k, b) in json["buildings"].as_array().unwrap().iter().enumerate() {
+        let row = k as u32 + 1;
+        assert_eq!(
+            conf.get_value((row, 1)).unwrap().to_string(),
+            b["id"].as_str().unwrap()
+        );
+        assert_eq!(
+            conf.get_value((row, 10)),
+            Some(&calamine::Data::Float(
+                b["uncertainty"]["p_deficit"].as_f64().unwrap()
+            ))
+        );
+    }
+    // The rank-interval chart is in the package.
+    let charts = crate::outputs::workbook::package(&dir.path().join("r.xlsx"))
+        .iter()
+        .filter(|(name, _)| name.starts_with("xl/charts/chart"))
+        .count();
+    assert!(charts >= 4, "{charts}");
     // Without --samples: null fields, no CSV columns.
     let a = args(&[]);
     let a: Vec<&str> = a.iter().map(String::as_str).collect();
