@@ -2,10 +2,10 @@
 
 use criterion::{Criterion, Throughput, criterion_group, criterion_main};
 use rayon::prelude::*;
-use seistriage::uncertainty::{self, Evaluator};
 use seistriage::engine::{BuildingInput, screen_all};
 use seistriage::model::{BuildingRecord, GroundType, Use, YesNo};
 use seistriage::settings::Settings;
+use seistriage::uncertainty::{self, Evaluator};
 
 /// 10,000 invented buildings with a deterministic spread of sizes, materials and hazard.
 fn stock(n: usize) -> Vec<BuildingRecord> {

@@ -427,7 +427,7 @@ settings_table! {
     fc_reference_mpa: f64 = 20.0; "[src] JBDPA 2001 (beta = fc/20, sqrt branch mem)";
         "Reference concrete strength of the strength factor beta (MPa).";
     alpha1_with_walls: f64 = 0.7; "[src] JBDPA 2001 (mem)";
-        "Column strength participation alpha1 when RC walls exist in the direction.";
+        "Column participation alpha1 in the wall-governed strength: C_y = C_m + max(C_rc + alpha1 C_c, C_c).";
     // ---- period (method §4) ----
     ct_period: f64 = 0.075; "[src] EN 1998-1 eqs. (4.6)/(4.7)";
         "Period coefficient Ct (s/m^0.75).";
@@ -447,8 +447,8 @@ settings_table! {
     // ---- capacity (method §8) ----
     gamma_el: f64 = 1.5; "[src] EN 1998-3 §A.3.2.2(1)";
         "gamma_el for primary seismic elements in eq. (A.1).";
-    wall_capacity_factor: f64 = 0.58; "[src] EN 1998-3 §A.3.2.2(1), note on walls";
-        "Factor on theta_um for walls.";
+    wall_rotation_divisor: f64 = 1.6; "[src] EN 1998-3:2005 §A.3.2.2(2) (wording and paragraph from memory)";
+        "Divisor on theta_um of eq. (A.1) for walls (the 0.58 of later papers is not the standard's).";
     no_detailing_divisor: f64 = 1.2; "[mem] EN 1998-3 §A.3.2.2(2)";
         "Divisor on theta_um for members without seismic detailing.";
     confined_alpha: f64 = 0.5; "[screening]";
@@ -534,6 +534,8 @@ settings_table! {
         "Cost of finishes and foundations per m2 of floor area (currency-neutral).";
     replacement_cost_m2: Option<f64> = None; "[project] no default: prices are local";
         "Replacement cost per m2 of floor area (currency-neutral).";
+    unit_cost_short_column_m2: Option<f64> = None; "[project] no default: prices are local";
+        "Captive-column remedy per m2 of ground-storey plan A_plan (currency-neutral); empty = such buildings are not costed.";
     replace_ratio: f64 = 0.40; "[practice, mem]";
         "Recommend replacement when retrofit cost exceeds this fraction of replacement cost.";
     budget: Option<f64> = None; "[project]";
@@ -629,6 +631,7 @@ impl Settings {
             ("default_fc_mpa", self.default_fc_mpa),
             ("default_fy_mpa", self.default_fy_mpa),
             ("gamma_el", self.gamma_el),
+            ("wall_rotation_divisor", self.wall_rotation_divisor),
             ("confidence_factor", self.confidence_factor),
             ("period_factor", self.period_factor),
             ("new_wall_length_m", self.new_wall_length_m),

@@ -72,6 +72,15 @@ fn assert_same(det: &BuildingResult, smp: &Sample) {
             a.detail.strength_coefficient.to_bits(),
             b.strength_coefficient.to_bits()
         );
+        // The frame-alone bound of §9, where it applies.
+        assert_eq!(
+            a.frame_alone
+                .map(|f| (f.dcr.ls.to_bits(), f.dcr.cp.to_bits())),
+            b.frame_alone_dcr
+                .map(|(ls, cp)| (ls.to_bits(), cp.to_bits())),
+            "{} {d:?}",
+            det.id
+        );
     }
 }
 
@@ -88,6 +97,7 @@ fn every_factor_one_reproduces_the_engine_bit_for_bit() {
         "spectrum = \"two-parameter\"\nsds_g = 0.8\nsd1_g = 0.35\ntl_s = 4.0\nranking_level = \"io\"",
     ];
     let mut checked = 0;
+    let mut bounded = 0;
     for v in variants {
         let loaded = demo(v);
         let inputs = engine::building_inputs(&loaded.inventory, &loaded.sites);
@@ -98,9 +108,17 @@ fn every_factor_one_reproduces_the_engine_bit_for_bit() {
             let ev = Evaluator::new(i, &loaded.settings).unwrap();
             assert_same(&det, &ev.evaluate(&Factors::NEUTRAL, &loaded.settings));
             checked += 1;
+            bounded += Dir::BOTH
+                .iter()
+                .filter(|d| det.directions.get(**d).frame_alone.is_some())
+                .count();
         }
     }
     assert!(checked >= 5 * 55, "{checked}");
+    assert!(
+        bounded > 50,
+        "the frame-alone bound is exercised: {bounded}"
+    );
 }
 
 /// A 5-storey invented building with every input given, walls in X only, columns, infill
@@ -194,6 +212,14 @@ fn demand_factor_scales_d_t_and_every_drift_demand_only() {
         assert_eq!(a.strength_coefficient, b.strength_coefficient);
     }
     assert!(close(smp.score, base.score * d));
+    // The frame-alone bound (X has walls and columns): its d_t is scaled too.
+    let (a, b) = (&base.directions.x, &smp.directions.x);
+    assert_eq!(
+        b.frame_alone_roof_displacement_m.unwrap(),
+        a.frame_alone_roof_displacement_m.unwrap() * d
+    );
+    let (fa, fb) = (a.frame_alone_dcr.unwrap(), b.frame_alone_dcr.unwrap());
+    assert!(close(fb.0, fa.0 * d) && close(fb.1, fa.1 * d));
 }
 
 #[test]
@@ -219,6 +245,10 @@ fn capacity_factors_scale_the_three_levels_of_their_own_group() {
     assert_eq!(cx.capacity_walls, bx.capacity_walls);
     assert_eq!(wx.roof_drift, bx.roof_drift);
     assert_eq!(cx.drift_columns, bx.drift_columns);
+    // The frame-alone bound sees the column levels with Cc.
+    let (fa, fc) = (bx.frame_alone_dcr.unwrap(), cx.frame_alone_dcr.unwrap());
+    assert!(close(fc.0, fa.0 / 1.25) && close(fc.1, fa.1 / 1.25));
+    assert_eq!(wx.frame_alone_dcr, bx.frame_alone_dcr);
     // Y has no walls: Cw changes nothing there.
     assert_eq!(w.directions.y, base.directions.y);
 }

@@ -15,7 +15,7 @@ and the sampler cannot drift apart unnoticed.
 */
 
 use crate::engine::building::{self, DemandSpectrum, Prepared};
-use crate::engine::resolve::{Hazard, StoreyAreas, StoreySource, WallSpec};
+use crate::engine::resolve::{Hazard, StoreyAreas, WallSpec};
 use crate::engine::{BuildingInput, asce41, capacity, dcr, demand, flags, n2, rank, strength};
 use crate::engine::{indices, resolve};
 use crate::model::{Dir, PerDir, YesNo};
@@ -73,8 +73,12 @@ pub struct SampleDirection {
     pub capacity_walls: Option<Levels>,
     /// Column capacity, Cc included.
     pub capacity_columns: Option<Levels>,
-    /// DCR per level.
+    /// DCR per level (the frame-alone bound applied at LS and CP).
     pub dcr: Levels,
+    /// The frame-alone bound's DCR at LS and CP (D and Cc included), where it applies.
+    pub frame_alone_dcr: Option<(f64, f64)>,
+    /// The frame-alone bound's roof displacement d_t (m, D included), where it applies.
+    pub frame_alone_roof_displacement_m: Option<f64>,
 }
 
 /// One sample of one building.
@@ -94,6 +98,8 @@ pub struct Sample {
 #[derive(Debug, Clone)]
 struct DirectionBase {
     period_s: f64,
+    /// Period of the frame alone (§9), when the building has columns.
+    frame_period_s: Option<f64>,
     rc_wall_m2: f64,
     infill_m2: f64,
     rc_wall_index_pct: f64,
@@ -134,21 +140,23 @@ impl Evaluator {
     pub fn from_prepared(p: &Prepared<'_>, s: &Settings) -> Self {
         let res = &p.res;
         let dir = |d: Dir| {
-            let (r, _, state) = building::direction(p, s, d, 0.0);
+            let (r, _, _) = building::direction(p, s, d, 0.0);
             DirectionBase {
                 period_s: r.period_s,
+                frame_period_s: p.frame_alone.get(d).map(|f| f.period_s),
                 rc_wall_m2: *res.rc_wall_area_m2.get(d),
                 infill_m2: *res.infill_area_m2.get(d),
                 rc_wall_index_pct: indices::rc_wall_index_pct(
                     *res.rc_wall_area_m2.get(d),
                     res.floor_area_m2,
                 ),
-                soft: state.soft != flags::Soft::None,
+                // The stiffness proxies hold no fc, w or agR: the soft-storey outcome of
+                // the building as surveyed holds in every sample.
+                soft: p.surveyed.get(d).soft != flags::Soft::None,
                 walls: res.walls_in(d).cloned().collect(),
             }
         };
-        let storeys = (res.storey_source != StoreySource::None && res.storeys.len() >= 2)
-            .then(|| [res.storeys[0], res.storeys[1]]);
+        let storeys = (res.storeys.len() >= 2).then(|| [res.storeys[0], res.storeys[1]]);
         Evaluator {
             fc_mpa: res.fc_mpa,
             fy_mpa: res.fy_mpa,
@@ -183,6 +191,18 @@ impl Evaluator {
         spec
     }
 
+    /// §5–§6 for one strength coefficient and period with the sample's spectrum: (Se, d_t
+    /// with D applied after the clamp, δ_r) — the engine's `demand_chain` with H and D.
+    fn demand(&self, spec: &DemandSpectrum, tc: f64, cy: f64, t: f64, d: f64) -> (f64, f64, f64) {
+        let se = spec.se_g(t);
+        let sde = crate::engine::spectrum::sde_m(se, t);
+        let say = n2::yield_acceleration_g(cy, self.n, self.gamma, &self.phi);
+        let qu = n2::strength_ratio(se, say);
+        let (dt_star, _) = n2::target_displacement_m(sde, qu, t, tc);
+        let dt = n2::roof_displacement_m(self.gamma, dt_star) * d;
+        (se, dt, n2::roof_drift(dt, self.height_m))
+    }
+
     /// One sample with the given factors (method §13, "where each factor acts").
     pub fn evaluate(&self, f: &Factors, s: &Settings) -> Sample {
         // F on the mean fc before CF divides it; W on w (so W, masses and ν).
@@ -194,7 +214,7 @@ impl Evaluator {
         let cc = strength::column_strength(beta, s.tau_column_mpa, self.column_area_m2, weight);
         let column = (self.column_area_m2 > 0.0).then(|| {
             let c = capacity::column_capacity(
-                nu,
+                capacity::capacity_axial_ratio(nu, true, s),
                 fc / s.confidence_factor,
                 self.fy_mpa / s.confidence_factor,
                 self.column_depth_m,
@@ -210,32 +230,29 @@ impl Evaluator {
         for (k, d) in Dir::BOTH.into_iter().enumerate() {
             let b = &self.directions[k];
             // §3
-            let cw = strength::wall_strength(
-                beta,
-                s.tau_wall_mpa,
-                b.rc_wall_m2,
-                strength::tau_infill_mpa(s),
-                b.infill_m2,
-                weight,
-            );
-            let a1 = strength::alpha1(b.rc_wall_m2 > 0.0, s);
-            let cy = strength::strength_coefficient(cw, a1, cc);
+            let tau_m = strength::tau_infill_mpa(s);
+            let cm = strength::infill_strength(beta, tau_m, b.infill_m2, weight);
+            let crc = strength::rc_wall_strength(beta, s.tau_wall_mpa, b.rc_wall_m2, weight);
+            let cy = strength::strength_coefficient(cm, crc, s.alpha1_with_walls, cc).cy;
             // §5–§6, D after the clamp.
-            let t = b.period_s;
-            let se = spec.se_g(t);
-            let sde = crate::engine::spectrum::sde_m(se, t);
-            let say = n2::yield_acceleration_g(cy, self.n, self.gamma, &self.phi);
-            let qu = n2::strength_ratio(se, say);
-            let (dt_star, _) = n2::target_displacement_m(sde, qu, t, tc);
-            let dt = n2::roof_displacement_m(self.gamma, dt_star) * f.d;
-            let drift = n2::roof_drift(dt, self.height_m);
+            let (se, dt, drift) = self.demand(&spec, tc, cy, b.period_s, f.d);
             // §7: κ from the soft-storey outcome and the sample's weak-storey proxy.
             let weak = self.storeys.is_some_and(|st| {
-                let s1 = building::storey_strength(&st[0], d, beta, beta_new, 0.0, s);
-                let s2 = building::storey_strength(&st[1], d, beta, beta_new, 0.0, s);
-                flags::weak_storey(s1, s2, s).0
+                let proxy = |a: &StoreyAreas| {
+                    strength::storey_strength(
+                        beta,
+                        beta_new,
+                        *a.rc_wall_m2.get(d),
+                        0.0,
+                        *a.infill_m2.get(d),
+                        a.column_m2,
+                        s,
+                    )
+                };
+                flags::weak_storey(proxy(&st[0]), proxy(&st[1]), s).0
             });
-            let kappa = demand::kappa(b.rc_wall_index_pct, b.soft || weak, s);
+            let soft_or_weak = b.soft || weak;
+            let kappa = demand::kappa(b.rc_wall_index_pct, soft_or_weak, s);
             let has_walls = b.rc_wall_m2 > 0.0;
             let delta_w = has_walls.then(|| demand::wall_drift(drift));
             let delta_c = column.is_some().then(|| demand::column_drift(kappa, drift));
@@ -262,6 +279,23 @@ impl Evaluator {
                 (Some(dc), Some(c)) => Some(dcr::group_dcr(dc, &c)),
                 _ => None,
             };
+            let mut dcr_levels = dcr::direction_dcr(wall_dcr, col_dcr);
+            // §9 frame-alone bound at LS and CP, where columns and RC walls act in d: the
+            // RC walls of d removed (C_y = C_m + C_c), the frame period, κ_frame or κ_soft
+            // of the sample's building (no retrofit in samples), D on its d_t, Cc on the
+            // column levels.
+            let mut frame = None;
+            let mut frame_dt = None;
+            if let (true, Some(col), Some(tf)) = (has_walls, column, b.frame_period_s) {
+                let cy_f = strength::strength_coefficient(cm, 0.0, s.alpha1_with_walls, cc).cy;
+                let (_, dt_f, drift_f) = self.demand(&spec, tc, cy_f, tf, f.d);
+                let dc = demand::column_drift(building::frame_kappa(soft_or_weak, s), drift_f);
+                let (ls, cp) = (dcr::ratio(dc, col.ls), dcr::ratio(dc, col.cp));
+                dcr_levels.ls = dcr_levels.ls.min(ls);
+                dcr_levels.cp = dcr_levels.cp.min(cp);
+                frame = Some((ls, cp));
+                frame_dt = Some(dt_f);
+            }
             *out.get_mut(d) = SampleDirection {
                 strength_coefficient: cy,
                 se_g: se,
@@ -272,7 +306,9 @@ impl Evaluator {
                 drift_columns: delta_c,
                 capacity_walls: wall_cap.filter(|_| has_walls),
                 capacity_columns: column,
-                dcr: dcr::direction_dcr(wall_dcr, col_dcr),
+                dcr: dcr_levels,
+                frame_alone_dcr: frame,
+                frame_alone_roof_displacement_m: frame_dt,
             };
         }
         // §11
@@ -313,8 +349,10 @@ fn wall_levels(w: &WallSpec, f: f64, nu: f64, lv: f64, se_g: f64, cy: f64, s: &S
     } else {
         (fc_mean, w.fy_mpa)
     };
+    // ν × CF inside the capacity formulas for existing members (method §8).
+    let nu_cap = capacity::capacity_axial_ratio(nu, w.existing, s);
     let ec = capacity::wall_capacity(
-        nu,
+        nu_cap,
         fc,
         fy,
         w.lw,
@@ -334,7 +372,7 @@ fn wall_levels(w: &WallSpec, f: f64, nu: f64, lv: f64, se_g: f64, cy: f64, s: &S
             area_i,
         );
         let v = asce41::shear_stress_psi(v_mn, w.tw, w.lw, fc);
-        asce41::wall_levels(ec.theta_y, nu, v, w.boundary)
+        asce41::wall_levels(ec.theta_y, nu_cap, v, w.boundary)
     };
     match s.capacity_model {
         CapacityModel::Eurocode => ec.levels,
