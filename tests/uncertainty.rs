@@ -278,8 +278,10 @@ fn concrete_factor_acts_on_the_mean_fc_before_the_confidence_factor() {
     // engine on the record with fc·F, with CF 1.35 in force (F after CF would differ).
     // Tolerance 1e-12 relative: the same operations, compared through one division.
     let r = record();
-    let mut s = Settings::default();
-    s.confidence_factor = 1.35;
+    let s = Settings {
+        confidence_factor: 1.35,
+        ..Default::default()
+    };
     for f in [0.7, 1.3] {
         let ev = Evaluator::new(&input(&r), &s).unwrap();
         let smp = ev.evaluate(&only(|x| x.f = f), &s);
@@ -321,9 +323,11 @@ fn hazard_factor_acts_on_agr_or_on_sds_and_sd1() {
         r2.agr_g = Some(0.25 * h);
         assert_sample_is_engine_on(&r2, &smp, &s);
     }
-    let mut s2 = Settings::default();
-    s2.spectrum = Spectrum::TwoParameter;
-    s2.tl_s = Some(4.0);
+    let s2 = Settings {
+        spectrum: Spectrum::TwoParameter,
+        tl_s: Some(4.0),
+        ..Default::default()
+    };
     let mut r = record();
     r.sds_g = Some(0.7);
     r.sd1_g = Some(0.3);
@@ -342,8 +346,10 @@ fn asce41_walls_see_the_factors_through_shear_and_axial_load() {
     // Under ASCE 41 the wall levels depend on ν (Q) and the shear stress v (Se, C_y, fc):
     // F, W and H reach them as in the engine on the modified record.
     let r = record();
-    let mut s = Settings::default();
-    s.capacity_model = CapacityModel::LowerOfBoth;
+    let s = Settings {
+        capacity_model: CapacityModel::LowerOfBoth,
+        ..Default::default()
+    };
     let ev = Evaluator::new(&input(&r), &s).unwrap();
     let smp = ev.evaluate(&only(|x| x.f = 0.75), &s);
     let mut r2 = r.clone();
@@ -436,16 +442,18 @@ proptest! {
         r.agr_g = Some(agr);
         r.fc_mpa = Some(fc);
         let ratio = |beta: f64| {
-            let mut s = Settings::default();
-            s.samples = 60;
-            s.seed = seed;
-            s.beta_demand = beta;
-            s.beta_capacity = 0.0;
-            s.beta_fc_given = 0.0;
-            s.beta_fc_default = 0.0;
-            s.beta_weight_given = 0.0;
-            s.beta_weight_default = 0.0;
-            s.beta_hazard = 0.0;
+            let s = Settings {
+                samples: 60,
+                seed,
+                beta_demand: beta,
+                beta_capacity: 0.0,
+                beta_fc_given: 0.0,
+                beta_fc_default: 0.0,
+                beta_weight_given: 0.0,
+                beta_weight_default: 0.0,
+                beta_hazard: 0.0,
+                ..Default::default()
+            };
             let ev = Evaluator::new(&input(&r), &s).unwrap();
             let q = BuildingSamples::draw(&ev, &r.id, "", &[], &s).score_quantiles().unwrap();
             q[2] / q[0]

@@ -9,7 +9,8 @@ pub fn quantile_index(p: u32, n: usize) -> Option<usize> {
     if n == 0 {
         return None;
     }
-    let idx = (u128::from(p) * n as u128 + 99) / 100;
+    // (p·n + 99) div 100 = ⌈p·n/100⌉.
+    let idx = (u128::from(p) * n as u128).div_ceil(100);
     Some((idx.saturating_sub(1) as usize).min(n - 1))
 }
 

@@ -143,7 +143,7 @@ pub fn write(
         &styles.section,
     )?;
     r += 1;
-    let lines = [
+    let lines: Vec<String> = [
         format!(
             "{} samples (seed {}) re-run the class, score and order with lognormal factors on drift demand, \
              wall and column capacity, concrete strength, floor weight and hazard; the retrofit and the \
@@ -160,7 +160,23 @@ pub fn write(
             "Class 1-2 buildings per sample: {} to {} (p05-p95, median {}).",
             st.class_1_2_count.p05, st.class_1_2_count.p95, st.class_1_2_count.p50
         ),
-    ];
+    ]
+    .into_iter()
+    .chain(report.budget_plan.as_ref().map(|p| {
+        let e = |f: &crate::results::FundingPlan| {
+            f.expected_occupants_protected
+                .map_or_else(|| "-".to_string(), |v| format!("{v:.1}"))
+        };
+        format!(
+            "Expected occupants protected (sum of P(deficit) x occupants over the funded buildings): \
+             priority walk {} (deterministic {}), max-occupants plan {} (deterministic {}).",
+            e(&p.priority_walk),
+            p.priority_walk.occupants_protected,
+            e(&p.max_occupants),
+            p.max_occupants.occupants_protected
+        )
+    }))
+    .collect::<Vec<String>>();
     // One line each, overflowing into the empty cells to the right (the building rows
     // beside them keep their height).
     for l in &lines {
