@@ -116,6 +116,10 @@ pub fn write(
     };
     for (i, c) in COLUMNS.iter().enumerate() {
         ws.set_column_width(i as u16, c.3)?;
+        // Numbers of these kinds are written without a cell format and take the column's.
+        if super::column_formatted(c.2) {
+            ws.set_column_format(i as u16, styles.kind(c.2))?;
+        }
         ws.write_string_with_format(0, i as u16, c.0, &styles.header)?;
     }
     ws.set_row_height(0, 45)?;
