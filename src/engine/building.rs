@@ -754,6 +754,7 @@ pub fn default_value_text(key: &str, res: &Resolved, s: &Settings) -> String {
         "fy_mpa" => format!("{} MPa", res.fy_mpa),
         "floor_weight_kpa" => format!("{} kPa", res.floor_weight_kpa),
         "ground_type" => s.default_ground_type.to_string(),
+        "rc_wall_area_x_m2" | "rc_wall_area_y_m2" => "0 m² (no RC walls)".into(),
         _ => String::new(),
     }
 }

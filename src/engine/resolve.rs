@@ -624,6 +624,18 @@ pub fn resolve(input: &BuildingInput<'_>, settings: &Settings) -> Result<Resolve
             });
         }
     }
+    // A blank wall-area cell is "no RC walls": say so (interface.md, defaults_used) when
+    // neither the cell nor the walls sheet gives walls in that direction.
+    for d in Dir::BOTH {
+        let cell = match d {
+            Dir::X => r.rc_wall_area_x_m2,
+            Dir::Y => r.rc_wall_area_y_m2,
+        };
+        let listed_here = walls_listed && walls.iter().any(|w| w.dir == d);
+        if cell.is_none() && !listed_here {
+            defaults.push(format!("rc_wall_area_{}_m2", d.code()));
+        }
+    }
     if thickness_defaulted {
         defaults.push("wall_thickness_m".into());
     }
