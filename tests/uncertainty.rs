@@ -572,8 +572,8 @@ fn the_binary_writes_consistent_uncertainty_fields() {
         .filter(|(name, _)| name.starts_with("xl/charts/chart"))
         .count();
     assert!(charts >= 4, "{charts}");
-    // Without --samples: null fields, no CSV columns.
-    let a = args(&[]);
+    // With --samples 0 (the demo settings ask for 200): null fields, no CSV columns.
+    let a = args(&["--samples", "0"]);
     let a: Vec<&str> = a.iter().map(String::as_str).collect();
     let run = crate::common::run_in(dir.path(), &a);
     assert!(run.status.success());
@@ -592,4 +592,35 @@ fn the_binary_writes_consistent_uncertainty_fields() {
     let a = args(&["--samples", "5", "--seed", "-1"]);
     let a: Vec<&str> = a.iter().map(String::as_str).collect();
     assert_eq!(crate::common::run_in(dir.path(), &a).status.code(), Some(2));
+}
+
+#[test]
+fn the_large_stock_layout_writes_the_confidence_rows_beside_the_workbook() {
+    // interface.md, Large stocks: with --samples the Confidence rows go to
+    // `<out stem>.confidence.csv` like the other per-row tables.
+    use seistriage::report::workbook::{self, Layout};
+    let report = screen_with(&demo("samples = 8"));
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().join("big.xlsx");
+    let layout = Layout::of(&report).large_stock();
+    let extra = workbook::write_with_layout(&report, &out, &layout, &|_| {}).unwrap();
+    let csv_file = dir.path().join("big.confidence.csv");
+    assert!(extra.iter().any(|(_, p)| p == &csv_file), "{extra:?}");
+    let text = std::fs::read_to_string(&csv_file).unwrap();
+    let mut lines = text.lines();
+    let header = lines.next().unwrap();
+    assert!(header.starts_with("rank,id,"), "{header}");
+    assert!(header.contains("p_deficit") && header.contains("rank_p95"));
+    assert_eq!(lines.count(), report.buildings.len());
+}
+
+#[test]
+fn the_demo_draws_200_samples() {
+    // method §13: `demo` runs the stage with N = 200 (through its bundled settings).
+    let loaded = demo("");
+    assert_eq!(
+        loaded.settings.samples,
+        seistriage::uncertainty::DEMO_SAMPLES
+    );
+    assert_eq!(seistriage::uncertainty::DEMO_SAMPLES, 200);
 }

@@ -12,8 +12,6 @@ pub fn run(out: &Path, quiet: bool) -> anyhow::Result<ExitCode> {
             districts: files.districts.clone(),
             faults: files.faults.clone(),
             settings_file: files.settings.clone(),
-            // Method §13: the demo shows the uncertainty stage to every new user.
-            samples: Some(seistriage::uncertainty::DEMO_SAMPLES),
             ..Default::default()
         },
         out: Some(out.join("demo-screening.xlsx")),

@@ -32,7 +32,9 @@ pub mod sample;
 
 pub use sample::{Evaluator, Factors, Sample};
 
-/// Number of samples `demo` draws (method §13: N = 200).
+/// Number of samples `demo` draws (method §13: N = 200): the bundled demo settings
+/// (`inventories/demo-settings.toml`, and so the demo workbook's settings sheet) set it, so
+/// that the demo command and a plain `screen` of the demo files agree.
 pub const DEMO_SAMPLES: u32 = 200;
 
 /// Number of buildings named under "survey next" (method §13).
