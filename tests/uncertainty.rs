@@ -624,3 +624,40 @@ fn the_demo_draws_200_samples() {
     );
     assert_eq!(seistriage::uncertainty::DEMO_SAMPLES, 200);
 }
+
+#[test]
+fn the_binary_gives_the_same_samples_with_one_or_two_threads() {
+    let dir = tempfile::tempdir().unwrap();
+    let inv = inventories();
+    let run = |threads: &str, json: &str| {
+        let o = crate::common::run_in(
+            dir.path(),
+            &[
+                "screen",
+                inv.join("demo.xlsx").to_str().unwrap(),
+                "--settings",
+                inv.join("demo-settings.toml").to_str().unwrap(),
+                "--out",
+                "t.xlsx",
+                "--json",
+                json,
+                "--samples",
+                "30",
+                "--seed",
+                "11",
+                "--threads",
+                threads,
+                "--quiet",
+            ],
+        );
+        assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
+        let v: serde_json::Value =
+            serde_json::from_slice(&std::fs::read(dir.path().join(json)).unwrap()).unwrap();
+        v
+    };
+    let one = run("1", "one.json");
+    let two = run("2", "two.json");
+    assert_eq!(one["uncertainty"], two["uncertainty"]);
+    assert_eq!(one["buildings"], two["buildings"]);
+    assert_eq!(one["budget_plan"], two["budget_plan"]);
+}
