@@ -588,6 +588,12 @@ fn the_binary_writes_consistent_uncertainty_fields() {
     );
     let csv = std::fs::read_to_string(dir.path().join("r.csv")).unwrap();
     assert!(!csv.lines().next().unwrap().contains("p_deficit"));
+    // A sample store beyond 4 GiB is refused up front (exit 1, one line), not aborted.
+    let a = args(&["--samples", "4000000000"]);
+    let a: Vec<&str> = a.iter().map(String::as_str).collect();
+    let o = crate::common::run_in(dir.path(), &a);
+    assert_eq!(o.status.code(), Some(1));
+    assert!(String::from_utf8_lossy(&o.stderr).contains("GiB of samples"));
     // A negative seed is a usage error.
     let a = args(&["--samples", "5", "--seed", "-1"]);
     let a: Vec<&str> = a.iter().map(String::as_str).collect();

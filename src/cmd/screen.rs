@@ -196,6 +196,20 @@ fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitC
         );
         return Ok(ExitCode::from(1));
     }
+    let store = seistriage::uncertainty::store_bytes(
+        loaded.inventory.buildings.len(),
+        loaded.settings.samples,
+    );
+    if store > seistriage::uncertainty::MAX_STORE_BYTES {
+        bail!(
+            "{}: --samples {} on {} buildings would hold about {:.1} GiB of samples (13 bytes per building and sample; at most {} GiB): use fewer samples or screen the stock in parts",
+            o.inventory.display(),
+            loaded.settings.samples,
+            loaded.inventory.buildings.len(),
+            store as f64 / f64::from(1u32 << 30),
+            seistriage::uncertainty::MAX_STORE_BYTES >> 30
+        );
+    }
     let progress = Progress::spinner(o.quiet, "screening");
     let report = pipeline::screen(&loaded);
     // The report holds everything the writers need: free the inventory before writing.

@@ -37,6 +37,19 @@ pub use sample::{Evaluator, Factors, Sample};
 /// that the demo command and a plain `screen` of the demo files agree.
 pub const DEMO_SAMPLES: u32 = 200;
 
+/// Bytes the stage holds per building and sample: class (u8), score (f64), rank (u32).
+pub const BYTES_PER_BUILDING_SAMPLE: u64 = 13;
+/// Largest sample store `screen` accepts (4 GiB): beyond it the run is refused up front
+/// instead of failing an allocation (which aborts the process).
+pub const MAX_STORE_BYTES: u64 = 4 << 30;
+
+/// The bytes of the per-building, per-sample store for `buildings` × `samples`.
+pub fn store_bytes(buildings: usize, samples: u32) -> u64 {
+    (buildings as u64)
+        .saturating_mul(u64::from(samples))
+        .saturating_mul(BYTES_PER_BUILDING_SAMPLE)
+}
+
 /// Number of buildings named under "survey next" (method §13).
 pub const SURVEY_NEXT: usize = 10;
 
