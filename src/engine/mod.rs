@@ -20,7 +20,7 @@ Where each clause of `method.md` lives (file → function; one step from a formu
 | §10 | flags (soft/weak storey, boundary elements, ν, slender/squat, torsion, calibration, near fault, period range, brittle, defaults) | `flags.rs` → [`flags::raise`], [`flags::storey_state`], [`flags::soft_storey`], [`flags::weak_storey`]; `torsion.rs` → [`torsion::check`]; wording: `report/flag_text.rs` |
 | §11 | classes and the priority order | `rank.rs` → [`rank::class`], [`rank::class_name`], [`rank::priority_order`], [`rank::rank`] |
 | §12 | retrofit sizing, cost, budget plan | `retrofit/sizing.rs` → `size_building`, `bisect`; `retrofit/cost.rs` → `apply`, `funding_cost`; `retrofit/budget.rs` → `plans`; `retrofit/mod.rs` → `size_all`, `budget_plan` |
-| §13 | uncertainty and rank robustness (`--samples N`) | `src/uncertainty/` (the sampling stage; it re-runs this engine) |
+| §13 | uncertainty and rank robustness (`--samples N`) | `uncertainty/mod.rs` → `run`, `factors`, `material_betas`, `survey_value`; `uncertainty/sample.rs` → `Evaluator` (re-runs §2–§11 per sample from `building::prepare`/`direction`); `uncertainty/draws.rs`, `quantiles.rs` |
 
 One building end to end: [`building::prepare`] (§0, §2, §5 spectrum, §8 column capacity)
 then [`building::direction`] per direction (§1, §3–§9) then [`building::screen`] (§9

@@ -181,6 +181,7 @@ pub fn building(i: usize, class: u8) -> BuildingResult {
                 String::new()
             },
         }),
+        uncertainty: None,
         row: i + 2,
         detail: BuildingDetail {
             storeys: 4,
@@ -299,18 +300,21 @@ pub fn report(n: usize) -> Report {
                 cost: 420_000.0,
                 occupants_protected: 120,
                 method: None,
+                expected_occupants_protected: None,
             },
             max_occupants: FundingPlan {
                 funded: vec!["B0002".into()],
                 cost: 101_000.0,
                 occupants_protected: 21,
                 method: Some("exact 0/1 knapsack".into()),
+                expected_occupants_protected: None,
             },
             excluded: vec![Excluded {
                 id: "B0007".into(),
                 reason: "column remedy without a price (unit_cost_short_column_m2 not set)".into(),
             }],
         }),
+        uncertainty: None,
         buildings,
         not_screened,
         problems,
