@@ -154,6 +154,13 @@ struct ScreenArgs {
     /// Retrofit budget (currency-neutral).
     #[arg(long, value_name = "AMOUNT")]
     budget: Option<f64>,
+    /// Officials' brief, one self-contained HTML page (default: <out stem>-brief.html beside
+    /// the workbook when the stock has coordinates or a budget plan).
+    #[arg(long, value_name = "FILE.html")]
+    brief: Option<PathBuf>,
+    /// Compare with a previous run's JSON results (a Changes sheet and a brief section).
+    #[arg(long, value_name = "OLD.json")]
+    previous: Option<PathBuf>,
     /// Worker threads (default: all cores).
     #[arg(long, value_name = "N", value_parser = clap::value_parser!(u32).range(1..))]
     threads: Option<u32>,
@@ -183,6 +190,9 @@ fn main() -> ExitCode {
             json: a.json,
             csv: a.csv,
             geojson: a.geojson,
+            brief: a.brief,
+            brief_always: false,
+            previous: a.previous,
             threads: a.threads.map(|n| n as usize),
             quiet: a.quiet,
         }),

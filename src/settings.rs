@@ -496,6 +496,8 @@ settings_table! {
         "Budget for the funding plan (currency-neutral); empty = no plan.";
     knapsack_resolution: f64 = 2000.0; "[project]";
         "Number of cost steps of the knapsack (cost step = budget / this).";
+    changes_rank_threshold: f64 = 10.0; "[project] interface.md";
+        "Changes sheet (--previous): rank moves of more than this many places are listed.";
     // ---- input plausibility (inventory.md) ----
     max_storeys: f64 = 60.0; "[project] inventory.md";
         "Storey count above which a row is refused as implausible.";
@@ -587,6 +589,7 @@ impl Settings {
             ("storey_height_min_m", self.storey_height_min_m),
             ("floor_weight_min_kpa", self.floor_weight_min_kpa),
             ("wall_area_mismatch_pct", self.wall_area_mismatch_pct),
+            ("changes_rank_threshold", self.changes_rank_threshold),
         ] {
             if v < 0.0 {
                 return Err(SettingsError::OutOfRange {

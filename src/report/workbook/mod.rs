@@ -15,6 +15,7 @@ The file is saved under a temporary name in the target folder and renamed when c
 */
 
 mod assumptions;
+mod changes_sheet;
 pub mod style;
 mod summary;
 pub use summary::budget_line;
@@ -30,8 +31,9 @@ use rust_xlsxwriter::{DocProperties, ExcelDateTime, Workbook, Worksheet};
 
 use super::ReportError;
 use super::atomic::write_atomic;
+use super::changes::Changes;
 use crate::results::Report;
-use style::Styles;
+use style::{Print, Styles};
 use tables::{Cell, Kind, RowCounts, Table, Target};
 
 /// Rows of a worksheet, header included (Excel and LibreOffice limit).
@@ -207,6 +209,17 @@ fn put(
     Ok(())
 }
 
+/// Text columns at least this wide (characters) wrap their text.
+const WRAP_FROM_WIDTH: f64 = 24.0;
+
+/// The inventory's file name (without its folder), for page headers.
+fn input_file_name(report: &Report) -> String {
+    Path::new(&report.input.file)
+        .file_name()
+        .map(|n| n.to_string_lossy().into_owned())
+        .unwrap_or_else(|| report.input.file.clone())
+}
+
 /// Progress callback: called with the number of rows written so far (from whichever thread
 /// is writing a sheet).
 pub type Progress<'a> = &'a (dyn Fn(u64) + Sync);
@@ -229,6 +242,12 @@ fn write_table_sheet(
         ws.set_column_width(i as u16, c.width)?;
         if column_formatted(c.kind) {
             ws.set_column_format(i as u16, styles.kind(c.kind))?;
+        } else if c.kind == Kind::Text && c.width >= WRAP_FROM_WIDTH {
+            // Long text (names, flags, notes, reasons) wraps instead of running on.
+            ws.set_column_format(i as u16, &styles.wrap)?;
+        }
+        if table == Table::Priority && tables::PRIORITY_HIDDEN.contains(&c.key) {
+            ws.set_column_hidden(i as u16)?;
         }
     }
     ws.set_row_height(0, 45)?;
@@ -237,14 +256,19 @@ fn write_table_sheet(
         _ => 0,
     };
     ws.set_freeze_panes(1, freeze_cols)?;
-    // Printing: landscape, header repeated on every page; the tables an official prints
-    // (Priority, Retrofit plan, Flags) fit the page width.
-    ws.set_landscape();
-    ws.set_repeat_rows(0, 0)?;
-    if matches!(table, Table::Priority | Table::Retrofit | Table::Flags) {
-        ws.set_print_fit_to_pages(1, 0);
-    }
     let last_col = cols.len().saturating_sub(1) as u16;
+    style::page_setup(
+        ws,
+        table.sheet_name(),
+        &input_file_name(report),
+        Print {
+            repeat_rows: Some((0, 0)),
+            repeat_cols: (freeze_cols > 0 || table == Table::Walls || table == Table::Flags)
+                .then_some((0, 1)),
+            on_request: matches!(table, Table::Directions | Table::Walls | Table::Flags)
+                .then_some(last_col),
+        },
+    )?;
     ws.autofilter(0, 0, rows as u32, last_col)?;
     for (i, c) in cols.iter().enumerate() {
         ws.write_string_with_format(0, i as u16, c.header, &styles.header)?;
@@ -300,6 +324,28 @@ pub fn write_with_layout_except(
     written: &[Table],
     progress: Progress<'_>,
 ) -> Result<Vec<(String, PathBuf)>, ReportError> {
+    write_inner(report, path, layout, written, None, progress)
+}
+
+/// [`write_with_progress`] with the comparison with a previous run (`--previous`): the
+/// `Changes` sheet after Priority.
+pub fn write_with_changes(
+    report: &Report,
+    path: &Path,
+    changes: Option<&Changes>,
+    progress: Progress<'_>,
+) -> Result<Vec<(String, PathBuf)>, ReportError> {
+    write_inner(report, path, &Layout::of(report), &[], changes, progress)
+}
+
+fn write_inner(
+    report: &Report,
+    path: &Path,
+    layout: &Layout,
+    written: &[Table],
+    changes: Option<&Changes>,
+    progress: Progress<'_>,
+) -> Result<Vec<(String, PathBuf)>, ReportError> {
     let mut extra = Vec::new();
     for t in &layout.csv {
         let p = csv_path(path, *t);
@@ -309,7 +355,7 @@ pub fn write_with_layout_except(
         extra.push((format!("{} (CSV)", t.sheet_name()), p));
     }
     write_atomic(path, |w| {
-        build_and_save(report, path, w, layout, &extra, progress)
+        build_and_save(report, path, w, layout, &extra, changes, progress)
     })?;
     Ok(extra)
 }
@@ -351,6 +397,7 @@ fn build_and_save(
     out: &mut BufWriter<File>,
     layout: &Layout,
     extra: &[(String, PathBuf)],
+    changes: Option<&Changes>,
     progress: Progress<'_>,
 ) -> Result<(), ReportError> {
     let styles = Styles::new();
@@ -418,10 +465,26 @@ fn build_and_save(
             write_table_sheet(ws, report, *t, *rows, &styles, progress, &done)
         })
     })?;
-    for (_, _, ws) in sheets {
+    for (t, _, ws) in sheets {
         wb.push_worksheet(ws);
+        if t == Table::Priority
+            && let Some(c) = changes
+        {
+            changes_sheet::write(wb.add_worksheet(), report, c, &styles)?;
+        }
     }
-    assumptions::write(wb.add_worksheet(), report, &styles)?;
+    let ws = wb.add_worksheet();
+    assumptions::write(ws, report, &styles)?;
+    style::page_setup(
+        ws,
+        "Assumptions",
+        &input_file_name(report),
+        Print {
+            repeat_rows: Some((0, 0)),
+            repeat_cols: None,
+            on_request: None,
+        },
+    )?;
     let charts = summary::write_chart_data(wb.add_worksheet(), report)?;
     let summary_ws = wb.worksheet_from_name("Summary")?;
     summary::write(summary_ws, report, layout, extra, &styles, &now, &charts)?;

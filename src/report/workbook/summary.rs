@@ -397,10 +397,10 @@ pub fn budget_line(report: &Report) -> String {
                     format!("{k} buildings")
                 }
             };
-            let mut s = format!(
-                "Budget {}: the priority walk funds {} for {}, protecting {} occupants of \
-                 class 1–2 buildings; the max-occupants plan funds {} for {}, protecting {} \
-                 occupants",
+            let s = format!(
+                "Budget {}: Plan A (in priority order) funds {} for {}, protecting {} \
+                 occupants of class 1–2 buildings; Plan B (most people protected) funds {} for \
+                 {}, protecting {} occupants",
                 money(p.budget),
                 n(walk.funded.len()),
                 money(walk.cost),
@@ -409,9 +409,7 @@ pub fn budget_line(report: &Report) -> String {
                 money(best.cost),
                 money(best.occupants_protected as f64)
             );
-            if let Some(m) = &best.method {
-                s.push_str(&format!(" ({m})"));
-            }
+            let mut s = s;
             s.push('.');
             s
         }
@@ -434,6 +432,122 @@ pub fn budget_line(report: &Report) -> String {
     }
 }
 
+/// The block an official decides on: counts, people, costs, the two plans by their plain
+/// names (`interface.md`: Plan A "in priority order" = the priority walk, Plan B "most people
+/// protected" = the max-occupants plan).
+fn decision_block(w: &mut Rows<'_>, report: &Report, styles: &Styles) -> Result<(), ReportError> {
+    w.section("For the decision", styles)?;
+    let c = &report.counts;
+    let (mut people, mut people_unknown, mut cost, mut cost_unknown) = (0u64, 0usize, 0.0, 0usize);
+    for b in report.buildings.iter().filter(|b| b.class <= 2) {
+        match b.occupants {
+            Some(o) => people += o,
+            None => people_unknown += 1,
+        }
+        match funding_cost(b).filter(|v| v.is_finite()) {
+            Some(v) => cost += v,
+            None => cost_unknown += 1,
+        }
+    }
+    w.label_num(
+        "Buildings screened",
+        c.screened as f64,
+        Kind::Thousands,
+        styles,
+    )?;
+    w.label_num(
+        &format!("Class 1 {}", class_name(1)),
+        c.by_class.c1 as f64,
+        Kind::Thousands,
+        styles,
+    )?;
+    w.label_num(
+        &format!("Class 2 {}", class_name(2)),
+        c.by_class.c2 as f64,
+        Kind::Thousands,
+        styles,
+    )?;
+    w.label_num(
+        "People in class 1–2 buildings",
+        people as f64,
+        Kind::Thousands,
+        styles,
+    )?;
+    if people_unknown > 0 {
+        w.label(
+            "",
+            &format!("(occupants not given for {people_unknown} of these buildings)"),
+            styles,
+        )?;
+    }
+    let st = &report.settings;
+    let costs_set = st.unit_cost_wall_m3.is_some()
+        && st.unit_cost_floor_m2.is_some()
+        && st.replacement_cost_m2.is_some();
+    let severe = c.by_class.c1 + c.by_class.c2;
+    if !costs_set {
+        w.label(
+            "Cost to fix all class 1–2 buildings",
+            "not computed (no unit costs set)",
+            styles,
+        )?;
+    } else {
+        w.label_num(
+            "Cost to fix all class 1–2 buildings",
+            cost,
+            Kind::Thousands,
+            styles,
+        )?;
+        if cost_unknown > 0 {
+            w.label(
+                "",
+                &format!(
+                    "(not counting {cost_unknown} of the {severe} buildings without a cost: see \
+                     the Retrofit plan sheet's notes)"
+                ),
+                styles,
+            )?;
+        }
+    }
+    match &report.budget_plan {
+        Some(p) => {
+            w.label_num("Budget", p.budget, Kind::Thousands, styles)?;
+            for (name, plan) in [
+                ("Plan A: in priority order", &p.priority_walk),
+                ("Plan B: most people protected", &p.max_occupants),
+            ] {
+                w.label(
+                    name,
+                    &format!(
+                        "{} buildings, cost {}, {} people protected",
+                        money(plan.funded.len() as f64),
+                        money(plan.cost),
+                        money(plan.occupants_protected as f64)
+                    ),
+                    styles,
+                )?;
+            }
+            if severe > 0 && cost_unknown < severe {
+                w.label_num(
+                    "Gap: cost of fixing all class 1–2 buildings beyond the budget",
+                    (cost - p.budget).max(0.0),
+                    Kind::Thousands,
+                    styles,
+                )?;
+            }
+            w.label(
+                "Which buildings",
+                "Retrofit plan and Priority sheets: columns funded by Plan A and by Plan B",
+                styles,
+            )?;
+        }
+        None => {
+            w.label("Budget", &budget_line(report), styles)?;
+        }
+    }
+    Ok(())
+}
+
 /// Writes the Summary sheet and inserts the charts.
 pub fn write(
     ws: &mut Worksheet,
@@ -450,38 +564,26 @@ pub fn write(
     {
         ws.set_column_width(c as u16, *w)?;
     }
-    ws.set_landscape().set_print_fit_to_pages(1, 0);
+    let file = std::path::Path::new(&report.input.file)
+        .file_name()
+        .map(|n| n.to_string_lossy().into_owned())
+        .unwrap_or_default();
+    super::style::page_setup(
+        ws,
+        "Summary",
+        &file,
+        super::style::Print {
+            repeat_rows: None,
+            repeat_cols: None,
+            on_request: None,
+        },
+    )?;
     ws.write_string_with_format(0, 0, "Seismic screening results", &styles.title)?;
     ws.merge_range(1, 0, 3, 7, crate::CAUTION, &styles.caution)?;
     let mut w = Rows { ws, r: 4 };
 
-    w.section("What was screened", styles)?;
-    w.label("Inventory file", &report.input.file, styles)?;
-    w.label("SHA-256 of the file", &report.input.sha256, styles)?;
-    w.ws.write_string_with_format(w.r, 0, "Screened on", &styles.label)?;
-    w.ws.write_datetime_with_format(w.r, 1, now, &styles.datetime)?;
-    w.r += 1;
-    w.label(
-        "Tool",
-        &format!("{} {}", report.tool, report.version),
-        styles,
-    )?;
-    for (key, label) in HAZARD_KEYS {
-        let v = report.settings.value_text(key).unwrap_or_default();
-        let v = if v.is_empty() {
-            "(not set: per building row or district)".to_string()
-        } else if *key == "ranking_level" {
-            v.to_uppercase()
-        } else {
-            v
-        };
-        w.label(&format!("{label} [{key}]"), &v, styles)?;
-    }
-    w.label(
-        "All settings",
-        "see the Assumptions sheet (every value with its source)",
-        styles,
-    )?;
+    decision_block(&mut w, report, styles)?;
+    // The tool parameters come last (written below, after the tables).
 
     w.section("Counts", styles)?;
     let c = &report.counts;
@@ -649,7 +751,7 @@ pub fn write(
     }
     w.label("Reasons", "see the Flags sheet", styles)?;
 
-    w.section("Budget", styles)?;
+    w.section("Budget plans", styles)?;
     let line = budget_line(report);
     w.ws.merge_range(w.r, 0, w.r + 1, 7, &line, &styles.wrap)?;
     w.r += 2;
@@ -700,6 +802,48 @@ pub fn write(
         }
         w.r += 1;
     }
+
+    w.section("Tool parameters", styles)?;
+    w.label("Inventory file", &report.input.file, styles)?;
+    w.label("SHA-256 of the file", &report.input.sha256, styles)?;
+    w.ws.write_string_with_format(w.r, 0, "Screened on", &styles.label)?;
+    w.ws.write_datetime_with_format(w.r, 1, now, &styles.datetime)?;
+    w.r += 1;
+    w.label(
+        "Tool",
+        &format!("{} {}", report.tool, report.version),
+        styles,
+    )?;
+    for (key, label) in HAZARD_KEYS {
+        let v = report.settings.value_text(key).unwrap_or_default();
+        let v = if v.is_empty() {
+            "(not set: per building row or district)".to_string()
+        } else if *key == "ranking_level" {
+            v.to_uppercase()
+        } else {
+            v
+        };
+        w.label(&format!("{label} [{key}]"), &v, styles)?;
+    }
+    w.label(
+        "All settings",
+        "see the Assumptions sheet (every value with its source)",
+        styles,
+    )?;
+
+    if let Some(m) = report
+        .budget_plan
+        .as_ref()
+        .and_then(|p| p.max_occupants.method.as_ref())
+    {
+        w.label("How Plan B is found", m, styles)?;
+    }
+    w.label(
+        "The method",
+        "docs/method.md (shipped with seistriage): what each step computes, its source, its \
+         limits; `seistriage explain INVENTORY ID` shows every number for one building",
+        styles,
+    )?;
 
     // Charts to the right of the tables.
     let mut at = 1u32;
