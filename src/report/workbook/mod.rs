@@ -211,6 +211,32 @@ fn put(
 
 /// Text columns at least this wide (characters) wrap their text.
 const WRAP_FROM_WIDTH: f64 = 24.0;
+/// Height of one line of 11 pt text (points), the spreadsheet default row height.
+const ROW_HEIGHT_PT: f64 = 15.0;
+/// Most lines a wrapped row is sized for (longer text is cut at the cell's bottom).
+const MAX_ROW_LINES: usize = 8;
+
+/// Lines a text takes wrapped in a column `width` characters wide: words are kept whole;
+/// proportional text is about 1.15 characters per width unit (width units are widths of
+/// the digit 0; common practice, measured on the rendered sheets).
+fn wrapped_lines(text: &str, width: f64) -> usize {
+    let per_line = ((width * 1.15).floor() as usize).max(1);
+    let mut lines = 0usize;
+    for para in text.split('\n') {
+        let mut len = 0usize;
+        lines += 1;
+        for word in para.split_whitespace() {
+            let w = word.chars().count();
+            if len > 0 && len + 1 + w > per_line {
+                lines += 1;
+                len = w;
+            } else {
+                len += if len > 0 { 1 + w } else { w };
+            }
+        }
+    }
+    lines.max(1)
+}
 
 /// The inventory's file name (without its folder), for page headers.
 fn input_file_name(report: &Report) -> String {
@@ -233,6 +259,7 @@ fn write_table_sheet(
     table: Table,
     rows: usize,
     styles: &Styles,
+    fit_rows: bool,
     progress: Progress<'_>,
     done: &AtomicU64,
 ) -> Result<(), ReportError> {
@@ -274,7 +301,26 @@ fn write_table_sheet(
         ws.write_string_with_format(0, i as u16, c.header, &styles.header)?;
     }
     let mut r: u32 = 1;
+    let wrapped = |c: &tables::Column| c.kind == Kind::Text && c.width >= WRAP_FROM_WIDTH;
+    let any_wrapped = fit_rows && cols.iter().any(wrapped);
     table.for_each_row(report, Target::Sheet, rows, |cells| {
+        if any_wrapped {
+            // Spreadsheet applications do not all size rows to wrapped text when they open a
+            // file (LibreOffice keeps the default height): set the height from the text.
+            let lines = cells
+                .iter()
+                .zip(cols)
+                .filter(|(_, c)| wrapped(c))
+                .map(|(cell, c)| match cell {
+                    Cell::Text(t) => wrapped_lines(t, c.width),
+                    _ => 1,
+                })
+                .max()
+                .unwrap_or(1);
+            if lines > 1 {
+                ws.set_row_height(r, ROW_HEIGHT_PT * lines.min(MAX_ROW_LINES) as f64)?;
+            }
+        }
         for (i, (cell, c)) in cells.iter().zip(cols).enumerate() {
             put(ws, r, i as u16, cell, c.kind, styles)?;
         }
@@ -448,6 +494,9 @@ fn build_and_save(
         sheets.push((t, rows, ws));
     }
     let done = AtomicU64::new(0);
+    // Row heights for wrapped text only below the constant-memory size (a stock that large
+    // is not printed; the per-row sheets stay as fast as before).
+    let fit_rows = !layout.constant_memory;
     let weights: Vec<u64> = sheets
         .iter()
         .map(|(t, rows, _)| *rows as u64 * t.columns().len() as u64)
@@ -462,7 +511,7 @@ fn build_and_save(
     }
     bins.into_par_iter().try_for_each(|bin| {
         bin.into_iter().try_for_each(|(t, rows, ws)| {
-            write_table_sheet(ws, report, *t, *rows, &styles, progress, &done)
+            write_table_sheet(ws, report, *t, *rows, &styles, fit_rows, progress, &done)
         })
     })?;
     for (t, _, ws) in sheets {

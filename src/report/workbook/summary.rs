@@ -316,6 +316,22 @@ impl Rows<'_> {
         self.r += 1;
         Ok(())
     }
+    /// A label with a long value wrapped over columns B–H, `lines` lines tall.
+    fn label_wrapped(
+        &mut self,
+        label: &str,
+        value: &str,
+        lines: u32,
+        styles: &Styles,
+    ) -> Result<(), ReportError> {
+        self.ws
+            .write_string_with_format(self.r, 0, label, &styles.label)?;
+        self.ws
+            .merge_range(self.r, 1, self.r, 7, cut(value), &styles.wrap)?;
+        self.ws.set_row_height(self.r, 15 * lines)?;
+        self.r += 1;
+        Ok(())
+    }
     fn label_num(
         &mut self,
         label: &str,
@@ -529,7 +545,7 @@ fn decision_block(w: &mut Rows<'_>, report: &Report, styles: &Styles) -> Result<
             }
             if severe > 0 && cost_unknown < severe {
                 w.label_num(
-                    "Gap: cost of fixing all class 1–2 buildings beyond the budget",
+                    "Gap (class 1–2 cost beyond budget)",
                     (cost - p.budget).max(0.0),
                     Kind::Thousands,
                     styles,
@@ -836,12 +852,13 @@ pub fn write(
         .as_ref()
         .and_then(|p| p.max_occupants.method.as_ref())
     {
-        w.label("How Plan B is found", m, styles)?;
+        w.label_wrapped("How Plan B is found", m, 3, styles)?;
     }
-    w.label(
+    w.label_wrapped(
         "The method",
         "docs/method.md (shipped with seistriage): what each step computes, its source, its \
          limits; `seistriage explain INVENTORY ID` shows every number for one building",
+        2,
         styles,
     )?;
 
