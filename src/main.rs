@@ -95,6 +95,9 @@ enum Command {
         inventory: PathBuf,
         /// Building id.
         id: String,
+        /// Numbers at full precision (default: 4 significant digits).
+        #[arg(long)]
+        full: bool,
         #[command(flatten)]
         input: InputArgs,
     },
@@ -202,8 +205,9 @@ fn main() -> ExitCode {
         Command::Explain {
             inventory,
             id,
+            full,
             input,
-        } => cmd::explain::run(&inventory, &id, &input.run_options(None)),
+        } => cmd::explain::run(&inventory, &id, &input.run_options(None), full),
         Command::Template { out } => cmd::template::run(&out),
         Command::Demo { out, quiet } => cmd::demo::run(&out, quiet),
         Command::Generate {

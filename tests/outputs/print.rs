@@ -82,7 +82,11 @@ fn every_sheet_is_set_up_for_print() {
     workbook::write(&report, &out).unwrap();
     let files = package(&out);
     let sheets = worksheets(&files);
-    let wb = &files.iter().find(|(n, _)| n == "xl/workbook.xml").unwrap().1;
+    let wb = &files
+        .iter()
+        .find(|(n, _)| n == "xl/workbook.xml")
+        .unwrap()
+        .1;
     let titles = defined(wb, "_xlnm.Print_Titles");
     let areas = defined(wb, "_xlnm.Print_Area");
     let index = |name: &str| sheets.iter().position(|(n, _)| n == name).unwrap();
@@ -95,15 +99,30 @@ fn every_sheet_is_set_up_for_print() {
         assert_eq!(attr(setup[0], "orientation"), Some("landscape"), "{name}");
         // One page wide (fitToWidth defaults to 1), any number tall.
         assert_eq!(attr(setup[0], "fitToHeight"), Some("0"), "{name}");
-        assert!(attr(setup[0], "fitToWidth").is_none_or(|w| w == "1"), "{name}");
-        assert!(xml.contains("<pageSetUpPr fitToPage=\"1\"/>"), "{name}: fitToPage");
+        assert!(
+            attr(setup[0], "fitToWidth").is_none_or(|w| w == "1"),
+            "{name}"
+        );
+        assert!(
+            xml.contains("<pageSetUpPr fitToPage=\"1\"/>"),
+            "{name}: fitToPage"
+        );
         let footer = &xml[xml.find("<oddFooter>").expect("footer")..];
         let footer = &footer[..footer.find("</oddFooter>").unwrap()];
-        assert!(footer.contains(seistriage::CAUTION), "{name}: caution in the footer");
-        assert!(footer.contains("Page &amp;P of &amp;N"), "{name}: page N of M");
+        assert!(
+            footer.contains(seistriage::CAUTION),
+            "{name}: caution in the footer"
+        );
+        assert!(
+            footer.contains("Page &amp;P of &amp;N"),
+            "{name}: page N of M"
+        );
         assert!(xml.contains("<oddHeader>"), "{name}: header");
         let i = index(name);
-        let title = titles.iter().find(|(s, _)| *s == i).map(|(_, f)| f.as_str());
+        let title = titles
+            .iter()
+            .find(|(s, _)| *s == i)
+            .map(|(_, f)| f.as_str());
         let area = areas.iter().find(|(s, _)| *s == i).map(|(_, f)| f.as_str());
         let q = if name.contains(' ') {
             format!("'{name}'")
@@ -116,14 +135,25 @@ fn every_sheet_is_set_up_for_print() {
                 assert_eq!(area, None);
             }
             "Priority" | "Retrofit plan" => {
-                assert_eq!(title, Some(format!("{q}!$A:$B,{q}!$1:$1").as_str()), "{name}");
+                assert_eq!(
+                    title,
+                    Some(format!("{q}!$A:$B,{q}!$1:$1").as_str()),
+                    "{name}"
+                );
                 assert_eq!(area, None, "{name}: printed in full");
             }
             "Directions" | "Walls" | "Flags" => {
-                assert_eq!(title, Some(format!("{q}!$A:$B,{q}!$1:$1").as_str()), "{name}");
+                assert_eq!(
+                    title,
+                    Some(format!("{q}!$A:$B,{q}!$1:$1").as_str()),
+                    "{name}"
+                );
                 // Printed only on request: the print area is the header row.
                 let a = area.unwrap_or_else(|| panic!("{name}: print area"));
-                assert!(a.starts_with(&format!("{q}!$A$1:$")) && a.ends_with("$1"), "{a}");
+                assert!(
+                    a.starts_with(&format!("{q}!$A$1:$")) && a.ends_with("$1"),
+                    "{a}"
+                );
                 assert!(xml.contains("not printed by default"), "{name}: says so");
             }
             _ => {
@@ -145,4 +175,47 @@ fn every_sheet_is_set_up_for_print() {
     assert_eq!(attr(hidden[0], "min"), Some(funded.to_string().as_str()));
     let keys: Vec<&str> = cols.iter().map(|c| c.key).collect();
     assert!(keys.ends_with(&["funded_plan_a", "funded_plan_b"]));
+}
+
+#[test]
+fn summary_opens_with_the_decision_and_ends_with_the_tool_parameters() {
+    let report = sample::report(24);
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().join("r.xlsx");
+    workbook::write(&report, &out).unwrap();
+    let s = super::workbook::sheet(&out, "Summary");
+    let col_a: Vec<String> = (0..s.height())
+        .map(|r| super::workbook::text(&s, r, 0).unwrap_or_default())
+        .collect();
+    let at = |label: &str| {
+        col_a
+            .iter()
+            .position(|x| x == label)
+            .unwrap_or_else(|| panic!("no {label:?} on Summary"))
+    };
+    let decision = at("For the decision");
+    let params = at("Tool parameters");
+    assert!(decision < at("Counts") && at("Buildings per district") < params);
+    // The plans by their plain names, in the decision block.
+    for label in [
+        "Plan A: in priority order",
+        "Plan B: most people protected",
+        "People in class 1–2 buildings",
+        "Cost to fix all class 1–2 buildings",
+        "Budget",
+    ] {
+        let r = at(label);
+        assert!(decision < r && r < at("Counts"), "{label}");
+    }
+    let plan_a = super::workbook::text(&s, at("Plan A: in priority order"), 1).unwrap();
+    let walk = &report.budget_plan.as_ref().unwrap().priority_walk;
+    assert!(plan_a.starts_with(&format!("{} buildings", walk.funded.len())), "{plan_a}");
+    // File hash and spectrum parameters are below, with the tool parameters.
+    assert!(at("SHA-256 of the file") > params);
+    assert!(at("Spectrum [spectrum]") > params);
+    // No technical plan names in the decision block.
+    for r in decision..at("Counts") {
+        let t = col_a[r].to_lowercase();
+        assert!(!t.contains("knapsack") && !t.contains("priority walk"), "{t}");
+    }
 }
