@@ -17,8 +17,8 @@ const COLUMNS: &[(&str, f64)] = &[
     ("Change", 22.0),
     ("Id", 12.0),
     ("Name", 28.0),
-    ("Class before", 8.0),
-    ("Class now", 8.0),
+    ("Class before", 24.0),
+    ("Class now", 24.0),
     ("Rank before", 8.0),
     ("Rank now", 8.0),
     ("Score before", 9.0),
@@ -90,6 +90,11 @@ pub fn write(
     }
     let mut r = HEADER_ROW + 1;
     for c in &changes.rows {
+        let lines = super::wrapped_lines(&c.name, COLUMNS[2].1)
+            .max(super::wrapped_lines(&c.what, COLUMNS[13].1));
+        if lines > 1 {
+            ws.set_row_height(r, 15.0 * lines.min(8) as f64)?;
+        }
         ws.write_string(r, 0, c.kind.words())?;
         ws.write_string(r, 1, cut(&c.id))?;
         ws.write_string(r, 2, cut(&c.name))?;

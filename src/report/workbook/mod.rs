@@ -219,7 +219,7 @@ const MAX_ROW_LINES: usize = 8;
 /// Lines a text takes wrapped in a column `width` characters wide: words are kept whole;
 /// proportional text is about 1.15 characters per width unit (width units are widths of
 /// the digit 0; common practice, measured on the rendered sheets).
-fn wrapped_lines(text: &str, width: f64) -> usize {
+pub(crate) fn wrapped_lines(text: &str, width: f64) -> usize {
     let per_line = ((width * 1.15).floor() as usize).max(1);
     let mut lines = 0usize;
     for para in text.split('\n') {
@@ -272,6 +272,8 @@ fn write_table_sheet(
         } else if c.kind == Kind::Text && c.width >= WRAP_FROM_WIDTH {
             // Long text (names, flags, notes, reasons) wraps instead of running on.
             ws.set_column_format(i as u16, &styles.wrap)?;
+        } else if c.kind == Kind::Text {
+            ws.set_column_format(i as u16, styles.kind(Kind::Text))?;
         }
         if table == Table::Priority && tables::PRIORITY_HIDDEN.contains(&c.key) {
             ws.set_column_hidden(i as u16)?;

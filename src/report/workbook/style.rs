@@ -71,7 +71,8 @@ fn kind_index(k: Kind) -> usize {
 impl Styles {
     /// Builds the formats.
     pub fn new() -> Self {
-        let num = |f: &str| Format::new().set_num_format(f);
+        // Table cells align to the top, so that a row with wrapped text reads across.
+        let num = |f: &str| Format::new().set_num_format(f).set_align(FormatAlign::Top);
         let class = std::array::from_fn(|i| {
             let name = CLASS_NAMES.get(i).copied().unwrap_or("");
             let fill = CLASS_FILL.get(i).copied().unwrap_or(0xFF_FF_FF);
@@ -80,7 +81,8 @@ impl Styles {
                 .set_num_format(format!("0\" {name}\""))
                 .set_background_color(Color::RGB(fill))
                 .set_font_color(Color::RGB(font))
-                .set_align(FormatAlign::Left);
+                .set_align(FormatAlign::Left)
+                .set_align(FormatAlign::Top);
             if i == 0 {
                 f = f.set_bold();
             }
@@ -94,7 +96,7 @@ impl Styles {
                 .set_background_color(Color::RGB(HEADER_FILL))
                 .set_border_bottom(FormatBorder::Thin),
             kinds: [
-                Format::new(),
+                Format::new().set_align(FormatAlign::Top),
                 num("0"),
                 num("#,##0"),
                 num("0.00"),
@@ -119,7 +121,9 @@ impl Styles {
                 .set_text_wrap()
                 .set_align(FormatAlign::Top)
                 .set_border(FormatBorder::Thin),
-            datetime: num("yyyy-mm-dd hh:mm \"UTC\"").set_align(FormatAlign::Left),
+            datetime: Format::new()
+                .set_num_format("yyyy-mm-dd hh:mm \"UTC\"")
+                .set_align(FormatAlign::Left),
             text: Format::new(),
             int_left: num("0").set_align(FormatAlign::Left),
             indent: Format::new().set_indent(1),

@@ -20,6 +20,8 @@ use crate::results::Report;
 pub const CHART_DATA: &str = "Chart data";
 /// Most points per class in the wall-index / column-index chart (highest priorities first).
 pub const SCATTER_POINTS_PER_CLASS: usize = 5_000;
+/// Summary rows up to which the sheet is printed on one page (beyond, one page wide).
+const SUMMARY_ONE_PAGE_ROWS: u32 = 110;
 /// Bars in the governing-DCR chart.
 pub const TOP_BARS: usize = 30;
 /// Most points on the cumulative-cost curve (evenly thinned beyond this).
@@ -861,6 +863,11 @@ pub fn write(
         2,
         styles,
     )?;
+
+    // A Summary of ordinary length prints on one page (a long district list runs on).
+    if w.r <= SUMMARY_ONE_PAGE_ROWS {
+        w.ws.set_print_fit_to_pages(1, 1);
+    }
 
     // Charts to the right of the tables.
     let mut at = 1u32;

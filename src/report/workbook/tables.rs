@@ -174,13 +174,13 @@ pub const PRIORITY: &[Column] = &[
         "Funded by Plan A: in priority order",
         "funded_plan_a",
         Kind::Text,
-        12.0,
+        15.0,
     ),
     col(
         "Funded by Plan B: most people protected",
         "funded_plan_b",
         Kind::Text,
-        12.0,
+        15.0,
     ),
 ];
 
@@ -274,7 +274,7 @@ pub const RETROFIT: &[Column] = &[
         "Funded by Plan B: most people protected",
         "funded_max_occupants",
         Kind::Text,
-        12.0,
+        15.0,
     ),
     col("Note", "note", Kind::Text, 48.0),
 ];
