@@ -480,16 +480,10 @@ fn why_plans_differ(r: &Report) -> String {
     };
     let a = &p.priority_walk;
     let b = &p.max_occupants;
-    let only_a: Vec<&String> = a
-        .funded
-        .iter()
-        .filter(|id| !b.funded.contains(id))
-        .collect();
-    let only_b: Vec<&String> = b
-        .funded
-        .iter()
-        .filter(|id| !a.funded.contains(id))
-        .collect();
+    let in_a: std::collections::HashSet<&String> = a.funded.iter().collect();
+    let in_b: std::collections::HashSet<&String> = b.funded.iter().collect();
+    let only_a: Vec<&String> = a.funded.iter().filter(|id| !in_b.contains(id)).collect();
+    let only_b: Vec<&String> = b.funded.iter().filter(|id| !in_a.contains(id)).collect();
     if only_a.is_empty() && only_b.is_empty() {
         return "The two plans fund the same buildings: here, following the priority order \
                 also protects the most people."
