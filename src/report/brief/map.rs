@@ -167,7 +167,8 @@ pub fn symbol(class: u8, x: f64, y: f64, s: f64) -> String {
         .get(usize::from(class.clamp(1, 4) - 1))
         .copied()
         .unwrap_or(0x80_80_80);
-    let style = format!("fill=\"#{fill:06x}\" stroke=\"#111\" stroke-width=\"0.9\"");
+    let stroke = (s * 0.15).clamp(0.3, 0.9);
+    let style = format!("fill=\"#{fill:06x}\" stroke=\"#111\" stroke-width=\"{stroke:.2}\"");
     match class {
         1 => format!(
             "<path d=\"M{x:.1} {:.1}L{:.1} {y:.1}L{x:.1} {:.1}L{:.1} {y:.1}Z\" {style}/>",
@@ -303,20 +304,35 @@ pub fn svg(report: &Report, layers: Option<&MapLayers>) -> Option<String> {
         s.push_str("</g>");
     }
     s.push_str("<g class=\"buildings\">");
+    // Symbols shrink where buildings are dense (about a third of the spacing of an even
+    // spread over the map, between 1.6 and 7 px); the ten highest priorities keep the full
+    // size and are drawn last, on top.
+    let size = (0.35 * (WIDTH * h / located.len().max(1) as f64).sqrt()).clamp(1.6, SYMBOL);
+    let draw = |s: &mut String, b: &crate::results::BuildingResult, lon: f64, lat: f64, size| {
+        let (x, y) = f.px(lon, lat);
+        let _ = write!(
+            s,
+            "<g data-id=\"{}\"><title>{} — {} — class {} {}</title>{}</g>",
+            esc(&b.id),
+            esc(&b.id),
+            esc(&b.name),
+            b.class,
+            class_name(b.class),
+            symbol(b.class, x, y, size)
+        );
+    };
     for class in [4u8, 3, 2, 1] {
-        for (b, (lon, lat)) in located.iter().filter(|(b, _)| b.class == class) {
-            let (x, y) = f.px(*lon, *lat);
-            let _ = write!(
-                s,
-                "<g data-id=\"{}\"><title>{} — {} — class {} {}</title>{}</g>",
-                esc(&b.id),
-                esc(&b.id),
-                esc(&b.name),
-                b.class,
-                class_name(b.class),
-                symbol(b.class, x, y, SYMBOL)
-            );
+        for (b, (lon, lat)) in located
+            .iter()
+            .filter(|(b, _)| b.class == class && b.rank > LABELLED)
+        {
+            draw(&mut s, b, *lon, *lat, size);
         }
+    }
+    let mut top: Vec<_> = located.iter().filter(|(b, _)| b.rank <= LABELLED).collect();
+    top.sort_by_key(|(b, _)| std::cmp::Reverse(b.rank));
+    for (b, (lon, lat)) in top {
+        draw(&mut s, b, *lon, *lat, SYMBOL);
     }
     s.push_str("</g><g class=\"ranks\">");
     for (b, (lon, lat)) in located.iter().filter(|(b, _)| b.rank <= LABELLED) {
