@@ -220,8 +220,8 @@ fn summary_opens_with_the_decision_and_ends_with_the_tool_parameters() {
     assert!(at("SHA-256 of the file") > params);
     assert!(at("Spectrum [spectrum]") > params);
     // No technical plan names in the decision block.
-    for r in decision..at("Counts") {
-        let t = col_a[r].to_lowercase();
+    for label in &col_a[decision..at("Counts")] {
+        let t = label.to_lowercase();
         assert!(
             !t.contains("knapsack") && !t.contains("priority walk"),
             "{t}"

@@ -41,13 +41,36 @@ const BAND: f64 = 30.0;
 /// Buildings labelled by rank.
 const LABELLED: usize = 10;
 
+/// A list of (longitude, latitude) points in degrees.
+pub type Line = Vec<(f64, f64)>;
+
+/// One district of the map.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct DistrictShape {
+    /// Name.
+    pub name: String,
+    /// Rings (outer and holes), each a closed line.
+    pub rings: Vec<Line>,
+    /// Where the name goes (the shape's centroid).
+    pub centroid: Option<(f64, f64)>,
+}
+
+/// One fault trace of the map.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct FaultLine {
+    /// Name.
+    pub name: String,
+    /// Polylines.
+    pub parts: Vec<Line>,
+}
+
 /// District polygons and fault traces for the map, in longitude/latitude degrees.
 #[derive(Debug, Clone, Default, PartialEq)]
 pub struct MapLayers {
-    /// Districts: name and rings (each ring a closed list of (lon, lat)).
-    pub districts: Vec<(String, Vec<Vec<(f64, f64)>>, Option<(f64, f64)>)>,
-    /// Fault traces: name and polylines of (lon, lat).
-    pub faults: Vec<(String, Vec<Vec<(f64, f64)>>)>,
+    /// Districts.
+    pub districts: Vec<DistrictShape>,
+    /// Fault traces.
+    pub faults: Vec<FaultLine>,
 }
 
 impl MapLayers {
@@ -64,20 +87,22 @@ impl MapLayers {
                         rings.push(i.coords().map(|c| (c.x, c.y)).collect());
                     }
                 }
-                let c = d.shape.centroid().map(|c| (c.x(), c.y()));
-                (d.name.clone(), rings, c)
+                DistrictShape {
+                    name: d.name.clone(),
+                    rings,
+                    centroid: d.shape.centroid().map(|c| (c.x(), c.y())),
+                }
             })
             .collect();
         let faults = g
             .faults()
-            .map(|f| {
-                (
-                    f.name.clone(),
-                    f.parts
-                        .iter()
-                        .map(|p| p.iter().map(|q| (q.lon, q.lat)).collect())
-                        .collect(),
-                )
+            .map(|f| FaultLine {
+                name: f.name.clone(),
+                parts: f
+                    .parts
+                    .iter()
+                    .map(|p| p.iter().map(|q| (q.lon, q.lat)).collect())
+                    .collect(),
             })
             .collect();
         MapLayers { districts, faults }
@@ -251,7 +276,7 @@ pub fn svg(report: &Report, layers: Option<&MapLayers>) -> Option<String> {
     );
     if let Some(l) = layers {
         s.push_str("<g class=\"districts\">");
-        for (name, rings, _) in &l.districts {
+        for DistrictShape { name, rings, .. } in &l.districts {
             let d: String = rings.iter().map(|r| path_of(&f, r, true)).collect();
             let _ = write!(
                 s,
@@ -260,8 +285,8 @@ pub fn svg(report: &Report, layers: Option<&MapLayers>) -> Option<String> {
                 esc(name)
             );
         }
-        for (name, _, c) in &l.districts {
-            if let Some((lon, lat)) = c {
+        for DistrictShape { name, centroid, .. } in &l.districts {
+            if let Some((lon, lat)) = centroid {
                 let p = f.px(*lon, *lat);
                 if f.inside(p) {
                     let _ = write!(
@@ -275,7 +300,7 @@ pub fn svg(report: &Report, layers: Option<&MapLayers>) -> Option<String> {
             }
         }
         s.push_str("</g><g class=\"faults\">");
-        for (name, parts) in &l.faults {
+        for FaultLine { name, parts } in &l.faults {
             for part in parts {
                 let _ = write!(
                     s,
@@ -390,7 +415,7 @@ pub fn svg(report: &Report, layers: Option<&MapLayers>) -> Option<String> {
 /// trace's nearest vertex, with its name and distance from the map's centre.
 fn off_map_faults(s: &mut String, f: &Frame, l: &MapLayers) {
     let (cx, cy) = (WIDTH / 2.0, f.height / 2.0);
-    for (name, parts) in &l.faults {
+    for FaultLine { name, parts } in &l.faults {
         let pts: Vec<(f64, f64)> = parts
             .iter()
             .flatten()

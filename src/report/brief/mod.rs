@@ -368,10 +368,10 @@ fn map_section(o: &mut String, brief: &Brief<'_>) {
                  <path d=\"M1 5H25\" stroke=\"#222\" stroke-width=\"2.4\" stroke-dasharray=\"10 4 2 4\"/></svg>fault trace</span>\
                  <span><b>7</b> rank (the ten highest priorities)</span></div>\n",
             );
-            let _ = write!(
+            let _ = writeln!(
                 o,
                 "<p class=\"note\">{} of {} buildings have coordinates and are drawn; local \
-                 equirectangular projection, north up.{}</p>\n",
+                 equirectangular projection, north up.{}</p>",
                 count(located as u64),
                 count(r.buildings.len() as u64),
                 if brief.layers.is_none_or(|l| l.districts.is_empty()) {

@@ -260,8 +260,7 @@ fn write_table_sheet(
     rows: usize,
     styles: &Styles,
     fit_rows: bool,
-    progress: Progress<'_>,
-    done: &AtomicU64,
+    (progress, done): (Progress<'_>, &AtomicU64),
 ) -> Result<(), ReportError> {
     let cols = table.columns();
     ws.set_name(table.sheet_name())?;
@@ -513,7 +512,7 @@ fn build_and_save(
     }
     bins.into_par_iter().try_for_each(|bin| {
         bin.into_iter().try_for_each(|(t, rows, ws)| {
-            write_table_sheet(ws, report, *t, *rows, &styles, fit_rows, progress, &done)
+            write_table_sheet(ws, report, *t, *rows, &styles, fit_rows, (progress, &done))
         })
     })?;
     for (t, _, ws) in sheets {
