@@ -616,6 +616,8 @@ pub struct TopColumn {
     pub numeric: bool,
     /// Share of the table width (%), 0 = automatic.
     pub width: u8,
+    /// Whether the column applies to a run (e.g. only with `--samples`).
+    pub shown: fn(&Report) -> bool,
     /// The cell of one building.
     pub cell: fn(&BuildingResult, &Report) -> String,
 }
@@ -639,12 +641,14 @@ fn plan_cell(b: &BuildingResult, r: &Report, best: bool) -> String {
 pub const TOP_COLUMNS: &[TopColumn] = &[
     TopColumn {
         header: "Rank",
+        shown: |_| true,
         width: 0,
         numeric: true,
         cell: |b, _| b.rank.to_string(),
     },
     TopColumn {
         header: "Building",
+        shown: |_| true,
         width: 24,
         numeric: false,
         cell: |b, _| {
@@ -663,24 +667,28 @@ pub const TOP_COLUMNS: &[TopColumn] = &[
     },
     TopColumn {
         header: "Class",
+        shown: |_| true,
         width: 0,
         numeric: false,
         cell: |b, _| format!("{}{}", map::symbol_icon(b.class), b.class),
     },
     TopColumn {
         header: "Score",
+        shown: |_| true,
         width: 0,
         numeric: true,
         cell: |b, _| super::people::sig4(b.score).unwrap_or_else(|| "not computed".into()),
     },
     TopColumn {
         header: "People",
+        shown: |_| true,
         width: 0,
         numeric: true,
         cell: |b, _| b.occupants.map_or_else(|| "not given".into(), count),
     },
     TopColumn {
         header: "Warning signs",
+        shown: |_| true,
         width: 34,
         numeric: false,
         cell: |b, _| {
@@ -694,6 +702,7 @@ pub const TOP_COLUMNS: &[TopColumn] = &[
     },
     TopColumn {
         header: "Cost",
+        shown: |_| true,
         width: 0,
         numeric: true,
         cell: |b, r| match &b.retrofit {
@@ -719,12 +728,14 @@ pub const TOP_COLUMNS: &[TopColumn] = &[
     },
     TopColumn {
         header: "Plan A",
+        shown: |_| true,
         width: 0,
         numeric: false,
         cell: |b, r| plan_cell(b, r, false),
     },
     TopColumn {
         header: "Plan B",
+        shown: |_| true,
         width: 0,
         numeric: false,
         cell: |b, r| plan_cell(b, r, true),
@@ -737,7 +748,8 @@ fn top_section(o: &mut String, r: &Report) {
         "<section id=\"top\" class=\"page\">\n<h2>The {} highest priorities</h2>\n<table><thead><tr>",
         TOP.min(r.buildings.len())
     );
-    for c in TOP_COLUMNS {
+    let columns: Vec<&TopColumn> = TOP_COLUMNS.iter().filter(|c| (c.shown)(r)).collect();
+    for c in &columns {
         let _ = write!(
             o,
             "<th{}{}>{}</th>",
@@ -753,7 +765,7 @@ fn top_section(o: &mut String, r: &Report) {
     o.push_str("</tr></thead><tbody>\n");
     for b in r.buildings.iter().take(TOP) {
         o.push_str("<tr>");
-        for c in TOP_COLUMNS {
+        for c in &columns {
             let _ = write!(
                 o,
                 "<td{}>{}</td>",

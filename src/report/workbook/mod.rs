@@ -564,6 +564,17 @@ mod tests {
     }
 
     #[test]
+    fn wrapped_lines_keep_words_whole() {
+        // Width 10 holds 11 characters a line (10 × 1.15, rounded down).
+        assert_eq!(wrapped_lines("", 10.0), 1);
+        assert_eq!(wrapped_lines("short", 10.0), 1);
+        assert_eq!(wrapped_lines("abcde fghij", 10.0), 1); // 11 characters
+        assert_eq!(wrapped_lines("abcde fghijk", 10.0), 2);
+        assert_eq!(wrapped_lines("one two three four five six", 10.0), 3);
+        assert_eq!(wrapped_lines("a\nb", 10.0), 2);
+    }
+
+    #[test]
     fn cut_keeps_short_text_and_cuts_long_text_at_a_char_boundary() {
         assert_eq!(cut("abc"), "abc");
         let long = "é".repeat(40_000);
