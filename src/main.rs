@@ -82,12 +82,17 @@ impl InputArgs {
 enum Command {
     /// Screen an inventory and write the results workbook (and JSON/CSV/GeoJSON on request).
     Screen(ScreenArgs),
-    /// Validate an inventory only; list every problem. Exit 0 when screening can proceed.
+    /// Validate an inventory with screen's resolution (hazard, districts, faults, defaults);
+    /// list every problem and every row screen would leave out. Exit 1 when no row can be
+    /// screened (with --strict: on any error), else 0.
     Check {
         /// Inventory (.xlsx, .xlsm, .xls, .ods or .csv).
         inventory: PathBuf,
         #[command(flatten)]
         input: InputArgs,
+        /// Exit 1 on any error, not only when no row can be screened (for pipelines).
+        #[arg(long)]
+        strict: bool,
     },
     /// Show every step of the method for one building, with numbers, defaults and sources.
     Explain {
@@ -101,7 +106,7 @@ enum Command {
         #[command(flatten)]
         input: InputArgs,
     },
-    /// Write the blank inventory workbook.
+    /// Write the blank inventory workbook (and, with --settings, the documented settings file).
     Template {
         /// Output workbook.
         #[arg(
@@ -110,6 +115,9 @@ enum Command {
             value_name = "FILE.xlsx"
         )]
         out: PathBuf,
+        /// Also write the documented settings file (every key with its default and source).
+        #[arg(long, value_name = "FILE.toml")]
+        settings: Option<PathBuf>,
     },
     /// Write and screen the bundled invented demo inventory.
     Demo {
@@ -142,20 +150,20 @@ struct ScreenArgs {
     inventory: PathBuf,
     #[command(flatten)]
     input: InputArgs,
-    /// Results workbook (default output/<inventory stem>-screening.xlsx).
-    #[arg(long, value_name = "FILE.xlsx")]
+    /// Results workbook (default output/<inventory stem>-screening.xlsx; must end in .xlsx).
+    #[arg(long, value_name = "FILE.xlsx", value_parser = parse_xlsx_path)]
     out: Option<PathBuf>,
-    /// JSON results.
+    /// JSON results (`-` = standard output).
     #[arg(long, value_name = "FILE")]
     json: Option<PathBuf>,
-    /// Priority table as CSV.
+    /// Priority table as CSV (`-` = standard output).
     #[arg(long, value_name = "FILE")]
     csv: Option<PathBuf>,
-    /// Buildings with coordinates as GeoJSON points.
+    /// Buildings with coordinates as GeoJSON points (`-` = standard output).
     #[arg(long, value_name = "FILE")]
     geojson: Option<PathBuf>,
-    /// Retrofit budget (currency-neutral).
-    #[arg(long, value_name = "AMOUNT")]
+    /// Retrofit budget, a positive amount (currency-neutral): 2000000 or 2_000_000.
+    #[arg(long, value_name = "AMOUNT", value_parser = parse_budget)]
     budget: Option<f64>,
     /// Officials' brief, one self-contained HTML page (default: <out stem>-brief.html beside
     /// the workbook when the stock has coordinates or a budget plan).
@@ -170,6 +178,43 @@ struct ScreenArgs {
     /// Print only errors.
     #[arg(long)]
     quiet: bool,
+}
+
+/// `--budget`: a positive amount, digits optionally grouped by `_` (`2_000_000`); commas,
+/// periods as thousands separators and spaces are refused with a hint (locale-ambiguous).
+fn parse_budget(text: &str) -> Result<f64, String> {
+    let t = text.trim();
+    if t.contains(',') || t.contains(' ') || t.contains('\'') {
+        return Err(format!(
+            "expected a positive amount such as 2000000 or 2_000_000, found \"{t}\": write it without commas, spaces or apostrophes (a comma is a thousands separator in one locale and a decimal mark in another)"
+        ));
+    }
+    let plain = t.replace('_', "");
+    let ok_underscores = !t.starts_with('_') && !t.ends_with('_') && !t.contains("__");
+    match plain.parse::<f64>() {
+        Ok(v) if ok_underscores && v.is_finite() && v > 0.0 => Ok(v),
+        Ok(v) if ok_underscores && v.is_finite() => Err(format!(
+            "expected a positive amount, found {t}: leave --budget out for no budget plan"
+        )),
+        _ => Err(format!(
+            "expected a positive amount such as 2000000 or 2_000_000, found \"{t}\""
+        )),
+    }
+}
+
+/// `--out`: a workbook path ending in .xlsx.
+fn parse_xlsx_path(text: &str) -> Result<PathBuf, String> {
+    let p = PathBuf::from(text);
+    let is_xlsx = p
+        .extension()
+        .is_some_and(|e| e.eq_ignore_ascii_case("xlsx"));
+    if is_xlsx {
+        Ok(p)
+    } else {
+        Err(format!(
+            "expected a workbook path ending in .xlsx, found \"{text}\": --out writes the results workbook; use --csv FILE for the Priority table as CSV, --json FILE for JSON, --geojson FILE for GeoJSON"
+        ))
+    }
 }
 
 /// Exit code of a run interrupted by Ctrl-C (SIGINT), SIGTERM or SIGHUP: 128 + 2, the
@@ -199,16 +244,18 @@ fn main() -> ExitCode {
             threads: a.threads.map(|n| n as usize),
             quiet: a.quiet,
         }),
-        Command::Check { inventory, input } => {
-            cmd::check::run(&inventory, &input.run_options(None))
-        }
+        Command::Check {
+            inventory,
+            input,
+            strict,
+        } => cmd::check::run(&inventory, &input.run_options(None), strict),
         Command::Explain {
             inventory,
             id,
             full,
             input,
         } => cmd::explain::run(&inventory, &id, &input.run_options(None), full),
-        Command::Template { out } => cmd::template::run(&out),
+        Command::Template { out, settings } => cmd::template::run(&out, settings.as_deref()),
         Command::Demo { out, quiet } => cmd::demo::run(&out, quiet),
         Command::Generate {
             buildings,

@@ -350,6 +350,10 @@ pub struct Inventory {
     pub rows: usize,
     /// Blank rows skipped in the buildings sheet.
     pub blank_rows: usize,
+    /// Rows of the `eras` sheet (without errors): they replace the settings' era table
+    /// when present (inventory.md).
+    #[serde(default)]
+    pub eras: Vec<crate::settings::Era>,
 }
 
 /// Hazard and district data that geography gives a building (method §0, geography issue).

@@ -41,12 +41,12 @@ pub enum PipelineError {
     #[error(transparent)]
     Input(#[from] InputError),
     /// The settings file is bad.
-    #[error("{path}: {source}")]
+    #[error("{path}: {error}")]
     Settings {
         /// Settings file path.
         path: String,
-        /// What is wrong.
-        source: SettingsError,
+        /// What is wrong (not a `source`: the message holds it once, not twice).
+        error: SettingsError,
     },
     /// The settings file cannot be read.
     #[error("{path}: cannot read the settings file: {message}")]
@@ -102,10 +102,21 @@ pub fn settle_sheet_settings(
     for (i, (key, value)) in inventory_rows.iter().enumerate() {
         let mut trial = settings.clone();
         match trial
-            .set_from_text(key.trim(), value)
-            .and_then(|()| trial.validate())
+            .set_from_text_noted(key.trim(), value)
+            .and_then(|notes| trial.validate().map(|()| notes))
         {
-            Ok(()) => settings = trial,
+            Ok(notes) => {
+                settings = trial;
+                for message in notes {
+                    problems.push(Problem {
+                        sheet: "settings".into(),
+                        row: row_numbers.get(i).copied(),
+                        column: key.clone(),
+                        message,
+                        severity: Severity::Warning,
+                    });
+                }
+            }
             Err(e) => problems.push(Problem {
                 sheet: "settings".into(),
                 row: row_numbers.get(i).copied(),
@@ -120,12 +131,21 @@ pub fn settle_sheet_settings(
             path: path.display().to_string(),
             message: e.to_string(),
         })?;
-        settings
-            .apply_toml(&text)
-            .map_err(|source| PipelineError::Settings {
+        let notes = settings
+            .apply_toml_noted(&text)
+            .map_err(|error| PipelineError::Settings {
                 path: path.display().to_string(),
-                source,
+                error,
             })?;
+        for (key, message) in notes {
+            problems.push(Problem {
+                sheet: path.display().to_string(),
+                row: None,
+                column: key,
+                message,
+                severity: Severity::Warning,
+            });
+        }
     }
     if let Some(level) = opts.level {
         settings.ranking_level = level;
@@ -135,11 +155,38 @@ pub fn settle_sheet_settings(
     }
     settings
         .validate()
-        .map_err(|source| PipelineError::Settings {
+        .map_err(|error| PipelineError::Settings {
             path: "settings".into(),
-            source,
+            error,
         })?;
     Ok(settings)
+}
+
+/// The inventory's `eras` sheet, when it has rows, replaces the settings' era table
+/// (inventory.md, sheet `eras`); a warning says so when the settings had one too.
+fn with_eras_sheet(
+    mut settings: Settings,
+    inventory: &Inventory,
+    problems: &mut Vec<Problem>,
+) -> Settings {
+    if inventory.eras.is_empty() {
+        return settings;
+    }
+    if !settings.era.is_empty() && settings.era != inventory.eras {
+        problems.push(Problem {
+            sheet: "eras".into(),
+            row: None,
+            column: String::new(),
+            message: format!(
+                "the eras sheet ({} rows) replaces the settings' era table ({} rows)",
+                inventory.eras.len(),
+                settings.era.len()
+            ),
+            severity: Severity::Warning,
+        });
+    }
+    settings.era = inventory.eras.clone();
+    settings
 }
 
 /// SHA-256 of a file, hex, read in blocks (an inventory may be gigabytes); empty when the
@@ -190,6 +237,7 @@ pub fn load(path: &Path, opts: &RunOptions) -> Result<Loaded, PipelineError> {
     };
     let mut problems = std::mem::take(&mut inventory.problems);
     problems.append(&mut sheet_problems);
+    let settings = with_eras_sheet(settings, &inventory, &mut problems);
     let (geo, geo_problems) = Geography::load(opts.districts.as_deref(), opts.faults.as_deref())?;
     problems.extend(geo_problems);
     let (sites, site_problems) = crate::geography::locate(&inventory.buildings, &geo, &settings);
@@ -204,6 +252,30 @@ pub fn load(path: &Path, opts: &RunOptions) -> Result<Loaded, PipelineError> {
         settings,
         sites,
     })
+}
+
+/// The rows `screen` would leave out at resolution (method §0: hazard from the row, the
+/// district or the settings; every default), with `screen`'s reasons, without the
+/// computation: what `check` lists. The same function `screen` fails a building with
+/// ([`engine::resolve::resolve`] is the only step of a building's screening that refuses).
+pub fn unresolved(loaded: &Loaded) -> Vec<crate::model::NotScreened> {
+    use rayon::prelude::*;
+    let inputs = engine::building_inputs(&loaded.inventory, &loaded.sites);
+    let mut out: Vec<crate::model::NotScreened> = inputs
+        .par_iter()
+        .filter_map(|i| {
+            engine::resolve::resolve(i, &loaded.settings)
+                .err()
+                .map(|reasons| crate::model::NotScreened {
+                    sheet: "buildings".into(),
+                    row: i.record.row,
+                    id: i.record.id.clone(),
+                    reasons,
+                })
+        })
+        .collect();
+    out.sort_by_key(|n| n.row);
+    out
 }
 
 /// Screens a loaded inventory: engine, retrofit sizing, budget plan, counts.

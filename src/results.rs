@@ -67,11 +67,54 @@ pub struct DirectionResult {
     pub drift_demand: Groups<f64>,
     /// Chord-rotation capacity of each group (walls: per-level minimum over the walls).
     pub capacity: Groups<Levels>,
-    /// Demand/capacity ratios.
+    /// Demand/capacity ratios (the frame-alone bound of method §9 applied at LS and CP).
     pub dcr: Levels,
+    /// The frame-alone bound of method §9; `None` where it does not apply (no columns, or
+    /// no RC walls in the direction).
+    pub frame_alone: Option<FrameAlone>,
+    /// DCR of each element group before the frame-alone bound (walls: per-level minimum
+    /// capacity, new walls included); `None` where the group is absent.
+    #[serde(skip)]
+    pub group_dcr: Groups<Levels>,
     /// Every intermediate number of the method for this direction.
     #[serde(skip)]
     pub detail: DirectionDetail,
+}
+
+/// A value at the two levels the frame-alone bound applies to.
+#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize)]
+pub struct LsCp<T> {
+    /// Life Safety.
+    pub ls: T,
+    /// Collapse Prevention.
+    pub cp: T,
+}
+
+/// The frame-alone bound of one direction (method §9; JSON `directions.d.frame_alone`):
+/// §3–§7 run with the direction's RC walls removed (existing and new), κ_frame or κ_soft
+/// from the as-surveyed soft/weak storey flags, the building's own column capacities.
+#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize)]
+pub struct FrameAlone {
+    /// Period of the frame alone (s).
+    pub period_s: f64,
+    /// Roof drift demand of the frame alone.
+    pub roof_drift_demand: f64,
+    /// Column drift demand κ·δ_r,frame.
+    pub drift_demand_columns: f64,
+    /// DCR_frame at LS and CP.
+    pub dcr: LsCp<f64>,
+    /// C_y of the frame alone = C_m + C_c.
+    #[serde(skip)]
+    pub strength_coefficient: f64,
+    /// Se(T) of the frame alone (g).
+    #[serde(skip)]
+    pub se_g: f64,
+    /// κ used (κ_frame or κ_soft).
+    #[serde(skip)]
+    pub kappa: f64,
+    /// Whether the bound governs (is strictly lower than the DCR with the walls).
+    #[serde(skip)]
+    pub governs: LsCp<bool>,
 }
 
 /// Intermediate numbers of one direction, in method order (for the Directions sheet and
@@ -84,11 +127,16 @@ pub struct DirectionDetail {
     pub infill_area_m2: f64,
     /// RC wall index WIrc,d = A_cw,d / A_fl (%).
     pub rc_wall_index_pct: f64,
-    /// Wall part of the strength coefficient C_w,d.
+    /// Wall part of the strength coefficient C_w,d = C_rc,d + C_m,d (RC walls, new walls
+    /// included, and infill).
     pub strength_walls: f64,
+    /// Infill part C_m,d (included in `strength_walls`).
+    pub strength_infill: f64,
+    /// True when the wall-governed combination C_rc + α1·C_c gives C_y (method §3).
+    pub wall_governed: bool,
     /// Column part C_c (before alpha1).
     pub strength_columns: f64,
-    /// alpha1.
+    /// Column factor of the combination that gives C_y: α1 (wall-governed) or 1 (column-governed).
     pub alpha1: f64,
     /// C_y,d.
     pub strength_coefficient: f64,
@@ -139,6 +187,8 @@ pub struct BuildingDetail {
     pub height_m: f64,
     /// Total floor area A_fl (m²).
     pub floor_area_m2: f64,
+    /// Typical storey plan area A_plan (m²).
+    pub plan_area_m2: f64,
     /// Seismic weight W (kN).
     pub weight_kn: f64,
     /// Concrete strength used (MPa).
@@ -230,6 +280,8 @@ pub struct Governing {
     pub group: Group,
     /// Ranking level.
     pub level: Level,
+    /// True when the frame-alone bound of method §9 gives the score.
+    pub frame_alone: bool,
 }
 
 /// Retrofit sizing of one building (method §12).
@@ -245,11 +297,17 @@ pub struct Retrofit {
     pub replace: Option<bool>,
     /// Soft/weak storey codes that remain with the new walls.
     pub flags_after: Vec<String>,
+    /// Short-column flag: the captive columns need their own remedy (method §12).
+    pub column_remedy: bool,
     /// Funded by the priority walk (None without a budget plan).
     pub funded: Option<bool>,
     /// Funded by the max-occupants plan (None without a budget plan).
     #[serde(skip)]
     pub funded_best: Option<bool>,
+    /// Why the building is left out of both budget plans (`budget_plan.excluded`), when a
+    /// plan was made and it has no amount to fund.
+    #[serde(skip)]
+    pub excluded: Option<String>,
     /// Plain-words note ("no wall solution within the cap — detailed study or replacement").
     #[serde(skip)]
     pub note: String,
@@ -349,6 +407,17 @@ pub struct BudgetPlan {
     pub priority_walk: FundingPlan,
     /// 0/1 knapsack maximising occupants protected.
     pub max_occupants: FundingPlan,
+    /// Buildings with a retrofit record and no amount to fund, with the reason (in rank order).
+    pub excluded: Vec<Excluded>,
+}
+
+/// A building left out of both budget plans (JSON `budget_plan.excluded[]`).
+#[derive(Debug, Clone, PartialEq, Default, Serialize)]
+pub struct Excluded {
+    /// Building id.
+    pub id: String,
+    /// Why it has no amount to fund.
+    pub reason: String,
 }
 
 /// Counts per class (JSON `counts.by_class`).

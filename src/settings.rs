@@ -14,14 +14,16 @@ The key names of `interface.md` are fixed; keys the project adds are documented 
 
 use serde::{Deserialize, Serialize};
 use std::fmt;
-use std::str::FromStr;
 
 /// Errors raised while loading or applying settings.
 #[derive(Debug, thiserror::Error, PartialEq)]
 pub enum SettingsError {
     /// A key that the settings table does not hold.
-    #[error("unknown settings key `{0}`")]
+    #[error("unknown settings key `{0}`{hint}", hint = nearest_hint(.0))]
     UnknownKey(String),
+    /// Keys of one file that the settings table does not hold, all at once.
+    #[error("unknown settings keys: {}", .0.iter().map(|k| format!("`{k}`{}", nearest_hint(k))).collect::<Vec<_>>().join(", "))]
+    UnknownKeys(Vec<String>),
     /// A value that cannot be read for its key.
     #[error("settings key `{key}`: expected {expected}, found `{found}`")]
     BadValue {
@@ -44,6 +46,17 @@ pub enum SettingsError {
         message: String,
     },
 }
+
+/// One unit-mistake check of a settings default: (key, value, what, unit, range, likely
+/// slips as (unit, multiplier, divisor)).
+type LimitCheck = (
+    &'static str,
+    f64,
+    &'static str,
+    &'static str,
+    (f64, f64),
+    &'static [(&'static str, f64, f64)],
+);
 
 /// Ground type of EN 1998-1 Table 3.1.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord, Serialize, Deserialize)]
@@ -143,10 +156,50 @@ pub trait SettingValue: Sized {
     fn to_text(&self) -> String;
 }
 
+/// A settings number: the inventory's survey-number reader
+/// ([`crate::input::parse::survey_number`]) — the same rules in the TOML file, the
+/// settings sheet and the cells — taking only a reading that needs no check: a unit after
+/// the number and an ambiguous "1,200" are settled by [`Settings::set_from_text_noted`].
 fn parse_number(text: &str) -> Option<f64> {
-    let t = text.trim().replace(',', ".");
-    let v = f64::from_str(&t).ok()?;
-    v.is_finite().then_some(v)
+    let n = crate::input::parse::survey_number(text, false, false).ok()?;
+    (n.unit.is_none() && n.alternative.is_none()).then_some(n.value)
+}
+
+/// Settings keys renamed by a revision of the contract: (old key, new key, how an old
+/// value becomes a new one). An old key is accepted with a warning naming the new one.
+pub const RENAMED_KEYS: &[(&str, &str, Rename)] = &[(
+    "wall_capacity_factor",
+    "wall_rotation_divisor",
+    Rename::Reciprocal,
+)];
+
+/// How the value of a renamed key carries over.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Rename {
+    /// The same value under the new name.
+    Same,
+    /// The new key divides where the old one multiplied: new = 1 / old (revision 6,
+    /// method §8: the wall rotation factor 0.58 became the divisor 1.6 of EN 1998-3
+    /// §A.3.2.2(2)).
+    Reciprocal,
+}
+
+/// The nearest known key to an unknown one (Jaro–Winkler similarity of `strsim`, at least
+/// 0.8), or a renamed key's new name.
+pub fn nearest_key(key: &str) -> Option<&'static str> {
+    if let Some((_, new, _)) = RENAMED_KEYS.iter().find(|(old, _, _)| *old == key) {
+        return Some(new);
+    }
+    KEYS.iter()
+        .map(|k| (k.key, strsim::jaro_winkler(key, k.key)))
+        .chain(std::iter::once(("era", strsim::jaro_winkler(key, "era"))))
+        .filter(|(_, s)| *s >= 0.8)
+        .max_by(|a, b| a.1.total_cmp(&b.1))
+        .map(|(k, _)| k)
+}
+
+fn nearest_hint(key: &str) -> String {
+    nearest_key(key).map_or_else(String::new, |k| format!(" (did you mean `{k}`?)"))
 }
 
 impl SettingValue for f64 {
@@ -383,7 +436,7 @@ settings_table! {
     fc_reference_mpa: f64 = 20.0; "[src] JBDPA 2001 (beta = fc/20, sqrt branch mem)";
         "Reference concrete strength of the strength factor beta (MPa).";
     alpha1_with_walls: f64 = 0.7; "[src] JBDPA 2001 (mem)";
-        "Column strength participation alpha1 when RC walls exist in the direction.";
+        "Column participation alpha1 in the wall-governed strength: C_y = C_m + max(C_rc + alpha1 C_c, C_c).";
     // ---- period (method §4) ----
     ct_period: f64 = 0.075; "[src] EN 1998-1 eqs. (4.6)/(4.7)";
         "Period coefficient Ct (s/m^0.75).";
@@ -403,8 +456,8 @@ settings_table! {
     // ---- capacity (method §8) ----
     gamma_el: f64 = 1.5; "[src] EN 1998-3 §A.3.2.2(1)";
         "gamma_el for primary seismic elements in eq. (A.1).";
-    wall_capacity_factor: f64 = 0.58; "[src] EN 1998-3 §A.3.2.2(1), note on walls";
-        "Factor on theta_um for walls.";
+    wall_rotation_divisor: f64 = 1.6; "[src] EN 1998-3:2005 §A.3.2.2(2) (wording and paragraph from memory)";
+        "Divisor on theta_um of eq. (A.1) for walls (the 0.58 of later papers is not the standard's).";
     no_detailing_divisor: f64 = 1.2; "[mem] EN 1998-3 §A.3.2.2(2)";
         "Divisor on theta_um for members without seismic detailing.";
     confined_alpha: f64 = 0.5; "[screening]";
@@ -490,6 +543,8 @@ settings_table! {
         "Cost of finishes and foundations per m2 of floor area (currency-neutral).";
     replacement_cost_m2: Option<f64> = None; "[project] no default: prices are local";
         "Replacement cost per m2 of floor area (currency-neutral).";
+    unit_cost_short_column_m2: Option<f64> = None; "[project] no default: prices are local";
+        "Captive-column remedy per m2 of ground-storey plan A_plan (currency-neutral); empty = such buildings are not costed.";
     replace_ratio: f64 = 0.40; "[practice, mem]";
         "Recommend replacement when retrofit cost exceeds this fraction of replacement cost.";
     budget: Option<f64> = None; "[project]";
@@ -519,7 +574,7 @@ impl Settings {
     ) -> Vec<SettingsError> {
         let mut errors = Vec::new();
         for (k, v) in pairs {
-            if let Err(e) = self.set_from_text(k.trim(), v) {
+            if let Err(e) = self.set_from_text_noted(k.trim(), v) {
                 errors.push(e);
             }
         }
@@ -527,10 +582,28 @@ impl Settings {
     }
 
     /// Applies a TOML settings file: every key present overrides the current value; the
-    /// `[[era]]` array replaces the era table.
+    /// `[[era]]` array replaces the era table. See [`Settings::apply_toml_noted`].
     pub fn apply_toml(&mut self, text: &str) -> Result<(), SettingsError> {
+        self.apply_toml_noted(text).map(|_| ())
+    }
+
+    /// [`Settings::apply_toml`], returning the warnings of the readings (a renamed key, a
+    /// decimal comma, a unit after the number, …) as (key, message). Every unknown key of
+    /// the file is reported at once, each with the nearest known key.
+    pub fn apply_toml_noted(&mut self, text: &str) -> Result<Vec<(String, String)>, SettingsError> {
         let table: toml::Table =
             toml::from_str(text).map_err(|e| SettingsError::Toml(e.to_string()))?;
+        let unknown: Vec<String> = table
+            .keys()
+            .filter(|k| {
+                k.as_str() != "era" && self.value_text(k).is_none() && self.renamed(k).is_none()
+            })
+            .cloned()
+            .collect();
+        if !unknown.is_empty() {
+            return Err(SettingsError::UnknownKeys(unknown));
+        }
+        let mut notes = Vec::new();
         for (key, value) in table {
             if key == "era" {
                 self.era = value
@@ -550,9 +623,98 @@ impl Settings {
                     });
                 }
             };
-            self.set_from_text(&key, &text)?;
+            for n in self.set_from_text_noted(&key, &text)? {
+                notes.push((key.clone(), n));
+            }
         }
-        self.validate()
+        self.validate()?;
+        Ok(notes)
+    }
+
+    /// The new key of a renamed one, when this build knows the new key and not the old.
+    fn renamed(&self, key: &str) -> Option<(&'static str, Rename)> {
+        RENAMED_KEYS
+            .iter()
+            .find(|(old, new, _)| {
+                *old == key && self.value_text(old).is_none() && self.value_text(new).is_some()
+            })
+            .map(|(_, new, how)| (*new, *how))
+    }
+
+    /// Sets one key from text the way the inventory's cells are read (one parser,
+    /// [`crate::input::parse::read_survey_text`]): a decimal comma, digit grouping, the
+    /// key's unit after the number (another unit of the same kind converted, any other
+    /// refused), an ambiguous "1,200" put through [`Settings::validate`] both ways. A key
+    /// renamed by a revision of the contract ([`RENAMED_KEYS`]) is accepted under its new
+    /// name. Returns the warnings that say what was done.
+    pub fn set_from_text_noted(
+        &mut self,
+        key: &str,
+        text: &str,
+    ) -> Result<Vec<String>, SettingsError> {
+        let mut notes = Vec::new();
+        let mut key = key.to_string();
+        let mut text = text.to_string();
+        if let Some((new, how)) = self.renamed(&key) {
+            let old = std::mem::replace(&mut key, new.to_string());
+            match how {
+                Rename::Same => notes.push(format!(
+                    "the settings key `{old}` is now `{new}` (revision 6 of the contract); the value is used for `{new}`: rename the key"
+                )),
+                Rename::Reciprocal => {
+                    let v = parse_number(&text).ok_or_else(|| SettingsError::BadValue {
+                        key: old.clone(),
+                        expected: "a number",
+                        found: text.clone(),
+                    })?;
+                    if v <= 0.0 {
+                        return Err(SettingsError::OutOfRange {
+                            key: old,
+                            message: format!("must be greater than 0, found {v}"),
+                        });
+                    }
+                    let new_v = 1.0 / v;
+                    notes.push(format!(
+                        "the settings key `{old}` = {v} is now `{new}` = 1/{v} = {new_v} (revision 6 of the contract: the factor became a divisor); write `{new} = {new_v}` instead"
+                    ));
+                    text = format!("{new_v}");
+                }
+            }
+        }
+        let key = key.as_str();
+        let survey = crate::input::parse::survey_number(&text, false, false);
+        let needs_reading = matches!(&survey, Ok(n) if n.unit.is_some() || n.alternative.is_some() || !n.notes.is_empty());
+        if !needs_reading || self.value_text(key).is_none() {
+            self.set_from_text(key, &text)?;
+            return Ok(notes);
+        }
+        let base = self.clone();
+        let check = |v: f64| -> Result<(), String> {
+            let mut trial = base.clone();
+            trial
+                .set_from_text(key, &format!("{v}"))
+                .and_then(|()| trial.validate())
+                .map_err(|e| e.to_string())
+        };
+        match crate::input::parse::read_survey_text(
+            &text,
+            false,
+            false,
+            key,
+            crate::input::columns::key_unit(key),
+            crate::input::columns::Factor::ONE,
+            &check,
+        ) {
+            crate::input::parse::Checked::Value(v, note) => {
+                self.set_from_text(key, &format!("{v}"))?;
+                notes.extend(note);
+                Ok(notes)
+            }
+            crate::input::parse::Checked::Refused(message) => Err(SettingsError::OutOfRange {
+                key: key.to_string(),
+                message,
+            }),
+        }
     }
 
     /// Checks ranges that would make the method meaningless.
@@ -566,6 +728,7 @@ impl Settings {
             ("default_fc_mpa", self.default_fc_mpa),
             ("default_fy_mpa", self.default_fy_mpa),
             ("gamma_el", self.gamma_el),
+            ("wall_rotation_divisor", self.wall_rotation_divisor),
             ("confidence_factor", self.confidence_factor),
             ("period_factor", self.period_factor),
             ("new_wall_length_m", self.new_wall_length_m),
@@ -602,6 +765,125 @@ impl Settings {
             return Err(SettingsError::OutOfRange {
                 key: "max_storeys".into(),
                 message: format!("must be at least 1, found {}", self.max_storeys),
+            });
+        }
+        // The inventory's unit-mistake limits apply to the settings' defaults too
+        // (inventory.md, "Errors that catch unit mistakes"): a default storey height of
+        // 3100 is a unit mistake in the settings as in a cell.
+        {
+            use crate::input::parse::{
+                UNIT_MISTAKE_COLUMN_DEPTH_M, UNIT_MISTAKE_FLOOR_WEIGHT_KPA,
+                UNIT_MISTAKE_STOREY_HEIGHT_M, UNIT_MISTAKE_WALL_LENGTH_M,
+                UNIT_MISTAKE_WALL_THICKNESS_M, unit_mistake_check,
+            };
+            let length_slips: &'static [(&'static str, f64, f64)] =
+                &[("mm", 1.0, 1000.0), ("cm", 1.0, 100.0)];
+            let checks: [LimitCheck; 10] = [
+                (
+                    "default_storey_height_m",
+                    self.default_storey_height_m,
+                    "a storey height",
+                    "m",
+                    UNIT_MISTAKE_STOREY_HEIGHT_M,
+                    length_slips,
+                ),
+                (
+                    "default_wall_thickness_m",
+                    self.default_wall_thickness_m,
+                    "a wall thickness",
+                    "m",
+                    UNIT_MISTAKE_WALL_THICKNESS_M,
+                    length_slips,
+                ),
+                (
+                    "new_wall_thickness_m",
+                    self.new_wall_thickness_m,
+                    "a wall thickness",
+                    "m",
+                    UNIT_MISTAKE_WALL_THICKNESS_M,
+                    length_slips,
+                ),
+                (
+                    "default_column_depth_m",
+                    self.default_column_depth_m,
+                    "a column depth",
+                    "m",
+                    UNIT_MISTAKE_COLUMN_DEPTH_M,
+                    length_slips,
+                ),
+                (
+                    "default_wall_length_m",
+                    self.default_wall_length_m,
+                    "a wall length",
+                    "m",
+                    UNIT_MISTAKE_WALL_LENGTH_M,
+                    length_slips,
+                ),
+                (
+                    "new_wall_length_m",
+                    self.new_wall_length_m,
+                    "a wall length",
+                    "m",
+                    UNIT_MISTAKE_WALL_LENGTH_M,
+                    length_slips,
+                ),
+                (
+                    "floor_weight_kpa",
+                    self.floor_weight_kpa,
+                    "a floor weight",
+                    "kPa",
+                    UNIT_MISTAKE_FLOOR_WEIGHT_KPA,
+                    &[],
+                ),
+                (
+                    "default_fc_mpa",
+                    self.default_fc_mpa,
+                    "a concrete strength",
+                    "MPa",
+                    (5.0, 120.0),
+                    &[],
+                ),
+                (
+                    "new_wall_fc_mpa",
+                    self.new_wall_fc_mpa,
+                    "a concrete strength",
+                    "MPa",
+                    (5.0, 120.0),
+                    &[],
+                ),
+                (
+                    "default_fy_mpa",
+                    self.default_fy_mpa,
+                    "a steel strength",
+                    "MPa",
+                    (150.0, 700.0),
+                    &[],
+                ),
+            ];
+            for (key, v, what, unit, range, slips) in checks {
+                unit_mistake_check(what, unit, range, slips)(v).map_err(|message| {
+                    SettingsError::OutOfRange {
+                        key: key.into(),
+                        message,
+                    }
+                })?;
+            }
+        }
+        if let Some(v) = self.agr_g {
+            crate::input::parse::agr_check(crate::input::parse::UNIT_MISTAKE_AGR_MAX_G)(v)
+                .map_err(|message| SettingsError::OutOfRange {
+                    key: "agr_g".into(),
+                    message,
+                })?;
+        }
+        if let Some(v) = self.budget
+            && v <= 0.0
+        {
+            return Err(SettingsError::OutOfRange {
+                key: "budget".into(),
+                message: format!(
+                    "expected a positive amount, found {v}; leave it empty for no budget plan"
+                ),
             });
         }
         for (key, v) in [("agr_g", self.agr_g), ("budget", self.budget)] {
@@ -662,10 +944,19 @@ mod tests {
         assert_eq!(s.spectrum, Spectrum::Ec8Type2);
         assert_eq!(s.era.len(), 1);
         let mut s = Settings::default();
-        assert!(matches!(
-            s.apply_toml("agr = 0.2"),
-            Err(SettingsError::UnknownKey(_))
-        ));
+        // Every unknown key at once, each with the nearest known key, in one message.
+        let e = s
+            .apply_toml("agr = 0.2\nbudjet = 5\nzzzz = 1\n")
+            .unwrap_err();
+        assert!(
+            matches!(&e, SettingsError::UnknownKeys(k) if k.len() == 3),
+            "{e:?}"
+        );
+        let m = e.to_string();
+        assert!(m.contains("`agr` (did you mean `agr_g`?)"), "{m}");
+        assert!(m.contains("`budjet` (did you mean `budget`?)"), "{m}");
+        assert!(m.contains("`zzzz`,") || m.ends_with("`zzzz`"), "{m}");
+        assert_eq!(m.matches("unknown").count(), 1, "{m}");
         assert!(matches!(
             s.apply_toml("gamma_el = \"x\""),
             Err(SettingsError::BadValue { .. })
@@ -689,6 +980,67 @@ mod tests {
             );
         }
         assert_eq!(Settings::default().validate(), Ok(()));
+    }
+
+    #[test]
+    fn settings_numbers_follow_the_inventory_rules() {
+        let mut s = Settings::default();
+        // A decimal comma in a TOML text value, a unit after the number, grouping.
+        let notes =
+            s.apply_toml("agr_g = \"0,28\"\nnear_fault_km = \"12 km\"\nbudget = \"2 000 000\"\n");
+        assert_eq!(notes, Ok(()));
+        assert_eq!(s.agr_g, Some(0.28));
+        assert_eq!(s.near_fault_km, 12.0);
+        assert_eq!(s.budget, Some(2_000_000.0));
+        let notes = Settings::default()
+            .apply_toml_noted("agr_g = \"0,28\"\n")
+            .unwrap();
+        assert_eq!(notes.len(), 1, "{notes:?}");
+        // A unit of another kind is refused; so is an agR that looks like m/s².
+        let e = Settings::default()
+            .apply_toml("agr_g = \"0.3 MPa\"")
+            .unwrap_err();
+        assert!(e.to_string().contains("without its unit"), "{e}");
+        // The unit-mistake limits of the inventory hold for the settings' defaults too.
+        let e = Settings::default()
+            .apply_toml("default_storey_height_m = 3100")
+            .unwrap_err();
+        assert!(e.to_string().contains("it looks like mm (3.1 m)"), "{e}");
+        let e = Settings::default().apply_toml("agr_g = 2.943").unwrap_err();
+        assert!(e.to_string().contains("m/s²"), "{e}");
+        // "1,200" as agR: 1200 g is refused, so 1.2 is used with a warning.
+        let mut s = Settings::default();
+        let notes = s.set_from_text_noted("agr_g", "1,200").unwrap();
+        assert_eq!((s.agr_g, notes.len()), (Some(1.2), 1));
+        // "1,200" as a budget: both readings plausible, refused showing both.
+        let e = Settings::default()
+            .set_from_text_noted("budget", "1,200")
+            .unwrap_err()
+            .to_string();
+        assert!(e.contains("1.2") && e.contains("1200"), "{e}");
+    }
+
+    #[test]
+    fn a_renamed_key_is_accepted_under_its_new_name_with_a_warning() {
+        for (old, new, how) in RENAMED_KEYS {
+            let mut s = Settings::default();
+            let known_new = s.value_text(new).is_some();
+            let known_old = s.value_text(old).is_some();
+            // Exactly one of the two names is a key of this build.
+            assert!(known_new != known_old, "{old} / {new}");
+            let notes = s.set_from_text_noted(old, "0.625").unwrap();
+            if known_new {
+                assert_eq!(notes.len(), 1, "{notes:?}");
+                assert!(notes[0].contains(new), "{notes:?}");
+                let expected = match how {
+                    Rename::Same => 0.625,
+                    Rename::Reciprocal => 1.6,
+                };
+                assert_eq!(s.value_text(new), Some(format!("{expected}")));
+            } else {
+                assert!(notes.is_empty());
+            }
+        }
     }
 
     #[test]

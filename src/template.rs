@@ -78,6 +78,9 @@ fn write_sheet(ws: &mut Worksheet, spec: &SheetSpec, bold: &Format) -> Result<()
 
 fn write_readme(ws: &mut Worksheet, bold: &Format, wrap: &Format) -> Result<(), TemplateError> {
     ws.set_name("read-me")?;
+    // Printed (or converted to PDF) one page wide, landscape: the rules stay readable.
+    ws.set_landscape();
+    ws.set_print_fit_to_pages(1, 0);
     ws.set_column_width(0, 14)?;
     ws.set_column_width(1, 26)?;
     ws.set_column_width(2, 30)?;
@@ -87,9 +90,10 @@ fn write_readme(ws: &mut Worksheet, bold: &Format, wrap: &Format) -> Result<(), 
     let mut r = 0u32;
     let lines = [
         "seistriage blank inventory workbook",
-        "Fill one row per building in the sheet 'buildings'. The sheets walls, storeys, footprints and settings are optional; delete the ones you do not use.",
+        "Fill one row per building in the sheet 'buildings'. The sheets walls, storeys, footprints, eras and settings are optional; delete the ones you do not use.",
         "A title row above the header row is allowed: the header row is found by the required column names (or give --header-row N).",
         HEADER_RULE_HELP,
+        crate::input::SURVEY_TEXT_HELP,
         "Blank optional cells take the default listed below; every default used is reported per building.",
         crate::CAUTION,
     ];
@@ -97,7 +101,10 @@ fn write_readme(ws: &mut Worksheet, bold: &Format, wrap: &Format) -> Result<(), 
         if i == 0 {
             ws.write_string_with_format(r, 0, *line, bold)?;
         } else {
-            ws.write_string(r, 0, *line)?;
+            // Long rules wrap across the table's width (about 190 characters a line).
+            ws.merge_range(r, 0, r, 5, line, wrap)?;
+            let lines = (line.chars().count() / 190 + 1) as f64;
+            ws.set_row_height(r, 15.0 * lines)?;
         }
         r += 1;
     }

@@ -279,7 +279,10 @@ fn settings_overrides_of_the_plausibility_limits_reach_check_and_the_streaming_p
     let out = crate::common::run_in(dir.path(), &["check", "tall.csv", "--settings", "s.toml"]);
     let text = String::from_utf8_lossy(&out.stdout);
     assert!(out.status.success(), "{text}");
-    assert!(text.contains("2 accepted, 0 rejected"), "{text}");
+    assert!(
+        text.contains("2 rows will be screened, 0 will not"),
+        "{text}"
+    );
     assert!(text.contains("0 errors, 0 warnings"), "{text}");
     let out = std::process::Command::new(crate::common::bin())
         .current_dir(dir.path())
@@ -563,4 +566,79 @@ fn json_spill_is_removed_by_an_interrupt_like_every_temporary_file() {
     drop(spill);
     assert!(!listed[0].exists());
     assert!(!live_temp_files().contains(&listed[0]));
+}
+
+/// Issue 13, item 1: a token wall made a building rank worst. Any RC wall area above zero
+/// switched the column factor α1 from 1.0 to 0.7 and brought in a wall whose low capacity
+/// governed; on one building 0.01 m² of wall raised DCR_LS from 0.59 to 0.83 and moved it
+/// from rank 8 to rank 1. An invented stock of ten frame buildings (agR 0.315–0.36 g, all class 3); the
+/// one at rank 8 gets 0.01 m² of wall along X (method §3: C_y = C_m + max(C_rc + α1·C_c,
+/// C_c); §9: the frame-alone bound).
+#[test]
+fn a_token_wall_does_not_move_a_building_to_the_top_of_the_ranking() {
+    use seistriage::engine::{BuildingInput, screen_all};
+    use seistriage::model::{BuildingRecord, YesNo};
+    use seistriage::settings::Settings;
+    let stock = |token: bool| -> Vec<BuildingRecord> {
+        (0..10)
+            .map(|i| BuildingRecord {
+                row: i + 2,
+                id: format!("T{i:02}"),
+                storeys: 4,
+                storey_height_m: Some(3.0),
+                ground_storey_height_m: Some(3.0),
+                plan_area_m2: 300.0,
+                column_area_m2: 4.0,
+                column_depth_m: Some(0.4),
+                rc_wall_area_x_m2: Some(if token && i == 7 { 0.01 } else { 0.0 }),
+                rc_wall_area_y_m2: Some(0.0),
+                infill_area_x_m2: Some(6.0),
+                infill_area_y_m2: Some(6.0),
+                boundary_elements: Some(YesNo::No),
+                short_columns: Some(YesNo::No),
+                fc_mpa: Some(20.0),
+                fy_mpa: Some(420.0),
+                occupants: Some(50),
+                agr_g: Some(0.36 - 0.005 * i as f64),
+                ..Default::default()
+            })
+            .collect()
+    };
+    let rank_of = |recs: &[BuildingRecord]| {
+        let inputs: Vec<BuildingInput<'_>> = recs
+            .iter()
+            .map(|r| BuildingInput {
+                record: r,
+                walls: vec![],
+                storeys: vec![],
+                footprint: vec![],
+                site: None,
+            })
+            .collect();
+        let out = screen_all(&inputs, &Settings::default());
+        out.buildings.into_iter().find(|b| b.id == "T07").unwrap()
+    };
+    let plain = rank_of(&stock(false));
+    let token = rank_of(&stock(true));
+    // Before revision 6 of the method: rank 8 at DCR_LS 0.603, rank 1 at 0.785 with the
+    // token wall (measured with the old formula and without the bound).
+    assert_eq!(plain.rank, 8);
+    assert_eq!(plain.class, 3);
+    assert!(plain.score < 1.0, "{}", plain.score);
+    // The token wall leaves the strength unchanged (column-governed branch) ...
+    assert_eq!(
+        token.strength_coefficient.x.to_bits(),
+        plain.strength_coefficient.x.to_bits()
+    );
+    // ... and the frame alone bounds its DCR at LS: the rank stays 8, the score is not raised.
+    assert!(
+        token.score <= plain.score,
+        "{} -> {}",
+        plain.score,
+        token.score
+    );
+    assert_eq!(token.rank, 8);
+    assert_eq!(token.class, 3);
+    assert!(token.governing.frame_alone || token.governing.group.eq(&plain.governing.group));
+    assert!(token.directions.x.frame_alone.is_some());
 }

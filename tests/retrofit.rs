@@ -92,7 +92,7 @@ fn cost_hand_example() {
         },
         ..Retrofit::default()
     };
-    cost::apply(&mut r, 12.0, 1200.0, &s);
+    cost::apply(&mut r, 12.0, 1200.0, 300.0, &s);
     assert!((r.cost.unwrap() - 112_500.0).abs() < 1e-6);
     assert!((r.replacement_cost.unwrap() - 840_000.0).abs() < 1e-6);
     assert_eq!(r.replace, Some(false));
@@ -101,7 +101,7 @@ fn cost_hand_example() {
         replace_ratio: 0.10,
         ..s
     };
-    cost::apply(&mut r, 12.0, 1200.0, &s2);
+    cost::apply(&mut r, 12.0, 1200.0, 300.0, &s2);
     assert_eq!(r.replace, Some(true));
     assert_eq!(cost::funding_cost(&r), Some(840_000.0));
 }
@@ -126,6 +126,7 @@ fn ranked(rank: usize, class: u8, occupants: u64, cost: f64) -> BuildingResult {
             direction: Dir::X,
             group: Group::Walls,
             level: Level::Ls,
+            frame_alone: false,
         },
         axial_load_ratio: 0.1,
         strength_coefficient: PerDir { x: 0.2, y: 0.2 },

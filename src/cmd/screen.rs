@@ -44,8 +44,91 @@ fn same_file(a: &Path, b: &Path) -> bool {
     }
 }
 
-/// Runs `screen`.
+/// The outputs written (kind, path) as the summary names them.
+type Written = Vec<(String, PathBuf)>;
+/// Maps the outputs written to what the summary shows (the stdout scratch file → "standard
+/// output").
+type Shown<'a> = dyn Fn(&[(String, PathBuf)]) -> Written + 'a;
+
+/// Whether an output path is `-` (standard output).
+fn is_stdout(p: &Path) -> bool {
+    p.as_os_str() == "-"
+}
+
+/// Runs `screen`. `--json -`, `--csv -` or `--geojson -` write that output to standard
+/// output (through a registered scratch file, so that the writers and their
+/// write-then-rename stay the same); the terminal summary then goes to standard error.
 pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
+    let dashes = [o.json.as_deref(), o.csv.as_deref(), o.geojson.as_deref()]
+        .into_iter()
+        .flatten()
+        .filter(|p| is_stdout(p))
+        .count();
+    if dashes > 1 {
+        eprintln!(
+            "error: only one output can go to standard output (`-`); give the others a file name"
+        );
+        return Ok(ExitCode::from(2));
+    }
+    if dashes == 0 {
+        return run_files(o, None);
+    }
+    let ext = if o.json.as_deref().is_some_and(is_stdout) {
+        "json"
+    } else if o.csv.as_deref().is_some_and(is_stdout) {
+        "csv"
+    } else {
+        "geojson"
+    };
+    let scratch =
+        std::env::temp_dir().join(format!("seistriage-stdout-{}.{ext}", std::process::id()));
+    let (guard, file) = report::atomic::TempFile::create_at(scratch.clone())
+        .with_context(|| format!("creating {}", scratch.display()))?;
+    drop(file);
+    let swap = |p: &Option<PathBuf>| {
+        p.as_ref().map(|p| {
+            if is_stdout(p) {
+                scratch.clone()
+            } else {
+                p.clone()
+            }
+        })
+    };
+    let inner = Options {
+        json: swap(&o.json),
+        csv: swap(&o.csv),
+        geojson: swap(&o.geojson),
+        ..o.clone()
+    };
+    let code = run_files(&inner, Some(&scratch))?;
+    if code == ExitCode::SUCCESS {
+        let mut f = std::fs::File::open(guard.path())
+            .with_context(|| format!("reading {}", scratch.display()))?;
+        let mut stdout = std::io::stdout().lock();
+        std::io::copy(&mut f, &mut stdout)
+            .and_then(|_| stdout.flush())
+            .context("writing to standard output")?;
+    }
+    drop(guard);
+    Ok(code)
+}
+
+/// `screen` with every output a file; `stdout_scratch`: the scratch file that stands for
+/// standard output (the summary then goes to stderr and names it "standard output").
+fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitCode> {
+    let summary_to_stderr = stdout_scratch.is_some();
+    let shown = |written: &[(String, PathBuf)]| -> Written {
+        written
+            .iter()
+            .map(|(k, p)| {
+                if Some(p.as_path()) == stdout_scratch {
+                    (k.clone(), PathBuf::from("standard output"))
+                } else {
+                    (k.clone(), p.clone())
+                }
+            })
+            .collect()
+    };
     let stem = o
         .inventory
         .file_stem()
@@ -104,7 +187,7 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
                  screened in chunks (a CSV of more than {from} lines); they are left out"
             );
         }
-        return run_streamed(o, &out);
+        return run_streamed(o, &out, summary_to_stderr, &shown);
     }
     // Read the previous run first: a wrong file is found before the screening runs.
     let previous = o
@@ -233,20 +316,37 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
         written.push(("brief (HTML)".into(), p.clone()));
     }
     if !o.quiet {
-        let text = report::terminal::summary(&report, &written);
-        let mut stdout = std::io::stdout().lock();
-        // A closed stdout (`| head`) is a broken pipe: main maps it to exit 0.
-        stdout
-            .write_all(text.as_bytes())
-            .and_then(|()| stdout.flush())
-            .context("writing the summary to stdout")?;
+        let text = report::terminal::summary(&report, &shown(&written));
+        print_summary(&text, summary_to_stderr)?;
     }
     Ok(ExitCode::SUCCESS)
 }
 
+/// The terminal summary, on stdout (or stderr when an output goes to stdout). A closed
+/// stdout (`| head`) is a broken pipe: main maps it to exit 0.
+fn print_summary(text: &str, to_stderr: bool) -> anyhow::Result<()> {
+    if to_stderr {
+        let mut err = std::io::stderr().lock();
+        err.write_all(text.as_bytes())
+            .and_then(|()| err.flush())
+            .context("writing the summary to stderr")
+    } else {
+        let mut stdout = std::io::stdout().lock();
+        stdout
+            .write_all(text.as_bytes())
+            .and_then(|()| stdout.flush())
+            .context("writing the summary to stdout")
+    }
+}
+
 /// `screen` on the streaming path (a CSV stock above the threshold; see
 /// `seistriage::stream`): bounded memory, per-row tables as CSV files beside the workbook.
-fn run_streamed(o: &Options, out: &Path) -> anyhow::Result<ExitCode> {
+fn run_streamed(
+    o: &Options,
+    out: &Path,
+    summary_to_stderr: bool,
+    shown: &Shown<'_>,
+) -> anyhow::Result<ExitCode> {
     for p in [
         Some(out),
         o.json.as_deref(),
@@ -281,12 +381,8 @@ fn run_streamed(o: &Options, out: &Path) -> anyhow::Result<ExitCode> {
         return Ok(nothing_screened(report, &o.inventory));
     }
     if !o.quiet {
-        let text = report::terminal::summary(report, &streamed.written);
-        let mut stdout = std::io::stdout().lock();
-        stdout
-            .write_all(text.as_bytes())
-            .and_then(|()| stdout.flush())
-            .context("writing the summary to stdout")?;
+        let text = report::terminal::summary(report, &shown(&streamed.written));
+        print_summary(&text, summary_to_stderr)?;
     }
     Ok(ExitCode::SUCCESS)
 }

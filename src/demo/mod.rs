@@ -534,7 +534,56 @@ pub fn demo_workbook() -> Result<Vec<u8>, DemoError> {
         let ws = wb.add_worksheet();
         write_table(ws, &table, &header)?;
     }
+    let (eras, settings) = demo_settings_tables()?;
+    for table in [eras, settings] {
+        let ws = wb.add_worksheet();
+        write_table(ws, &table, &header)?;
+    }
     Ok(wb.save_to_buffer()?)
+}
+
+/// Columns of the demo's `eras` sheet (inventory.md).
+const ERA_COLUMNS: [&str; 4] = ["from_year", "to_year", "fc_mpa", "fy_mpa"];
+/// Columns of the demo's `settings` sheet.
+const SETTINGS_COLUMNS: [&str; 2] = ["key", "value"];
+
+/// The demo's `eras` and `settings` sheets, from the bundled settings file
+/// (`inventories/demo-settings.toml`: its `[[era]]` rows and its scalar keys), so that
+/// `seistriage screen inventories/demo.xlsx` needs no option to screen the demo.
+pub fn demo_settings_tables() -> Result<(Table, Table), DemoError> {
+    let text = String::from_utf8_lossy(BUNDLED_SETTINGS);
+    let table: toml::Table = toml::from_str(&text)
+        .map_err(|e| DemoError::Io(std::io::Error::other(format!("demo settings: {e}"))))?;
+    let value_cell = |v: &toml::Value| match v {
+        toml::Value::String(s) => Cell::Text(s.clone()),
+        toml::Value::Integer(i) => Cell::Number(*i as f64),
+        toml::Value::Float(f) => Cell::Number(*f),
+        other => Cell::Text(other.to_string()),
+    };
+    let mut eras = Vec::new();
+    let mut settings = Vec::new();
+    for (key, value) in &table {
+        if key == "era" {
+            for era in value.as_array().into_iter().flatten() {
+                let get = |k: &str| era.get(k).map_or(Cell::Blank, value_cell);
+                eras.push(ERA_COLUMNS.iter().map(|k| get(k)).collect());
+            }
+        } else {
+            settings.push(vec![Cell::Text(key.clone()), value_cell(value)]);
+        }
+    }
+    Ok((
+        Table {
+            sheet: "eras",
+            columns: &ERA_COLUMNS,
+            rows: eras,
+        },
+        Table {
+            sheet: "settings",
+            columns: &SETTINGS_COLUMNS,
+            rows: settings,
+        },
+    ))
 }
 
 fn ring_json(ring: &[(f64, f64)]) -> serde_json::Value {

@@ -6,12 +6,12 @@ raises the flags and sets class and score. The rank is set by [`super::screen_al
 
 use crate::model::{Dir, PerDir, YesNo};
 use crate::results::{
-    BuildingDetail, BuildingResult, DirectionDetail, DirectionResult, Governing, Groups, Levels,
-    WallResult,
+    BuildingDetail, BuildingResult, DirectionDetail, DirectionResult, FrameAlone, Governing, Group,
+    Groups, Levels, LsCp, WallResult,
 };
 use crate::settings::{CapacityModel, Settings};
 
-use super::resolve::{self, Hazard, Resolved, StoreyAreas, WallSpec};
+use super::resolve::{self, Hazard, Resolved, WallSpec};
 use super::{
     BuildingInput, NewWalls, asce41, capacity, dcr, demand, flags, indices, n2, period, rank,
     spectrum, strength,
@@ -143,8 +143,10 @@ fn capacity_strengths(w: &WallSpec, s: &Settings) -> (f64, f64) {
 /// Capacity of one wall under the selected model (method §8).
 fn wall_result(w: &WallSpec, lv: f64, se_g: f64, cy: f64, s: &Settings) -> WallResult {
     let (fc, fy) = capacity_strengths(w, s);
+    // Method §8, confidence factor scope: ν × CF inside (A.1) and the ASCE 41 Q.
+    let nu_cap = capacity::capacity_axial_ratio(w.nu, w.existing, s);
     let ec = capacity::wall_capacity(
-        w.nu,
+        nu_cap,
         fc,
         fy,
         w.lw,
@@ -164,7 +166,7 @@ fn wall_result(w: &WallSpec, lv: f64, se_g: f64, cy: f64, s: &Settings) -> WallR
             area_i,
         );
         let v = asce41::shear_stress_psi(v_mn, w.tw, w.lw, fc);
-        asce41::wall_levels(ec.theta_y, w.nu, v, w.boundary)
+        asce41::wall_levels(ec.theta_y, nu_cap, v, w.boundary)
     };
     let cap = match s.capacity_model {
         CapacityModel::Eurocode => ec.levels,
@@ -208,23 +210,6 @@ fn min_levels<'a>(it: impl Iterator<Item = &'a Levels>) -> Option<Levels> {
     })
 }
 
-/// Strength proxy of one storey in d (the C_y numerator, α1 included; method §10 weak storey).
-pub fn storey_strength(
-    st: &StoreyAreas,
-    d: Dir,
-    beta: f64,
-    beta_new: f64,
-    added: f64,
-    s: &Settings,
-) -> f64 {
-    let walls = beta
-        * (s.tau_wall_mpa * st.rc_wall_m2.get(d)
-            + strength::tau_infill_mpa(s) * st.infill_m2.get(d))
-        + beta_new * s.tau_wall_mpa * added;
-    let a1 = strength::alpha1(*st.rc_wall_m2.get(d) + added > 0.0, s);
-    walls + a1 * beta * s.tau_column_mpa * st.column_m2
-}
-
 /// Everything of one building that does not depend on new retrofit walls: the resolved
 /// inputs (§0) and the building-wide terms of §2–§8 (axial load ratio, β, spectrum, mode
 /// shape, shear spans, column capacity, column strength). Retrofit sizing prepares a
@@ -257,6 +242,138 @@ pub struct Prepared<'a> {
     pub column_cap: Option<capacity::MemberCapacity>,
     /// Column strength term of C_y (§3).
     pub cc: f64,
+    /// Soft/weak storey state of each direction as surveyed (before any retrofit, §10).
+    pub surveyed: PerDir<flags::StoreyState>,
+    /// Frame-alone bound of each direction (§9), when the building has columns; applied
+    /// only where RC walls (existing or new) act in the direction. One number per
+    /// direction and level: it does not depend on the new walls.
+    pub frame_alone: PerDir<Option<FrameAlone>>,
+}
+
+/// §5–§6 for one strength coefficient and period: spectrum, N2 target displacement, roof
+/// drift.
+#[derive(Debug, Clone, Copy)]
+pub struct DemandChain {
+    /// Se(T) (g).
+    pub se_g: f64,
+    /// SDe(T) (m).
+    pub sde_m: f64,
+    /// S_ay (g).
+    pub say_g: f64,
+    /// qu (None when S_ay is not positive).
+    pub qu: Option<f64>,
+    /// dt* (m).
+    pub dt_star_m: f64,
+    /// N2 branch.
+    pub branch: n2::N2Branch,
+    /// d_t = Γ·dt* (m).
+    pub dt_m: f64,
+    /// δ_r = d_t/H.
+    pub roof_drift: f64,
+}
+
+/// Method §5–§6 for a prepared building with strength coefficient `cy` and period `t` (s).
+pub fn demand_chain(p: &Prepared<'_>, cy: f64, t: f64) -> DemandChain {
+    let res = &p.res;
+    let se = p.spec.se_g(t);
+    let sde = spectrum::sde_m(se, t);
+    let say = n2::yield_acceleration_g(cy, res.n, p.gamma, &p.phi);
+    let qu = n2::strength_ratio(se, say);
+    let (dt_star, branch) = n2::target_displacement_m(sde, qu, t, p.tc);
+    let dt = n2::roof_displacement_m(p.gamma, dt_star);
+    DemandChain {
+        se_g: se,
+        sde_m: sde,
+        say_g: say,
+        qu,
+        dt_star_m: dt_star,
+        branch,
+        dt_m: dt,
+        roof_drift: n2::roof_drift(dt, res.height_m),
+    }
+}
+
+/// Formula periods of direction d with the existing walls (§4): (T_frame, Ac, T_wall,
+/// T_formula).
+fn formula_periods(res: &Resolved, s: &Settings, d: Dir) -> (f64, f64, Option<f64>, f64) {
+    let t_frame = period::period_frame_s(s.ct_period, res.height_m);
+    let ac: f64 = res
+        .walls_in(d)
+        .map(|w| period::ac_term_m2(w.area_m2(), w.lw, res.height_m))
+        .fold(0.0, |a, b| a + b);
+    let t_wall = period::period_wall_s(s.ct_period, ac, res.height_m);
+    let t_formula = period::formula_period_s(t_frame, t_wall);
+    (t_frame, ac, t_wall, t_formula)
+}
+
+/// Period of the frame alone (method §9): the frame period of §4 through the same order of
+/// rules — T_frame × `period_factor`, or an input period × T_frame/T_formula (T_formula of
+/// the building with its walls); no new-wall scaling (the new walls are removed too).
+pub fn frame_period_s(
+    t_frame: f64,
+    t_formula: f64,
+    period_input_s: Option<f64>,
+    period_factor: f64,
+) -> f64 {
+    match period_input_s {
+        Some(t_in) if t_formula > 0.0 => t_in * t_frame / t_formula,
+        Some(t_in) => t_in,
+        None => t_frame * period_factor,
+    }
+}
+
+/// κ of the frame alone (method §9): κ_soft when the building as surveyed carries a soft,
+/// extreme-soft or weak storey flag in d (not re-evaluated), else κ_frame.
+pub fn frame_kappa(soft_or_weak_surveyed: bool, s: &Settings) -> f64 {
+    if soft_or_weak_surveyed {
+        s.kappa_soft
+    } else {
+        s.kappa_frame
+    }
+}
+
+/// The frame-alone bound of direction d (method §9) before it is compared: §3–§7 with the
+/// RC walls of d removed (existing and new; infill and storey heights kept), C_y = C_m +
+/// C_c, the frame period ([`frame_period_s`]), κ ([`frame_kappa`]), the building's own
+/// column capacities; DCR_frame,L = κ·δ_r,frame/θ_c,L at LS and CP. `None` without columns.
+fn frame_alone_bound(
+    p: &Prepared<'_>,
+    s: &Settings,
+    d: Dir,
+    soft_or_weak_surveyed: bool,
+) -> Option<FrameAlone> {
+    let res = &p.res;
+    let cap = p.column_cap?;
+    let cm = strength::infill_strength(
+        p.beta,
+        strength::tau_infill_mpa(s),
+        *res.infill_area_m2.get(d),
+        res.weight_kn,
+    );
+    let cy = strength::strength_coefficient(cm, 0.0, s.alpha1_with_walls, p.cc).cy;
+    let (t_frame, _, _, t_formula) = formula_periods(res, s, d);
+    let t = frame_period_s(
+        t_frame,
+        t_formula,
+        *res.period_input_s.get(d),
+        s.period_factor,
+    );
+    let chain = demand_chain(p, cy, t);
+    let kappa = frame_kappa(soft_or_weak_surveyed, s);
+    let dc = demand::column_drift(kappa, chain.roof_drift);
+    Some(FrameAlone {
+        period_s: t,
+        roof_drift_demand: chain.roof_drift,
+        drift_demand_columns: dc,
+        dcr: LsCp {
+            ls: dcr::ratio(dc, cap.levels.ls),
+            cp: dcr::ratio(dc, cap.levels.cp),
+        },
+        strength_coefficient: cy,
+        se_g: chain.se_g,
+        kappa,
+        governs: LsCp::default(),
+    })
 }
 
 /// Resolves a building and computes its building-wide terms (see [`Prepared`]).
@@ -286,7 +403,7 @@ pub fn prepare<'a>(
     let lv_col = capacity::column_shear_span_m(h1);
     let column_cap = (res.column_area_m2 > 0.0).then(|| {
         capacity::column_capacity(
-            nu,
+            capacity::capacity_axial_ratio(nu, true, s),
             res.fc_mpa / s.confidence_factor,
             res.fy_mpa / s.confidence_factor,
             res.column_depth_m,
@@ -296,7 +413,11 @@ pub fn prepare<'a>(
         )
     });
     let cc = strength::column_strength(beta, s.tau_column_mpa, res.column_area_m2, res.weight_kn);
-    Ok(Prepared {
+    let surveyed = PerDir {
+        x: flags::storey_state(&res, Dir::X, beta, beta_new, 0.0, s),
+        y: flags::storey_state(&res, Dir::Y, beta, beta_new, 0.0, s),
+    };
+    let mut p = Prepared {
         input,
         res,
         nu,
@@ -310,7 +431,14 @@ pub fn prepare<'a>(
         lv_col,
         column_cap,
         cc,
-    })
+        surveyed,
+        frame_alone: PerDir::default(),
+    };
+    for d in Dir::BOTH {
+        let soft = p.surveyed.get(d).any();
+        *p.frame_alone.get_mut(d) = frame_alone_bound(&p, s, d, soft);
+    }
+    Ok(p)
 }
 
 /// One direction of a prepared building through §1 and §3–§9 with `added` m² of new walls
@@ -335,24 +463,13 @@ pub fn direction(
     let pi = indices::priority_index_pct(wi, ci);
     let wirc = indices::rc_wall_index_pct(a_cw, res.floor_area_m2);
     // §3
-    let cw = strength::wall_strength(
-        p.beta,
-        s.tau_wall_mpa,
-        a_cw,
-        strength::tau_infill_mpa(s),
-        a_mw,
-        res.weight_kn,
-    ) + strength::new_wall_strength(p.beta_new, s.tau_wall_mpa, added, res.weight_kn);
-    let a1 = strength::alpha1(a_cw + added > 0.0, s);
-    let cy = strength::strength_coefficient(cw, a1, p.cc);
+    let cm = strength::infill_strength(p.beta, strength::tau_infill_mpa(s), a_mw, res.weight_kn);
+    let crc = strength::rc_wall_strength(p.beta, s.tau_wall_mpa, a_cw, res.weight_kn)
+        + strength::new_wall_strength(p.beta_new, s.tau_wall_mpa, added, res.weight_kn);
+    let comb = strength::strength_coefficient(cm, crc, s.alpha1_with_walls, p.cc);
+    let cy = comb.cy;
     // §4
-    let t_frame = period::period_frame_s(s.ct_period, res.height_m);
-    let ac: f64 = res
-        .walls_in(d)
-        .map(|w| period::ac_term_m2(w.area_m2(), w.lw, res.height_m))
-        .fold(0.0, |a, b| a + b);
-    let t_wall = period::period_wall_s(s.ct_period, ac, res.height_m);
-    let t_formula = period::formula_period_s(t_frame, t_wall);
+    let (t_frame, ac, t_wall, t_formula) = formula_periods(res, s, d);
     let (mut t, source) = match res.period_input_s.get(d) {
         Some(t_in) => (*t_in, "input"),
         None => (t_formula * s.period_factor, "formula"),
@@ -367,18 +484,25 @@ pub fn direction(
             t *= t_with / t_formula;
         }
     }
-    // §5
-    let se = p.spec.se_g(t);
-    let sde = spectrum::sde_m(se, t);
-    // §6
-    let say = n2::yield_acceleration_g(cy, res.n, p.gamma, &p.phi);
-    let qu = n2::strength_ratio(se, say);
-    let (dt_star, branch) = n2::target_displacement_m(sde, qu, t, p.tc);
-    let dt = n2::roof_displacement_m(p.gamma, dt_star);
-    let drift = n2::roof_drift(dt, res.height_m);
+    // §5, §6
+    let chain = demand_chain(p, cy, t);
+    let (se, sde, say, qu, dt_star, branch, dt, drift) = (
+        chain.se_g,
+        chain.sde_m,
+        chain.say_g,
+        chain.qu,
+        chain.dt_star_m,
+        chain.branch,
+        chain.dt_m,
+        chain.roof_drift,
+    );
     // §7 (soft/weak state before and after new walls)
-    let before = flags::storey_state(res, d, p.beta, p.beta_new, 0.0, s);
-    let after = flags::storey_state(res, d, p.beta, p.beta_new, added, s);
+    let before = p.surveyed.get(d);
+    let after = if added > 0.0 {
+        flags::storey_state(res, d, p.beta, p.beta_new, added, s)
+    } else {
+        before.clone()
+    };
     let kappa_before = demand::kappa(wirc, before.any(), s);
     let kappa = if added > 0.0 {
         let added_pct = indices::rc_wall_index_pct(added, res.floor_area_m2);
@@ -411,7 +535,12 @@ pub fn direction(
         (Some(dc), Some(c)) => Some(dcr::group_dcr(dc, &c)),
         _ => None,
     };
-    let dcr_levels = dcr::direction_dcr(wall_dcr, col_dcr);
+    let mut dcr_levels = dcr::direction_dcr(wall_dcr, col_dcr);
+    // §9 frame-alone bound (LS and CP): where columns and RC walls act in d.
+    let frame_alone = (has_walls && has_columns)
+        .then(|| *p.frame_alone.get(d))
+        .flatten()
+        .map(|f| dcr::apply_frame_alone(&mut dcr_levels, f));
     let result = DirectionResult {
         wall_index_pct: wi,
         column_index_pct: ci,
@@ -427,13 +556,20 @@ pub fn direction(
             columns: col_levels,
         },
         dcr: dcr_levels,
+        frame_alone,
+        group_dcr: Groups {
+            walls: wall_dcr,
+            columns: col_dcr,
+        },
         detail: DirectionDetail {
             rc_wall_area_m2: a_cw,
             infill_area_m2: a_mw,
             rc_wall_index_pct: wirc,
-            strength_walls: cw,
+            strength_walls: crc + cm,
+            strength_infill: cm,
+            wall_governed: comb.wall_governed,
             strength_columns: p.cc,
-            alpha1: a1,
+            alpha1: comb.column_factor,
             strength_coefficient: cy,
             period_frame_s: t_frame,
             period_wall_s: t_wall,
@@ -493,15 +629,14 @@ pub fn screen(
     let level = s.ranking_level;
     let gdir = dcr::governing_direction(&directions.x.dcr, &directions.y.dcr, level);
     let gd = directions.get(gdir);
-    let wall_dcr_g = match (gd.drift_demand.walls, gd.capacity.walls) {
-        (Some(dw), Some(c)) => Some(dcr::group_dcr(dw, &c)),
-        _ => None,
+    let frame_alone_governs = gd
+        .frame_alone
+        .is_some_and(|f| dcr::frame_alone_governs(&f, level));
+    let ggroup = if frame_alone_governs {
+        Group::Columns
+    } else {
+        dcr::governing_group(gd.group_dcr.walls, gd.group_dcr.columns, level)
     };
-    let col_dcr_g = match (gd.drift_demand.columns, gd.capacity.columns) {
-        (Some(dc), Some(c)) => Some(dcr::group_dcr(dc, &c)),
-        _ => None,
-    };
-    let ggroup = dcr::governing_group(wall_dcr_g, col_dcr_g, level);
     let score = gd.dcr.at(level);
     let dcr_max = Levels {
         io: directions.x.dcr.io.max(directions.y.dcr.io),
@@ -558,6 +693,7 @@ pub fn screen(
             direction: gdir,
             group: ggroup,
             level,
+            frame_alone: frame_alone_governs,
         },
         axial_load_ratio: nu,
         strength_coefficient,
@@ -571,6 +707,7 @@ pub fn screen(
             floor_heights_m: res.z_m.clone(),
             height_m: res.height_m,
             floor_area_m2: res.floor_area_m2,
+            plan_area_m2: res.plan_area_m2,
             weight_kn: res.weight_kn,
             fc_mpa: res.fc_mpa,
             fy_mpa: res.fy_mpa,
@@ -616,6 +753,119 @@ pub fn default_value_text(key: &str, res: &Resolved, s: &Settings) -> String {
         "fy_mpa" => format!("{} MPa", res.fy_mpa),
         "floor_weight_kpa" => format!("{} kPa", res.floor_weight_kpa),
         "ground_type" => s.default_ground_type.to_string(),
+        "rc_wall_area_x_m2" | "rc_wall_area_y_m2" => "0 m² (no RC walls)".into(),
         _ => String::new(),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::model::BuildingRecord;
+
+    #[test]
+    fn frame_period_follows_the_order_of_rules() {
+        // Formula: T_frame × period_factor; input: T_in × T_frame/T_formula (method §9).
+        assert!((frame_period_s(0.4, 0.3, None, 1.3) - 0.52).abs() < 1e-15);
+        assert!((frame_period_s(0.4, 0.32, Some(0.6), 1.3) - 0.75).abs() < 1e-15);
+        assert_eq!(frame_kappa(false, &Settings::default()), 1.5);
+        assert_eq!(frame_kappa(true, &Settings::default()), 2.5);
+    }
+
+    fn record() -> BuildingRecord {
+        BuildingRecord {
+            row: 2,
+            id: "F".into(),
+            storeys: 5,
+            storey_height_m: Some(3.0),
+            ground_storey_height_m: Some(3.0),
+            plan_area_m2: 400.0,
+            column_area_m2: 5.0,
+            rc_wall_area_x_m2: Some(4.0),
+            rc_wall_area_y_m2: Some(0.0),
+            wall_length_x_m: Some(6.0),
+            infill_area_x_m2: Some(8.0),
+            fc_mpa: Some(20.0),
+            fy_mpa: Some(420.0),
+            agr_g: Some(0.3),
+            period_x_s: Some(0.5),
+            ..Default::default()
+        }
+    }
+
+    fn input(r: &BuildingRecord) -> BuildingInput<'_> {
+        BuildingInput {
+            record: r,
+            walls: vec![],
+            storeys: vec![],
+            footprint: vec![],
+            site: None,
+        }
+    }
+
+    #[test]
+    fn frame_alone_bound_by_hand_and_independent_of_new_walls() {
+        let r = record();
+        let s = Settings::default();
+        let inp = input(&r);
+        let p = prepare(&inp, &s).unwrap();
+        let (x, _, _) = direction(&p, &s, Dir::X, 0.0);
+        let f = x.frame_alone.unwrap();
+        // Period: input 0.5 s × T_frame/T_formula of the building with its walls.
+        let t_frame = period::period_frame_s(s.ct_period, 15.0);
+        assert!((f.period_s - 0.5 * t_frame / x.detail.period_formula_s).abs() < 1e-12);
+        // C_y = C_m + C_c = (0.2·8 + 1·5)·1000/(12·2000) = 0.275.
+        assert!((f.strength_coefficient - 6600.0 / 24000.0).abs() < 1e-12);
+        // κ_frame (no soft/weak storey), the building's own column capacity.
+        assert_eq!(f.kappa, s.kappa_frame);
+        let cap = p.column_cap.unwrap().levels;
+        assert!((f.dcr.ls - f.drift_demand_columns / cap.ls).abs() < 1e-15);
+        assert!((f.drift_demand_columns - 1.5 * f.roof_drift_demand).abs() < 1e-15);
+        // DCR at LS and CP not above the bound; IO untouched by it.
+        assert!(x.dcr.ls <= f.dcr.ls && x.dcr.cp <= f.dcr.cp);
+        let io = x
+            .group_dcr
+            .walls
+            .unwrap()
+            .io
+            .max(x.group_dcr.columns.unwrap().io);
+        assert_eq!(x.dcr.io, io);
+        // One number per direction and level: the same with new walls (sizing).
+        let (x2, _, _) = direction(&p, &s, Dir::X, 6.0);
+        let f2 = x2.frame_alone.unwrap();
+        assert_eq!((f2.period_s, f2.dcr), (f.period_s, f.dcr));
+        // No RC walls in Y and no new ones: no bound; with new walls in Y: the bound.
+        let (y, _, _) = direction(&p, &s, Dir::Y, 0.0);
+        assert!(y.frame_alone.is_none());
+        let (y2, _, _) = direction(&p, &s, Dir::Y, 3.0);
+        assert!(y2.frame_alone.is_some());
+    }
+
+    #[test]
+    fn governing_group_is_columns_where_the_bound_governs() {
+        // Long unconfined walls of weak concrete (fc 14, fy 220, lw 6 m; KV-038-like) reach
+        // their capacity early; the frame alone carries the demand.
+        let mut r = record();
+        r.fc_mpa = Some(14.0);
+        r.fy_mpa = Some(220.0);
+        r.rc_wall_area_x_m2 = Some(1.5);
+        r.rc_wall_area_y_m2 = Some(1.5);
+        r.wall_length_y_m = Some(6.0);
+        r.period_x_s = None;
+        let b = screen(&input(&r), &Settings::default(), &NewWalls::default()).unwrap();
+        let d = b.directions.get(b.governing.direction);
+        let f = d.frame_alone.unwrap();
+        assert!(f.governs.ls, "{:?} vs {:?}", d.group_dcr, f.dcr);
+        assert!(b.governing.frame_alone);
+        assert_eq!(b.governing.group, Group::Columns);
+        assert_eq!(b.score, f.dcr.ls);
+        let json = serde_json::to_value(&b).unwrap();
+        assert_eq!(json["governing"]["frame_alone"], true);
+        assert!(json["directions"]["x"]["frame_alone"]["dcr"]["ls"].is_number());
+        assert!(
+            json["directions"]["x"]["frame_alone"]["dcr"]
+                .get("io")
+                .is_none()
+        );
     }
 }

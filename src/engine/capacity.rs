@@ -88,12 +88,15 @@ pub fn theta_um_a1(i: &A1Input, gamma_el: f64) -> f64 {
         * a1::DIAGONAL_BASE.powf(100.0 * i.rho_d)
 }
 
-/// Member-type factors on θum (EN 1998-3 §A.3.2.2): walls × `wall_capacity_factor` (0.58);
-/// members without seismic detailing ÷ `no_detailing_divisor` (1.2, from memory).
+/// Member-type factors on θum (EN 1998-3:2005 §A.3.2.2(2), wording and paragraph number
+/// from memory: "in walls the value given by (A.1) is divided by 1.6"): walls ÷
+/// `wall_rotation_divisor` (1.6; the ×0.58 of later papers, used before revision 6 of the
+/// method, is not the standard's); members without seismic detailing ÷
+/// `no_detailing_divisor` (1.2, same clause, from memory).
 pub fn theta_um_member(theta_a1: f64, wall: bool, detailed: bool, s: &Settings) -> f64 {
     let mut t = theta_a1;
-    if wall {
-        t *= s.wall_capacity_factor;
+    if wall && s.wall_rotation_divisor > 0.0 {
+        t /= s.wall_rotation_divisor;
     }
     if !detailed && s.no_detailing_divisor > 0.0 {
         t /= s.no_detailing_divisor;
@@ -181,6 +184,19 @@ pub fn confinement(detailed: bool, s: &Settings) -> (f64, f64) {
         (s.confined_alpha, s.confined_rho_sx_pct / 100.0)
     } else {
         (s.unconfined_alpha, s.unconfined_rho_sx_pct / 100.0)
+    }
+}
+
+/// Axial load ratio inside the capacity formulas (method §8, confidence factor scope):
+/// ν × CF for existing members (= N/(A·fc/CF), fc divided by the confidence factor like the
+/// capacity's other terms), ν as given for new walls (known properties, no CF). Used in eq.
+/// (A.1), the ASCE 41 Q and the `outside-calibration` check; §2's ν with the mean fc stays
+/// for `high-axial-*` and the `boundary-needed` c.
+pub fn capacity_axial_ratio(nu: f64, existing: bool, s: &Settings) -> f64 {
+    if existing {
+        nu * s.confidence_factor
+    } else {
+        nu
     }
 }
 
@@ -292,6 +308,57 @@ mod tests {
         assert!(l.io <= l.ls && l.ls <= l.cp);
         assert!((l.io - 0.006).abs() < 1e-12);
     }
+    #[test]
+    fn wall_divisor_and_detailing_divisor() {
+        // EN 1998-3:2005 §A.3.2.2(2): walls ÷ 1.6; not detailed ÷ 1.2 (both from memory).
+        let s = Settings::default();
+        assert!((theta_um_member(0.016, true, true, &s) - 0.01).abs() < 1e-15);
+        assert!((theta_um_member(0.016, false, true, &s) - 0.016).abs() < 1e-15);
+        assert!((theta_um_member(0.012, false, false, &s) - 0.01).abs() < 1e-15);
+        assert!((theta_um_member(0.0192, true, false, &s) - 0.01).abs() < 1e-15);
+        let s2 = Settings {
+            wall_rotation_divisor: 2.0,
+            ..Settings::default()
+        };
+        assert!((theta_um_member(0.016, true, true, &s2) - 0.008).abs() < 1e-15);
+    }
+
+    #[test]
+    fn confidence_factor_scales_nu_of_existing_members_only() {
+        let s = Settings {
+            confidence_factor: 1.35,
+            ..Settings::default()
+        };
+        assert!((capacity_axial_ratio(0.2, true, &s) - 0.27).abs() < 1e-15);
+        assert_eq!(capacity_axial_ratio(0.05, false, &s), 0.05);
+        assert_eq!(capacity_axial_ratio(0.2, true, &Settings::default()), 0.2);
+        // In eq. (A.1) ν × CF lowers θum by 0.3^(ν·(CF − 1)) besides the fc/CF terms:
+        // same fc/CF, ν 0.2 vs 0.27 → ratio 0.3^0.07.
+        let a = wall_capacity(
+            0.2,
+            20.0 / 1.35,
+            420.0 / 1.35,
+            4.0,
+            8.0,
+            true,
+            1.0,
+            0.016,
+            &s,
+        );
+        let b = wall_capacity(
+            0.27,
+            20.0 / 1.35,
+            420.0 / 1.35,
+            4.0,
+            8.0,
+            true,
+            1.0,
+            0.016,
+            &s,
+        );
+        assert!((b.theta_um / a.theta_um - 0.3f64.powf(0.07)).abs() < 1e-12);
+    }
+
     #[test]
     fn shear_span_equal_storeys() {
         let z = [3.0, 6.0, 9.0, 12.0];

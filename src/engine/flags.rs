@@ -9,9 +9,10 @@ use crate::results::{DirectionResult, Flag, WallResult};
 use crate::settings::Settings;
 
 use super::BuildingInput;
-use super::building::{default_value_text, storey_strength};
+use super::building::default_value_text;
 use super::capacity::MemberCapacity;
 use super::resolve::{Resolved, StoreyAreas, StoreySource, WallSpec};
+use super::strength::storey_strength;
 use super::torsion;
 
 /// Lateral stiffness proxy of storey i in d: k = (A_cw + w_m·A_mw + A_col/2)/h_i (m²/m;
@@ -123,6 +124,8 @@ pub struct StoreyState {
     pub weak: bool,
     /// S1/S2.
     pub weak_ratio: Option<f64>,
+    /// Which storey data the checks used (method §10 precedence).
+    pub source: StoreySource,
 }
 
 impl StoreyState {
@@ -132,7 +135,23 @@ impl StoreyState {
     }
 }
 
-/// Soft/weak storey state of direction d with `added` m² of new walls at every storey.
+/// Plain words for the storey data a soft/weak storey flag used (method §10).
+pub fn storey_data_text(source: StoreySource) -> &'static str {
+    match source {
+        StoreySource::Sheet => "data from the storeys sheet",
+        StoreySource::Upper => "data from the upper_* cells (storey 2)",
+        StoreySource::Derived { walls_sheet: true } => {
+            "data from the walls sheet and storey heights"
+        }
+        StoreySource::Derived { walls_sheet: false } => {
+            "data from the storey heights (storey 2 repeats the ground storey)"
+        }
+        StoreySource::None => "one storey: no data",
+    }
+}
+
+/// Soft/weak storey state of direction d with `added` m² of new walls at every storey, on
+/// the storey data of [`super::resolve::storey_data`] (no check with one storey).
 pub fn storey_state(
     res: &Resolved,
     d: Dir,
@@ -141,13 +160,14 @@ pub fn storey_state(
     added: f64,
     s: &Settings,
 ) -> StoreyState {
-    if res.storey_source == StoreySource::None || res.storeys.len() < 2 {
+    if res.storeys.len() < 2 {
         return StoreyState {
             soft: Soft::None,
             r2: None,
             r_mean: None,
             weak: false,
             weak_ratio: None,
+            source: res.storey_source,
         };
     }
     let k: Vec<f64> = res
@@ -156,8 +176,19 @@ pub fn storey_state(
         .map(|st| stiffness_proxy(st, d, added, s.infill_weight))
         .collect();
     let (soft, r2, r_mean) = soft_storey(&k, s);
-    let s1 = storey_strength(&res.storeys[0], d, beta, beta_new, added, s);
-    let s2 = storey_strength(&res.storeys[1], d, beta, beta_new, added, s);
+    let strength = |st: &StoreyAreas| {
+        storey_strength(
+            beta,
+            beta_new,
+            *st.rc_wall_m2.get(d),
+            added,
+            *st.infill_m2.get(d),
+            st.column_m2,
+            s,
+        )
+    };
+    let s1 = strength(&res.storeys[0]);
+    let s2 = strength(&res.storeys[1]);
     let (weak, weak_ratio) = weak_storey(s1, s2, s);
     StoreyState {
         soft,
@@ -165,6 +196,7 @@ pub fn storey_state(
         r_mean,
         weak,
         weak_ratio,
+        source: res.storey_source,
     }
 }
 
@@ -259,11 +291,7 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
             detail,
         });
     };
-    let src_text = match res.storey_source {
-        StoreySource::Sheet => "storeys sheet",
-        StoreySource::Upper => "upper-storey columns (storey 2 only)",
-        StoreySource::None => "",
-    };
+    let src_text = storey_data_text(res.storey_source);
     for d in Dir::BOTH {
         let Some(st) = states_after.get(d) else {
             continue;
@@ -290,7 +318,7 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
                 SOFT_STOREY_EXTREME,
                 Some(d),
                 format!(
-                    "ground-storey stiffness proxy (A_cw + A_mw/10 + A_col/2)/h: {ratios} (limits {} / {}, ASCE 7-16 Table 12.3-2 type 1b; data: {src_text}{with})",
+                    "ground-storey stiffness proxy (A_cw + A_mw/10 + A_col/2)/h: {ratios} (limits {} / {}, ASCE 7-16 Table 12.3-2 type 1b; {src_text}{with})",
                     s.extreme_soft_ratio, s.extreme_soft_ratio_mean
                 ),
             ),
@@ -299,7 +327,7 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
                 SOFT_STOREY,
                 Some(d),
                 format!(
-                    "ground-storey stiffness proxy (A_cw + A_mw/10 + A_col/2)/h: {ratios} (limits {} / {}, ASCE 7-16 Table 12.3-2 type 1a; data: {src_text}{with})",
+                    "ground-storey stiffness proxy (A_cw + A_mw/10 + A_col/2)/h: {ratios} (limits {} / {}, ASCE 7-16 Table 12.3-2 type 1a; {src_text}{with})",
                     s.soft_ratio, s.soft_ratio_mean
                 ),
             ),
@@ -316,7 +344,7 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
                 WEAK_STOREY,
                 Some(d),
                 format!(
-                    "ground-storey strength is {:.1} % of the storey above (limit {:.0} %, ASCE 7-16 Table 12.3-2 type 5a; data: {src_text})",
+                    "ground-storey strength is {:.1} % of the storey above (limit {:.0} %, ASCE 7-16 Table 12.3-2 type 5a; {src_text})",
                     st.weak_ratio.unwrap_or(0.0) * 100.0,
                     s.weak_ratio * 100.0
                 ),
@@ -558,8 +586,9 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
         let mut hits: Vec<String> = Vec::new();
         for w in res.walls_in(d) {
             let mut why: Vec<String> = Vec::new();
-            if w.nu > s.calibration_axial_max {
-                why.push(format!("ν = {:.3}", w.nu));
+            let nu_cap = super::capacity::capacity_axial_ratio(w.nu, w.existing, s);
+            if nu_cap > s.calibration_axial_max {
+                why.push(format!("ν = {nu_cap:.3}"));
             }
             if w.boundary_steel_pct < s.calibration_steel_min_pct
                 || w.boundary_steel_pct > s.calibration_steel_max_pct
@@ -598,8 +627,9 @@ pub fn raise(c: &Context<'_>) -> Vec<Flag> {
             0.0
         };
         let mut why: Vec<String> = Vec::new();
-        if nu > s.calibration_axial_max {
-            why.push(format!("ν = {nu:.3} > {}", s.calibration_axial_max));
+        let nu_cap = super::capacity::capacity_axial_ratio(nu, true, s);
+        if nu_cap > s.calibration_axial_max {
+            why.push(format!("ν = {nu_cap:.3} > {}", s.calibration_axial_max));
         }
         if lvh < s.calibration_shear_span_min || lvh > s.calibration_shear_span_max {
             why.push(format!(

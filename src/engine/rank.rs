@@ -162,6 +162,7 @@ mod tests {
                         direction: crate::model::Dir::X,
                         group: crate::results::Group::Walls,
                         level: crate::settings::Level::Ls,
+                        frame_alone: false,
                     },
                     axial_load_ratio: 0.1,
                     strength_coefficient: Default::default(),

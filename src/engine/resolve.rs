@@ -104,14 +104,24 @@ pub struct StoreyAreas {
     pub infill_m2: PerDir<f64>,
 }
 
-/// Where the storey-by-storey data for the soft/weak flags came from.
+/// Where the storey-by-storey data for the soft/weak flags came from (method §10, per
+/// building, in this order of precedence).
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum StoreySource {
-    /// The storeys sheet: every storey known.
+    /// (1) The building's storeys-sheet rows (it has a row for storey 2): storeys 2–4 while
+    /// rows exist; storey 1 is the buildings row (and its listed walls).
     Sheet,
-    /// The `upper_*` columns (or listed walls): storey 2 only.
+    /// (2) The `upper_*` cells (at least one filled): storey 2 only, blanks take the ground
+    /// storey's values.
     Upper,
-    /// No storey-by-storey information.
+    /// (3) Neither: storey 2 repeats the ground storey's columns and infill, takes the walls
+    /// standing in storey 2 and its own height h_2.
+    Derived {
+        /// True when the walls come from the walls sheet (start ≤ 2 ≤ end), false when they
+        /// are the ground storey's wall areas (no walls sheet).
+        walls_sheet: bool,
+    },
+    /// One storey: no soft/weak storey check.
     None,
 }
 
@@ -293,6 +303,117 @@ fn resolve_hazard(
             })
         }
     }
+}
+
+/// Storeys whose data the soft/weak storey flags read: 1 (ground) to at most 4 (the mean
+/// test of ASCE 7-16 Table 12.3-2 uses storeys 2–4).
+pub const STOREYS_FOR_FLAGS: u32 = 4;
+
+/// Storey-by-storey areas for the soft/weak storey flags of one building (method §10),
+/// ground first, and where they came from. Precedence per building:
+/// (1) its storeys-sheet rows when it has a row for storey 2 — storeys 2–4 while rows exist
+///     (the mean test then needs n ≥ 4 and rows 2, 3 and 4); storey 1 is always `ground`
+///     (the buildings row and its listed walls) with the storeys row's height (already in
+///     `heights_m`); a blank cell of a storey row takes the storey below's value (walls:
+///     the listed walls standing in that storey when walls are listed);
+/// (2) else its `upper_*` cells when at least one is filled: storey 2, blank cells take the
+///     ground storey's values, height h_2;
+/// (3) else storey 2 repeats the ground storey's columns and infill, takes the listed walls
+///     standing in storey 2 (start ≤ 2 ≤ end; defaults 1 and n) — without a walls sheet
+///     the ground wall areas — and its own height h_2.
+/// With n = 1 there is no check (one storey, [`StoreySource::None`]).
+pub fn storey_data(
+    input: &BuildingInput<'_>,
+    n: u32,
+    heights_m: &[f64],
+    ground: StoreyAreas,
+    walls_listed: bool,
+    listed_wall_area_at: impl Fn(u32, Dir) -> f64,
+) -> (Vec<StoreyAreas>, StoreySource) {
+    if n < 2 {
+        return (vec![ground], StoreySource::None);
+    }
+    let r = input.record;
+    let height = |i: u32| {
+        heights_m
+            .get(i as usize - 1)
+            .copied()
+            .unwrap_or(ground.height_m)
+    };
+    let row_of = |i: u32| input.storeys.iter().find(|s| s.storey == i);
+    if row_of(2).is_some() {
+        let mut out = vec![ground];
+        let mut below = ground;
+        for i in 2..=n.min(STOREYS_FOR_FLAGS) {
+            let Some(row) = row_of(i) else { break };
+            let walls = |d: Dir, v: Option<f64>| {
+                nonneg(v).unwrap_or_else(|| {
+                    if walls_listed {
+                        listed_wall_area_at(i, d)
+                    } else {
+                        *below.rc_wall_m2.get(d)
+                    }
+                })
+            };
+            let st = StoreyAreas {
+                height_m: height(i),
+                column_m2: nonneg(row.column_area_m2).unwrap_or(below.column_m2),
+                rc_wall_m2: PerDir {
+                    x: walls(Dir::X, row.rc_wall_area_x_m2),
+                    y: walls(Dir::Y, row.rc_wall_area_y_m2),
+                },
+                infill_m2: PerDir {
+                    x: nonneg(row.infill_area_x_m2).unwrap_or(below.infill_m2.x),
+                    y: nonneg(row.infill_area_y_m2).unwrap_or(below.infill_m2.y),
+                },
+            };
+            out.push(st);
+            below = st;
+        }
+        return (out, StoreySource::Sheet);
+    }
+    let upper_given = r.upper_rc_wall_area_x_m2.is_some()
+        || r.upper_rc_wall_area_y_m2.is_some()
+        || r.upper_infill_area_x_m2.is_some()
+        || r.upper_infill_area_y_m2.is_some()
+        || r.upper_column_area_m2.is_some();
+    if upper_given {
+        let second = StoreyAreas {
+            height_m: height(2),
+            column_m2: nonneg(r.upper_column_area_m2).unwrap_or(ground.column_m2),
+            rc_wall_m2: PerDir {
+                x: nonneg(r.upper_rc_wall_area_x_m2).unwrap_or(ground.rc_wall_m2.x),
+                y: nonneg(r.upper_rc_wall_area_y_m2).unwrap_or(ground.rc_wall_m2.y),
+            },
+            infill_m2: PerDir {
+                x: nonneg(r.upper_infill_area_x_m2).unwrap_or(ground.infill_m2.x),
+                y: nonneg(r.upper_infill_area_y_m2).unwrap_or(ground.infill_m2.y),
+            },
+        };
+        return (vec![ground, second], StoreySource::Upper);
+    }
+    let walls = |d: Dir| {
+        if walls_listed {
+            listed_wall_area_at(2, d)
+        } else {
+            *ground.rc_wall_m2.get(d)
+        }
+    };
+    let second = StoreyAreas {
+        height_m: height(2),
+        column_m2: ground.column_m2,
+        rc_wall_m2: PerDir {
+            x: walls(Dir::X),
+            y: walls(Dir::Y),
+        },
+        infill_m2: ground.infill_m2,
+    };
+    (
+        vec![ground, second],
+        StoreySource::Derived {
+            walls_sheet: walls_listed,
+        },
+    )
 }
 
 /// Resolves every quantity of method §0 for one building. `Err` holds the reasons the
@@ -503,6 +624,18 @@ pub fn resolve(input: &BuildingInput<'_>, settings: &Settings) -> Result<Resolve
             });
         }
     }
+    // A blank wall-area cell is "no RC walls": say so (interface.md, defaults_used) when
+    // neither the cell nor the walls sheet gives walls in that direction.
+    for d in Dir::BOTH {
+        let cell = match d {
+            Dir::X => r.rc_wall_area_x_m2,
+            Dir::Y => r.rc_wall_area_y_m2,
+        };
+        let listed_here = walls_listed && walls.iter().any(|w| w.dir == d);
+        if cell.is_none() && !listed_here {
+            defaults.push(format!("rc_wall_area_{}_m2", d.code()));
+        }
+    }
     if thickness_defaulted {
         defaults.push("wall_thickness_m".into());
     }
@@ -554,7 +687,7 @@ pub fn resolve(input: &BuildingInput<'_>, settings: &Settings) -> Result<Resolve
         listed
             .iter()
             .filter(|w| w.direction == Some(d))
-            .filter(|w| w.start_storey.unwrap_or(1) <= i && w.end_storey.is_none_or(|e| e >= i))
+            .filter(|w| w.start_storey.unwrap_or(1) <= i && w.end_storey.unwrap_or(n) >= i)
             .map(|w| {
                 w.length_m.max(0.0)
                     * positive(w.thickness_m)
@@ -563,92 +696,14 @@ pub fn resolve(input: &BuildingInput<'_>, settings: &Settings) -> Result<Resolve
             })
             .fold(0.0, |a, b| a + b)
     };
-    let (storeys, storey_source) = if !input.storeys.is_empty() && n >= 2 {
-        let mut out = Vec::with_capacity(n as usize);
-        let mut prev = ground;
-        for i in 1..=n {
-            let row = input.storeys.iter().find(|s| s.storey == i);
-            let base = if i == 1 { ground } else { prev };
-            let wall_default = |d: Dir| {
-                if walls_listed && i > 1 {
-                    listed_wall_area_at(i, d)
-                } else {
-                    *base.rc_wall_m2.get(d)
-                }
-            };
-            let s = StoreyAreas {
-                height_m: heights_m.get(i as usize - 1).copied().unwrap_or(typical_h),
-                column_m2: row
-                    .and_then(|s| nonneg(s.column_area_m2))
-                    .unwrap_or(base.column_m2),
-                rc_wall_m2: PerDir {
-                    x: row
-                        .and_then(|s| nonneg(s.rc_wall_area_x_m2))
-                        .unwrap_or_else(|| wall_default(Dir::X)),
-                    y: row
-                        .and_then(|s| nonneg(s.rc_wall_area_y_m2))
-                        .unwrap_or_else(|| wall_default(Dir::Y)),
-                },
-                infill_m2: PerDir {
-                    x: row
-                        .and_then(|s| nonneg(s.infill_area_x_m2))
-                        .unwrap_or(base.infill_m2.x),
-                    y: row
-                        .and_then(|s| nonneg(s.infill_area_y_m2))
-                        .unwrap_or(base.infill_m2.y),
-                },
-            };
-            // The ground storey of the method is the buildings row (and listed walls).
-            let s = if i == 1 {
-                StoreyAreas {
-                    height_m: s.height_m,
-                    ..ground
-                }
-            } else {
-                s
-            };
-            out.push(s);
-            prev = s;
-        }
-        (out, StoreySource::Sheet)
-    } else if n >= 2 {
-        let upper_given = r.upper_rc_wall_area_x_m2.is_some()
-            || r.upper_rc_wall_area_y_m2.is_some()
-            || r.upper_infill_area_x_m2.is_some()
-            || r.upper_infill_area_y_m2.is_some()
-            || r.upper_column_area_m2.is_some();
-        let upper_wall = |d: Dir, v: Option<f64>| {
-            nonneg(v).unwrap_or_else(|| {
-                if walls_listed {
-                    listed_wall_area_at(2, d)
-                } else {
-                    *rc_wall_area_m2.get(d)
-                }
-            })
-        };
-        let second = StoreyAreas {
-            height_m: heights_m.get(1).copied().unwrap_or(typical_h),
-            column_m2: nonneg(r.upper_column_area_m2).unwrap_or(column_area_m2),
-            rc_wall_m2: PerDir {
-                x: upper_wall(Dir::X, r.upper_rc_wall_area_x_m2),
-                y: upper_wall(Dir::Y, r.upper_rc_wall_area_y_m2),
-            },
-            infill_m2: PerDir {
-                x: nonneg(r.upper_infill_area_x_m2).unwrap_or(infill_area_m2.x),
-                y: nonneg(r.upper_infill_area_y_m2).unwrap_or(infill_area_m2.y),
-            },
-        };
-        let differs = upper_given
-            || second.rc_wall_m2 != ground.rc_wall_m2
-            || (second.height_m - ground.height_m).abs() > 0.0;
-        if differs {
-            (vec![ground, second], StoreySource::Upper)
-        } else {
-            (vec![ground, second], StoreySource::None)
-        }
-    } else {
-        (vec![ground], StoreySource::None)
-    };
+    let (storeys, storey_source) = storey_data(
+        input,
+        n,
+        &heights_m,
+        ground,
+        walls_listed,
+        listed_wall_area_at,
+    );
 
     if !errors.is_empty() {
         return Err(errors);
@@ -718,5 +773,214 @@ mod tests {
     fn axial_ratio_guarded() {
         assert!((axial_load_ratio(1000.0, 1.0, 20.0) - 0.05).abs() < 1e-12);
         assert_eq!(axial_load_ratio(1000.0, 0.0, 20.0), 0.0);
+    }
+
+    mod storey_data_precedence {
+        //! Method §10 storey-data precedence, one test per case (hand-set areas; the
+        //! thresholds are ASCE 7-16 Table 12.3-2 types 1a/5a as in the settings).
+        use super::super::*;
+        use crate::model::{BuildingRecord, StoreyRecord, WallRecord};
+
+        fn rec(n: u32) -> BuildingRecord {
+            BuildingRecord {
+                row: 2,
+                id: "S".into(),
+                storeys: n,
+                storey_height_m: Some(3.0),
+                ground_storey_height_m: Some(3.0),
+                plan_area_m2: 200.0,
+                column_area_m2: 4.0,
+                rc_wall_area_x_m2: Some(2.0),
+                rc_wall_area_y_m2: Some(1.0),
+                infill_area_x_m2: Some(10.0),
+                infill_area_y_m2: Some(6.0),
+                agr_g: Some(0.2),
+                ..Default::default()
+            }
+        }
+
+        fn input<'a>(
+            r: &'a BuildingRecord,
+            walls: &'a [WallRecord],
+            storeys: &'a [StoreyRecord],
+        ) -> BuildingInput<'a> {
+            BuildingInput {
+                record: r,
+                walls: walls.iter().collect(),
+                storeys: storeys.iter().collect(),
+                footprint: vec![],
+                site: None,
+            }
+        }
+
+        fn storey(i: u32, col: Option<f64>, wx: Option<f64>) -> StoreyRecord {
+            StoreyRecord {
+                row: i as usize + 1,
+                building_id: "S".into(),
+                storey: i,
+                height_m: Some(3.0),
+                column_area_m2: col,
+                rc_wall_area_x_m2: wx,
+                ..Default::default()
+            }
+        }
+
+        fn wall(id: &str, lw: f64, start: Option<u32>, end: Option<u32>) -> WallRecord {
+            WallRecord {
+                row: 2,
+                building_id: "S".into(),
+                wall_id: id.into(),
+                direction: Some(Dir::X),
+                length_m: lw,
+                thickness_m: Some(0.25),
+                start_storey: start,
+                end_storey: end,
+                ..Default::default()
+            }
+        }
+
+        #[test]
+        fn case_1_storeys_sheet_rows_2_to_4_while_rows_exist() {
+            let r = rec(6);
+            // Rows 2, 3 and 5: storey 4 has no row, so storeys 1–3 are used.
+            let st = [
+                storey(2, Some(5.0), None),
+                storey(3, None, Some(3.0)),
+                storey(5, Some(1.0), None),
+            ];
+            let res = resolve(&input(&r, &[], &st), &Settings::default()).unwrap();
+            assert_eq!(res.storey_source, StoreySource::Sheet);
+            assert_eq!(res.storeys.len(), 3);
+            // Storey 1 is the buildings row.
+            assert_eq!(res.storeys[0].column_m2, 4.0);
+            assert_eq!(res.storeys[1].column_m2, 5.0);
+            // Blank cells take the storey below's value.
+            assert_eq!(res.storeys[1].rc_wall_m2.x, 2.0);
+            assert_eq!(res.storeys[2].column_m2, 5.0);
+            assert_eq!(res.storeys[2].rc_wall_m2.x, 3.0);
+            assert_eq!(res.storeys[2].infill_m2.x, 10.0);
+            // Rows 2, 3, 4 (and more): at most storeys 1–4 (the mean test).
+            let st: Vec<StoreyRecord> = (2..=6).map(|i| storey(i, None, None)).collect();
+            let res = resolve(&input(&r, &[], &st), &Settings::default()).unwrap();
+            assert_eq!(res.storeys.len(), 4);
+            // A row for storey 1 only is not storey data (falls through to case 3).
+            let st = [storey(1, Some(9.0), None)];
+            let res = resolve(&input(&r, &[], &st), &Settings::default()).unwrap();
+            assert_eq!(
+                res.storey_source,
+                StoreySource::Derived { walls_sheet: false }
+            );
+            assert_eq!(res.storeys[0].column_m2, 4.0);
+        }
+
+        #[test]
+        fn case_2_upper_cells_blanks_take_the_ground_values() {
+            let mut r = rec(4);
+            r.upper_column_area_m2 = Some(6.0);
+            r.storey_height_m = Some(2.8);
+            let w = [wall("W1", 4.0, None, None), wall("W2", 6.0, Some(2), None)];
+            let res = resolve(&input(&r, &w, &[]), &Settings::default()).unwrap();
+            assert_eq!(res.storey_source, StoreySource::Upper);
+            assert_eq!(res.storeys.len(), 2);
+            assert_eq!(res.storeys[1].column_m2, 6.0);
+            // Blank upper wall cell: the ground storey's value (listed ground walls 1.0 m²),
+            // not the walls standing in storey 2.
+            assert_eq!(res.storeys[1].rc_wall_m2.x, 1.0);
+            assert_eq!(res.storeys[1].infill_m2.y, 6.0);
+            assert_eq!(res.storeys[1].height_m, 2.8);
+        }
+
+        #[test]
+        fn case_3_walls_sheet_and_storey_heights() {
+            let r = rec(4);
+            // W1 stands in storey 1 only; W2 starts at storey 2; W3 in all storeys.
+            let w = [
+                wall("W1", 4.0, Some(1), Some(1)),
+                wall("W2", 6.0, Some(2), None),
+                wall("W3", 2.0, None, None),
+            ];
+            let res = resolve(&input(&r, &w, &[]), &Settings::default()).unwrap();
+            assert_eq!(
+                res.storey_source,
+                StoreySource::Derived { walls_sheet: true }
+            );
+            assert_eq!(res.storeys[0].rc_wall_m2.x, (4.0 + 2.0) * 0.25);
+            assert_eq!(res.storeys[1].rc_wall_m2.x, (6.0 + 2.0) * 0.25);
+            assert_eq!(res.storeys[1].column_m2, 4.0);
+            assert_eq!(res.storeys[1].infill_m2, res.storeys[0].infill_m2);
+            // The flag says which data it used.
+            let b =
+                crate::engine::screen_building(&input(&r, &w, &[]), &Settings::default()).unwrap();
+            let f = b
+                .flags
+                .iter()
+                .find(|f| f.code == "weak-storey" || f.code.starts_with("soft-storey"));
+            // Storey 2 X: walls 2.0 m² vs 1.5 m² at the ground: k1/k2 =
+            // (1.5 + 1 + 2)/(2 + 1 + 2) = 0.9 (no soft flag); strength S1/S2 =
+            // (2 + 2·1.5 + 0.7·4)/(2 + 2·2 + 0.7·4) = 7.8/8.8 = 0.886 (no weak flag).
+            assert!(f.is_none(), "{f:?}");
+        }
+
+        #[test]
+        fn case_3_without_walls_sheet_a_tall_ground_storey_is_found() {
+            let mut r = rec(5);
+            r.ground_storey_height_m = Some(4.5);
+            let res = resolve(&input(&r, &[], &[]), &Settings::default()).unwrap();
+            assert_eq!(
+                res.storey_source,
+                StoreySource::Derived { walls_sheet: false }
+            );
+            assert_eq!(res.storeys[1].height_m, 3.0);
+            assert_eq!(res.storeys[1].rc_wall_m2, res.storeys[0].rc_wall_m2);
+            // Equal areas: k1/k2 = h2/h1 = 3/4.5 = 0.667 < 0.70 → soft (not < 0.60).
+            let b =
+                crate::engine::screen_building(&input(&r, &[], &[]), &Settings::default()).unwrap();
+            let f = b
+                .flags
+                .iter()
+                .find(|f| f.code == "soft-storey" && f.direction == Some(Dir::X))
+                .unwrap();
+            assert!(f.detail.contains("k1/k2 = 0.667"), "{}", f.detail);
+            assert!(
+                f.detail.contains("data from the storey heights"),
+                "{}",
+                f.detail
+            );
+        }
+
+        #[test]
+        fn case_3_walls_starting_above_the_ground_make_a_weak_soft_storey() {
+            let mut r = rec(4);
+            r.infill_area_x_m2 = Some(0.0);
+            let w = [wall("W2", 8.0, Some(2), None)];
+            let b =
+                crate::engine::screen_building(&input(&r, &w, &[]), &Settings::default()).unwrap();
+            // Storey 2 X: 2 m² of wall, none at the ground: k1/k2 = 2/(2 + 2) = 0.5 < 0.6.
+            let f = b
+                .flags
+                .iter()
+                .find(|f| f.code == "soft-storey-extreme" && f.direction == Some(Dir::X))
+                .unwrap();
+            assert!(
+                f.detail
+                    .contains("data from the walls sheet and storey heights"),
+                "{}",
+                f.detail
+            );
+            // S1/S2 = 4/(2·2 + 0.7·4) = 4/6.8 = 0.588 < 0.80 → weak.
+            assert!(b.flags.iter().any(|f| {
+                f.code == "weak-storey"
+                    && f.detail
+                        .contains("data from the walls sheet and storey heights")
+            }));
+        }
+
+        #[test]
+        fn one_storey_no_check() {
+            let r = rec(1);
+            let res = resolve(&input(&r, &[], &[]), &Settings::default()).unwrap();
+            assert_eq!(res.storey_source, StoreySource::None);
+            assert_eq!(res.storeys.len(), 1);
+        }
     }
 }

@@ -579,10 +579,28 @@ impl Geography {
             .map(str::trim)
             .filter(|s| !s.is_empty());
         let mut site = SiteInfo::default();
+        // inventory.md, "Coordinates": outside every district as given, inside one with
+        // latitude and longitude swapped → they look swapped (the point is used as given).
+        let swapped_into = point
+            .filter(|_| self.districts_given)
+            .filter(|p| self.district_at(*p).is_none())
+            .filter(|p| (-90.0..=90.0).contains(&p.lon))
+            .and_then(|p| self.district_at(LatLon::new(p.lon, p.lat)))
+            .map(|d| d.name.clone());
+        if let (Some(d), Some(p)) = (&swapped_into, point) {
+            problems.push(warn(
+                "latitude",
+                format!(
+                    "latitude and longitude look swapped: the point (latitude {}, longitude {}) lies outside every district polygon, but with the two swapped it lies in district \"{d}\"; the point is used as given: check the two columns",
+                    p.lat, p.lon
+                ),
+            ));
+        }
         match (given, point) {
             (Some(name), _) => site.district = name.to_string(),
             (None, Some(p)) if self.districts_given => match self.district_at(p) {
                 Some(d) => site.district = d.name.clone(),
+                None if swapped_into.is_some() => {}
                 None => problems.push(warn(
                     "",
                     format!(

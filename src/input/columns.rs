@@ -684,8 +684,278 @@ pub const SETTINGS: SheetSpec = SheetSpec {
     ],
 };
 
+/// What a unit measures; units convert only within one kind.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Quantity {
+    /// Lengths (base m).
+    Length,
+    /// Areas (base m²).
+    Area,
+    /// Stresses and pressures (base kPa).
+    Stress,
+    /// Angles (base deg).
+    Angle,
+    /// Percentages (base %).
+    Percent,
+    /// Accelerations (base g).
+    Acceleration,
+    /// Times (base s).
+    Time,
+}
+
+impl Quantity {
+    /// A plain-words name for messages.
+    pub fn name(self) -> &'static str {
+        match self {
+            Quantity::Length => "a length",
+            Quantity::Area => "an area",
+            Quantity::Stress => "a stress",
+            Quantity::Angle => "an angle",
+            Quantity::Percent => "a percentage",
+            Quantity::Acceleration => "an acceleration",
+            Quantity::Time => "a time",
+        }
+    }
+}
+
+/// One known unit: how it is written (after [`super::header::normalise`]), what it
+/// measures and its size in the base unit of its kind.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Unit {
+    /// How the unit is shown in messages.
+    pub label: &'static str,
+    /// Accepted spellings, normalised (lower case, `²` → `2`).
+    pub spellings: &'static [&'static str],
+    /// What it measures.
+    pub quantity: Quantity,
+    /// Size in the base unit of its kind = `num / den` (mm = 1/1000 m; MPa = 1000/1 kPa;
+    /// m/s² = 1/9.81 g), kept as a fraction so that a conversion divides where it should
+    /// (250 mm → 250 / 1000 = 0.25 m exactly, as typed in metres).
+    pub num: f64,
+    /// See `num`.
+    pub den: f64,
+}
+
+/// A conversion between two units of one kind: `v × mul ÷ div`.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Factor {
+    /// Multiplier.
+    pub mul: f64,
+    /// Divisor.
+    pub div: f64,
+}
+
+impl Factor {
+    /// No conversion.
+    pub const ONE: Factor = Factor { mul: 1.0, div: 1.0 };
+    /// The conversion from `from` to `to` (same kind).
+    pub fn between(from: &Unit, to: &Unit) -> Factor {
+        Factor {
+            mul: from.num * to.den,
+            div: from.den * to.num,
+        }
+    }
+    /// Converts a value.
+    pub fn apply(self, v: f64) -> f64 {
+        if self == Self::ONE {
+            v
+        } else {
+            v * self.mul / self.div
+        }
+    }
+}
+
+/// Standard gravity used to read an acceleration given in m/s² as g (inventory.md: agr_g
+/// in m/s² is divided by 9.81).
+pub const G_M_S2: f64 = 9.81;
+
+const fn unit(
+    label: &'static str,
+    spellings: &'static [&'static str],
+    quantity: Quantity,
+    num: f64,
+    den: f64,
+) -> Unit {
+    Unit {
+        label,
+        spellings,
+        quantity,
+        num,
+        den,
+    }
+}
+
+/// Every unit the reader knows (inventory.md's header rule): lengths mm, cm, m (and km for
+/// settings such as near_fault_km); areas mm², cm², m²; stresses N/mm² = MPa, kN/m² = kPa;
+/// angles ° = deg; percentages pct or %; accelerations g and m/s² (÷ 9.81); times s. A
+/// header or cell unit is converted to the column's canonical unit when both are of the
+/// same kind; any other unit is refused.
+pub const UNITS: &[Unit] = &[
+    unit(
+        "mm",
+        &[
+            "mm",
+            "millimetre",
+            "millimetres",
+            "millimeter",
+            "millimeters",
+        ],
+        Quantity::Length,
+        1.0,
+        1000.0,
+    ),
+    unit(
+        "cm",
+        &[
+            "cm",
+            "centimetre",
+            "centimetres",
+            "centimeter",
+            "centimeters",
+        ],
+        Quantity::Length,
+        1.0,
+        100.0,
+    ),
+    unit(
+        "m",
+        &["m", "metre", "metres", "meter", "meters"],
+        Quantity::Length,
+        1.0,
+        1.0,
+    ),
+    unit("km", &["km"], Quantity::Length, 1000.0, 1.0),
+    unit("mm²", &["mm2", "sq_mm"], Quantity::Area, 1.0, 1e6),
+    unit("cm²", &["cm2", "sq_cm"], Quantity::Area, 1.0, 1e4),
+    unit("m²", &["m2", "sq_m", "sqm"], Quantity::Area, 1.0, 1.0),
+    unit("MPa", &["mpa", "n/mm2"], Quantity::Stress, 1000.0, 1.0),
+    unit("kPa", &["kpa", "kn/m2"], Quantity::Stress, 1.0, 1.0),
+    unit(
+        "deg",
+        &["deg", "°", "degrees", "degree"],
+        Quantity::Angle,
+        1.0,
+        1.0,
+    ),
+    unit("%", &["%", "pct", "percent"], Quantity::Percent, 1.0, 1.0),
+    unit("g", &["g"], Quantity::Acceleration, 1.0, 1.0),
+    unit(
+        "m/s²",
+        &["m/s2", "m/s^2", "m/sec2"],
+        Quantity::Acceleration,
+        1.0,
+        G_M_S2,
+    ),
+    unit("s", &["s", "sec", "seconds"], Quantity::Time, 1.0, 1.0),
+];
+
+/// The known unit of a (normalised or raw) spelling.
+pub fn find_unit(text: &str) -> Option<&'static Unit> {
+    let n = super::header::normalise(text);
+    let n = n.trim_matches('_');
+    UNITS.iter().find(|u| u.spellings.contains(&n))
+}
+
+/// The canonical unit of a column, from its `unit` text (None for text, whole numbers,
+/// years and other unitless columns).
+pub fn canonical_unit(c: &Column) -> Option<&'static Unit> {
+    match c.unit {
+        "decimal degrees WGS84" => find_unit("deg"),
+        u => find_unit(u),
+    }
+}
+
+/// The canonical unit of a settings key: its last `_token` when that is a known unit
+/// (`near_fault_km` → km, `agr_g` → g, `fc_reference_mpa` → MPa).
+pub fn key_unit(key: &str) -> Option<&'static Unit> {
+    let (_, last) = key.rsplit_once('_')?;
+    find_unit(last)
+}
+
+/// The canonical name without its unit suffix (`plan_area_m2` → `plan_area`).
+pub fn name_without_unit(c: &Column) -> &'static str {
+    if let Some(u) = canonical_unit(c)
+        && let Some((head, last)) = c.name.rsplit_once('_')
+        && !head.is_empty()
+        && u.spellings.contains(&last)
+    {
+        return head;
+    }
+    c.name
+}
+
+/// Sheet `eras` (optional): the era table of the settings, as a sheet; replaces the
+/// settings' `[[era]]` rows when present.
+pub const ERAS: SheetSpec = SheetSpec {
+    name: "eras",
+    required: false,
+    meaning: "one row per construction era (replaces the settings' [[era]] table)",
+    columns: &[
+        col(
+            "from_year",
+            "year",
+            Year,
+            false,
+            "open (no lower end)",
+            "First year of the era (inclusive).",
+        ),
+        col(
+            "to_year",
+            "year",
+            Year,
+            false,
+            "open (no upper end)",
+            "Last year of the era (inclusive).",
+        ),
+        col(
+            "fc_mpa",
+            "MPa",
+            Number,
+            false,
+            "default_fc_mpa (settings)",
+            "Concrete compressive strength of buildings of the era (5–120 MPa).",
+        ),
+        col(
+            "fy_mpa",
+            "MPa",
+            Number,
+            false,
+            "default_fy_mpa (settings)",
+            "Reinforcement yield strength of buildings of the era (150–700 MPa).",
+        ),
+    ],
+};
+
+/// The header-matching rule with its units and aliases, printed in `--help` and on the
+/// template's read-me sheet. A test keeps it in step with [`UNITS`] and the aliases.
+pub const HEADER_RULE_HELP: &str = "Column names are matched after normalising: lower case; '²' -> '2'; runs of spaces, \
+'_' and '-' -> one '_'. The unit of a header is the text in its last brackets or parentheses \
+(\"Wall thickness (mm)\"), else a trailing known unit (\"plan area m2\"); the rest is the name, \
+compared with the canonical name without its unit. 'Plan Area [m2]', 'plan-area m²', \
+'PLAN_AREA_M2' and 'plan area' all match plan_area_m2. The canonical unit (or none) is read as \
+is; another unit of the same kind is converted, with a warning on the header row: lengths mm, \
+cm, m, km; areas mm², cm², m² (also mm2, cm2, m2, sq_m, sqm); stresses MPa = N/mm², kPa = kN/m²; \
+angles deg = °; percentages % = pct = percent; accelerations g, m/s² (divided by 9.81); times s \
+(also sec). A unit of another kind, or one not listed, is an error on that column, which is then \
+not used (for a required column the file is refused). Extra accepted names: building_id for \
+id; occupancy for use; construction_year, year_of_construction for year_built; lat for \
+latitude; lon, lng, long for longitude; stories, floors, number_of_storeys for storeys; \
+building for building_id (walls, storeys, footprints); story, floor for storey; setting, name \
+for key.";
+
+/// How survey text in a numeric cell is read (inventory.md), printed on the read-me sheet.
+pub const SURVEY_TEXT_HELP: &str = "Numbers written as text are read with a warning: a decimal comma ('3,2'); digits grouped \
+in threes by spaces or apostrophes ('1 200', '1'200'); both separators ('1.200,5': the last one \
+is the decimal mark); the column's unit after the number ('20 MPa', '3.1 m'; another unit of \
+the same kind is converted); a circa year ('c. 1960', 'ca 1960', '~1960'). A period alone is \
+always the decimal mark. '1,200' is ambiguous: each reading goes through the column's checks; \
+when both pass the cell is refused, showing both. The settings sheet and file follow the same \
+rules. Values that look like a unit mistake are refused, naming the likely unit: storey height \
+outside 1.5-12 m, wall thickness 0.05-1.5 m, column depth 0.1-3 m, wall length 0.3-100 m, \
+agr_g above 1.5 g (m/s²?), floor weight outside 2-40 kPa.";
+
 /// Every sheet, in template order.
-pub const SHEETS: [&SheetSpec; 5] = [&BUILDINGS, &WALLS, &STOREYS, &FOOTPRINTS, &SETTINGS];
+pub const SHEETS: [&SheetSpec; 6] = [&BUILDINGS, &WALLS, &STOREYS, &FOOTPRINTS, &ERAS, &SETTINGS];
 
 #[cfg(test)]
 mod tests {
@@ -713,6 +983,17 @@ mod tests {
 #[cfg(test)]
 mod help_tests {
     use super::SHEETS;
+
+    #[test]
+    fn every_unit_is_named_in_the_help_text() {
+        for u in super::UNITS {
+            assert!(
+                crate::input::HEADER_RULE_HELP.contains(u.label),
+                "unit {} missing from HEADER_RULE_HELP",
+                u.label
+            );
+        }
+    }
 
     #[test]
     fn every_alias_is_named_in_the_help_text() {

@@ -27,7 +27,7 @@ use std::cell::RefCell;
 use std::path::Path;
 
 use crate::model::{Inventory, Problem, Severity};
-use columns::{BUILDINGS, FOOTPRINTS, SETTINGS, STOREYS, SheetSpec, WALLS};
+use columns::{BUILDINGS, ERAS, FOOTPRINTS, SETTINGS, STOREYS, SheetSpec, WALLS};
 pub use parse::Limits;
 pub use raw::Budget;
 use raw::{CellCounter, DataRow, RawRow, SheetReader, column_letters};
@@ -73,6 +73,17 @@ pub enum InputError {
         /// The numbers.
         message: String,
     },
+    /// A fatal problem of a sheet's header (a required column missing or unusable, no
+    /// header row): one line naming the file, the sheet and what is missing.
+    #[error("{path}: sheet {sheet}: {message}")]
+    MissingColumns {
+        /// Path.
+        path: String,
+        /// Sheet name as found in the file.
+        sheet: String,
+        /// What is missing.
+        message: String,
+    },
     /// The caller of [`read_inventory_settled`] refused the settings (its own error says
     /// why); the other sheets were not read.
     #[error("{path}: reading stopped: the settings were refused")]
@@ -115,16 +126,20 @@ impl SheetRun<'_> {
                 c.building_problems.extend(problems);
             }
             "walls" => {
-                let r = parse::wall(&row, self.decimal_comma);
+                let r = parse::wall_with(&row, self.decimal_comma, &self.limits);
                 c.walls.push(r);
             }
             "storeys" => {
-                let r = parse::storey(&row, self.decimal_comma);
+                let r = parse::storey_with(&row, self.decimal_comma, &self.limits);
                 c.storeys.push(r);
             }
             "footprints" => {
                 let r = parse::footprint(&row, self.decimal_comma);
                 c.footprints.push(r);
+            }
+            "eras" => {
+                let r = parse::era(&row, self.decimal_comma, &self.limits);
+                c.eras.push(r);
             }
             _ => {
                 let key = row.cells.first().map(|c| c.as_text()).unwrap_or_default();
@@ -412,6 +427,7 @@ fn read_workbook(
             .find(|n| header::normalise(n) == spec.name)
             .cloned()
     };
+    let fallback = find(&BUILDINGS).is_none();
     let buildings = match find(&BUILDINGS) {
         Some(n) => n,
         None => {
@@ -443,17 +459,38 @@ fn read_workbook(
     let mut settings_problems = Vec::new();
     let opts = &settled_options(&p, opts, settle, collected, &mut settings_problems)?;
     collected.borrow_mut().sheet_problems = first_problems;
-    let sheets: [(&'static SheetSpec, Option<String>); 4] = [
+    let sheets: [(&'static SheetSpec, Option<String>); 5] = [
         (&BUILDINGS, Some(buildings.clone())),
         (&WALLS, find(&WALLS).filter(|n| *n != buildings)),
         (&STOREYS, find(&STOREYS).filter(|n| *n != buildings)),
         (&FOOTPRINTS, find(&FOOTPRINTS).filter(|n| *n != buildings)),
+        (&ERAS, find(&ERAS).filter(|n| *n != buildings)),
     ];
     for (spec, name) in sheets {
         let Some(name) = name else { continue };
-        run_sheet(spec, &name, false, opts, &p, collected, |sink| {
+        let read = run_sheet(spec, &name, false, opts, &p, collected, |sink| {
             wb.read_sheet(&name, &p, &budget, counter, sink)
-        })?;
+        });
+        match read {
+            Err(InputError::MissingColumns { path, .. })
+                if fallback && spec.name == "buildings" =>
+            {
+                return Err(InputError::MissingColumns {
+                    path,
+                    sheet: "buildings".into(),
+                    message: format!(
+                        "no sheet named buildings, and the first sheet \"{name}\" does not hold the required columns ({}); sheets found: {}",
+                        BUILDINGS.required_names().join(", "),
+                        names
+                            .iter()
+                            .map(|n| format!("\"{n}\""))
+                            .collect::<Vec<_>>()
+                            .join(", ")
+                    ),
+                });
+            }
+            r => r?,
+        }
     }
     collected
         .borrow_mut()
@@ -489,7 +526,7 @@ fn read_csv_files(
     let opts = &settled_options(&p, opts, settle, collected, &mut settings_problems)?;
     let mut files: Vec<(&'static SheetSpec, std::path::PathBuf)> =
         vec![(&BUILDINGS, path.to_path_buf())];
-    for spec in [&WALLS, &STOREYS, &FOOTPRINTS] {
+    for spec in [&WALLS, &STOREYS, &FOOTPRINTS, &ERAS] {
         if let Some(file) = sibling(spec) {
             files.push((spec, file));
         }
@@ -544,7 +581,7 @@ pub fn csv_has_siblings(path: &Path) -> bool {
         .map(|s| s.to_string_lossy().into_owned())
         .unwrap_or_default();
     let dir = path.parent().unwrap_or(Path::new("."));
-    [&WALLS, &STOREYS, &FOOTPRINTS, &SETTINGS]
+    [&WALLS, &STOREYS, &FOOTPRINTS, &ERAS, &SETTINGS]
         .iter()
         .any(|spec| dir.join(format!("{stem}.{}.csv", spec.name)).is_file())
 }
@@ -669,14 +706,9 @@ fn csv_info(file: &Path, budget: &Budget) -> Result<bool, InputError> {
     Ok(csv::delimiter_of(&head) == b';')
 }
 
-/// The header-matching rule, printed in `--help` and on the template's read-me sheet.
-pub const HEADER_RULE_HELP: &str = "Column names are matched after normalising: lower case; '²' -> '2'; brackets and \
-parentheses removed; runs of spaces, '_' and '-' -> one '_'; then one trailing unit token \
-(m, m2, mm, kn, kpa, mpa, g, s, pct, %, deg, year) is stripped. 'Plan Area [m2]', 'plan-area m²' \
-and 'PLAN_AREA_M2' all match plan_area_m2. Extra accepted names: building_id for id; \
-occupancy for use; construction_year, year_of_construction for year_built; lat for latitude; \
-lon, lng, long for longitude; stories, floors, number_of_storeys for storeys; building for \
-building_id (walls, storeys, footprints); story, floor for storey; setting, name for key.";
+/// The header-matching rule, printed in `--help` and on the template's read-me sheet (kept
+/// with the units and aliases in [`columns`]).
+pub use columns::{HEADER_RULE_HELP, SURVEY_TEXT_HELP};
 
 #[cfg(test)]
 mod tests {

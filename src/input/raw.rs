@@ -151,12 +151,15 @@ impl CellCounter {
 }
 
 /// A data row in canonical column order (one cell per column of the sheet spec).
-#[derive(Debug, Clone)]
+#[derive(Debug, Clone, Default)]
 pub struct DataRow {
     /// Row a person sees.
     pub row: usize,
     /// Cells, one per column of the spec (Empty where the column is absent).
     pub cells: Vec<RawCell>,
+    /// Per column of the spec, the factor from the header's unit to the canonical unit
+    /// (shared by every row of the sheet; empty or missing = 1, the canonical unit).
+    pub scale: std::sync::Arc<[super::columns::Factor]>,
 }
 
 enum State {
@@ -186,6 +189,10 @@ pub struct SheetReader<'s> {
     consumer: Box<dyn FnMut(DataRow) + 's>,
     /// Spec position of each 0-based sheet column (None = not a known column).
     slots: Vec<Option<usize>>,
+    /// Header-unit factor per spec column.
+    scale: std::sync::Arc<[super::columns::Factor]>,
+    /// A fatal problem of the header (a required column missing or unusable): one line.
+    fatal: Option<String>,
 }
 
 impl<'s> SheetReader<'s> {
@@ -213,6 +220,8 @@ impl<'s> SheetReader<'s> {
             problems: Vec::new(),
             consumer: Box::new(consumer),
             slots: Vec::new(),
+            scale: std::sync::Arc::from(Vec::new()),
+            fatal: None,
         }
     }
 
@@ -226,8 +235,19 @@ impl<'s> SheetReader<'s> {
         });
     }
 
+    fn fatal_error(&self, message: &str) -> InputError {
+        InputError::MissingColumns {
+            path: self.path.clone(),
+            sheet: self.sheet.clone(),
+            message: message.to_string(),
+        }
+    }
+
     /// Feeds the next row (rows arrive in ascending order; absent rows are blank).
     pub fn push(&mut self, row: RawRow) -> Result<(), InputError> {
+        if let Some(f) = &self.fatal {
+            return Err(self.fatal_error(f));
+        }
         match &mut self.state {
             State::Searching(buf) => {
                 if let Some(h) = self.header_row {
@@ -286,13 +306,14 @@ impl<'s> SheetReader<'s> {
             None => {
                 self.state = State::Data(HeaderMap::default());
                 let req = self.spec.required_names().join(", ");
-                self.sheet_problem(
-                    None,
-                    format!(
-                        "expected a header row naming the columns ({req}) within the first {HEADER_SCAN_ROWS} rows, found none; use --header-row N if it is further down"
-                    ),
-                    Severity::Error,
+                let message = format!(
+                    "expected a header row naming the columns ({req}) within the first {HEADER_SCAN_ROWS} rows, found none; use --header-row N if it is further down"
                 );
+                if self.spec.required {
+                    self.fatal = Some(message);
+                } else {
+                    self.sheet_problem(None, message, Severity::Error);
+                }
             }
         }
         Ok(())
@@ -323,14 +344,60 @@ impl<'s> SheetReader<'s> {
                 Severity::Warning,
             );
         }
+        for (_, _, note) in &map.conversions {
+            self.sheet_problem(Some(row.row), note.clone(), Severity::Warning);
+        }
+        for (name, e) in &map.unit_errors {
+            if !map.missing_required.contains(name) {
+                self.problems.push(Problem {
+                    sheet: self.spec.name.to_string(),
+                    row: Some(row.row),
+                    column: (*name).to_string(),
+                    message: e.clone(),
+                    severity: Severity::Error,
+                });
+            }
+        }
         if !map.missing_required.is_empty() {
             let m = map.missing_required.join(", ");
-            self.sheet_problem(
-                Some(row.row),
-                format!("expected the required column(s) {m} in the header row, found none"),
-                Severity::Error,
-            );
+            let why: Vec<&str> = map
+                .unit_errors
+                .iter()
+                .filter(|(n, _)| map.missing_required.contains(n))
+                .map(|(_, e)| e.as_str())
+                .collect();
+            let found = header_texts(&row)
+                .into_iter()
+                .map(|(_, t)| t.trim().to_string())
+                .filter(|t| !t.is_empty())
+                .map(|t| format!("\"{t}\""))
+                .collect::<Vec<_>>()
+                .join(", ");
+            self.fatal = Some(if why.is_empty() {
+                format!(
+                    "the required column(s) {m} are missing from the header row (row {}; found {}); add them (names and units: `seistriage template`)",
+                    row.row,
+                    if found.is_empty() {
+                        "no names".to_string()
+                    } else {
+                        found
+                    }
+                )
+            } else {
+                format!(
+                    "the required column(s) {m} cannot be used (header row {}): {}",
+                    row.row,
+                    why.join("; ")
+                )
+            });
         }
+        let scale: Vec<super::columns::Factor> = self
+            .spec
+            .columns
+            .iter()
+            .map(|c| map.factor(c.name))
+            .collect();
+        self.scale = std::sync::Arc::from(scale);
         let width = map.matched.iter().map(|(i, _)| i + 1).max().unwrap_or(0);
         let mut slots = vec![None; width];
         for (i, name) in &map.matched {
@@ -396,6 +463,7 @@ impl<'s> SheetReader<'s> {
         (self.consumer)(DataRow {
             row: row.row,
             cells,
+            scale: self.scale.clone(),
         });
         Ok(())
     }
@@ -404,22 +472,23 @@ impl<'s> SheetReader<'s> {
     pub fn finish(mut self) -> Result<SheetSummary, InputError> {
         if let State::Searching(buf) = &self.state {
             if self.header_row.is_some() || buf.is_empty() {
-                if let Some(h) = self.header_row {
-                    self.sheet_problem(
-                        Some(h),
-                        format!("expected the header row at row {h} (--header-row), found the sheet ends before it"),
-                        Severity::Error,
-                    );
+                let message = if let Some(h) = self.header_row {
+                    format!(
+                        "expected the header row at row {h} (--header-row), found the sheet ends before it"
+                    )
                 } else {
-                    self.sheet_problem(
-                        None,
-                        "expected a header row and data, found an empty sheet".into(),
-                        Severity::Error,
-                    );
+                    "expected a header row and data, found an empty sheet".to_string()
+                };
+                if self.spec.required {
+                    return Err(self.fatal_error(&message));
                 }
+                self.sheet_problem(self.header_row, message, Severity::Error);
             } else {
                 self.settle_best()?;
             }
+        }
+        if let Some(f) = &self.fatal {
+            return Err(self.fatal_error(f));
         }
         let missing = match &self.state {
             State::Data(m) => m.missing_required.clone(),

@@ -28,6 +28,8 @@ pub struct Collected {
     pub storeys: Vec<(StoreyRecord, Vec<Problem>)>,
     /// Footprint rows.
     pub footprints: Vec<(FootprintVertex, Vec<Problem>)>,
+    /// Era rows (`eras` sheet).
+    pub eras: Vec<(crate::settings::Era, Vec<Problem>)>,
     /// Sheet-level problems, in order.
     pub sheet_problems: Vec<Problem>,
     /// Settings rows.
@@ -330,6 +332,15 @@ pub fn finish_with_ids(
     }
     problems.extend(row_problems);
     problems.extend(later);
+    // The eras sheet: rows with errors are left out (reported); the rest replace the
+    // settings' era table (pipeline).
+    for (era, probs) in std::mem::take(&mut c.eras) {
+        let bad = has_error(&probs);
+        problems.extend(probs);
+        if !bad {
+            inv.eras.push(era);
+        }
+    }
     inv.buildings = c.buildings;
     inv.walls = walls;
     inv.storeys = storeys;

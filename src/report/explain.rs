@@ -320,20 +320,26 @@ fn render(
         let dd = &b.directions.get(dir).detail;
         let _ = writeln!(
             o,
-            "  {}: C_w = β·(τ_w·A_cw + τ_m·A_mw)·1000/W = {} (τ_w {} MPa, τ_m {} MPa{}); C_c = β·τ_c·A_col·1000/W = {} (τ_c {} MPa); α1 = {}; C_y = C_w + α1·C_c = {}",
+            "  {}: C_rc = β·τ_w·A_cw·1000/W = {} (τ_w {} MPa{}); C_m = β·τ_m·A_mw·1000/W = {} (τ_m {} MPa); C_c = β·τ_c·A_col·1000/W = {} (τ_c {} MPa); C_y = C_m + max(C_rc + {}·C_c, C_c) = {} ({})",
             dir.code(),
-            n(dd.strength_walls),
+            n(dd.strength_walls - dd.strength_infill),
             n(s.tau_wall_mpa),
-            n(crate::engine::strength::tau_infill_mpa(s)),
             if dd.added_wall_area_m2 > 0.0 {
                 format!(", new walls {} m²", n(dd.added_wall_area_m2))
             } else {
                 String::new()
             },
+            n(dd.strength_infill),
+            n(crate::engine::strength::tau_infill_mpa(s)),
             n(dd.strength_columns),
             n(s.tau_column_mpa),
-            n(dd.alpha1),
-            n(dd.strength_coefficient)
+            n(s.alpha1_with_walls),
+            n(dd.strength_coefficient),
+            if dd.wall_governed {
+                "wall-governed"
+            } else {
+                "column-governed"
+            }
         );
     }
     let _ = writeln!(o, "§4 Period (EN 1998-1 §4.3.3.2.2)");
@@ -470,15 +476,48 @@ fn render(
                 .as_ref()
                 .map_or("not computed (no columns)".into(), lv)
         );
-        if let (Some(dw), Some(c)) = (r.drift_demand.walls, r.capacity.walls) {
-            let g = engine::dcr::group_dcr(dw, &c);
-            let _ = writeln!(o, "     walls δ_w/θ_w: {}", lv(&g));
+        if let Some(g) = &r.group_dcr.walls {
+            let _ = writeln!(o, "     walls δ_w/θ_w: {}", lv(g));
         }
-        if let (Some(dc), Some(c)) = (r.drift_demand.columns, r.capacity.columns) {
-            let g = engine::dcr::group_dcr(dc, &c);
-            let _ = writeln!(o, "     columns δ_c/θ_c: {}", lv(&g));
+        if let Some(g) = &r.group_dcr.columns {
+            let _ = writeln!(o, "     columns δ_c/θ_c: {}", lv(g));
         }
-        let _ = writeln!(o, "     DCR = max over groups: {}", lv(&r.dcr));
+        if let Some(f) = &r.frame_alone {
+            let governs: Vec<&str> = [(f.governs.ls, "LS"), (f.governs.cp, "CP")]
+                .into_iter()
+                .filter_map(|(g, l)| g.then_some(l))
+                .collect();
+            let _ = writeln!(
+                o,
+                "     frame alone (RC walls removed): C_y = C_m + C_c = {}; T = {} s; Se = {} g; δ_r = {}; κ = {}; δ_c = {}; DCR LS {} CP {} — {}",
+                n(f.strength_coefficient),
+                n(f.period_s),
+                n(f.se_g),
+                n(f.roof_drift_demand),
+                n(f.kappa),
+                n(f.drift_demand_columns),
+                n(f.dcr.ls),
+                n(f.dcr.cp),
+                if governs.is_empty() {
+                    "does not govern".to_string()
+                } else {
+                    format!(
+                        "governs at {} (never worse than the frame alone)",
+                        governs.join(" and ")
+                    )
+                }
+            );
+        }
+        let _ = writeln!(
+            o,
+            "     DCR = max over groups{}: {}",
+            if r.frame_alone.is_some() {
+                ", at LS and CP not above the frame alone"
+            } else {
+                ""
+            },
+            lv(&r.dcr)
+        );
     }
     let _ = writeln!(o, "§10 Flags");
     if b.flags.is_empty() {
@@ -508,9 +547,10 @@ fn render(
     if let Some(rf) = &b.retrofit {
         let _ = writeln!(
             o,
-            "§12 Retrofit: added wall area x {} m², y {} m²; cost {}; replacement cost {}; replace {}; flags after: {}{}",
+            "§12 Retrofit: added wall area x {} m², y {} m²; column remedy {}; cost {}; replacement cost {}; replace {}; flags after: {}{}",
             opt(rf.added_wall_area_m2.x, "no wall solution within the cap"),
             opt(rf.added_wall_area_m2.y, "no wall solution within the cap"),
+            if rf.column_remedy { "yes" } else { "no" },
             opt(rf.cost, "no unit costs, or no wall solution"),
             opt(rf.replacement_cost, "no unit costs"),
             rf.replace

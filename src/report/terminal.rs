@@ -92,6 +92,19 @@ pub fn summary(report: &Report, written: &[(String, PathBuf)]) -> String {
     } else {
         let _ = writeln!(s, "Not screened: 0 rows");
     }
+    // Never silently left out of the map (inventory.md, "Coordinates"). The streaming path
+    // keeps no building objects in the report: nothing to count there.
+    let no_coordinates = report
+        .buildings
+        .iter()
+        .filter(|b| b.latitude.is_none() || b.longitude.is_none())
+        .count();
+    if no_coordinates > 0 {
+        let _ = writeln!(
+            s,
+            "{no_coordinates} buildings without coordinates are not in the GeoJSON or on the map"
+        );
+    }
     if report.budget_plan.is_some() || report.settings.budget.is_some() {
         let _ = writeln!(s, "{}", super::workbook::budget_line(report));
     }

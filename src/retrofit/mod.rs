@@ -21,7 +21,7 @@ use rayon::prelude::*;
 
 use crate::engine::{self, BuildingInput, NewWalls};
 use crate::model::{Dir, PerDir};
-use crate::results::{BudgetPlan, BuildingResult, Retrofit};
+use crate::results::{BudgetPlan, BuildingResult, Excluded, Retrofit};
 use crate::settings::Settings;
 
 /// Sizes the wall retrofit of every building that needs one and fills `retrofit` (method
@@ -96,7 +96,13 @@ fn size_one(
             None => Err(vec![format!("no input found for building {}", r.id)]),
         }),
     }?;
-    cost::apply(&mut rf, r.detail.height_m, r.detail.floor_area_m2, settings);
+    cost::apply(
+        &mut rf,
+        r.detail.height_m,
+        r.detail.floor_area_m2,
+        r.detail.plan_area_m2,
+        settings,
+    );
     Some(rf)
 }
 
@@ -130,6 +136,9 @@ pub fn budget_plan<T: Fundable>(results: &mut [T], settings: &Settings) -> Optio
         .filter_map(|&i| {
             let r = &results[i];
             let c = cost::funding_cost(r.retrofit()?)?;
+            if cost::unfunded_reason(r.retrofit()?, settings).is_some() {
+                return None;
+            }
             Some(budget::Item {
                 index: i,
                 id: r.id().to_string(),
@@ -140,6 +149,19 @@ pub fn budget_plan<T: Fundable>(results: &mut [T], settings: &Settings) -> Optio
             })
         })
         .collect();
+    let mut excluded: Vec<Excluded> = Vec::new();
+    for &i in &order {
+        let r = &mut results[i];
+        let id = r.id().to_string();
+        let Some(rf) = r.retrofit_mut() else { continue };
+        rf.excluded = cost::unfunded_reason(rf, settings);
+        if let Some(reason) = &rf.excluded {
+            excluded.push(Excluded {
+                id,
+                reason: reason.clone(),
+            });
+        }
+    }
     let plans = budget::plans(&items, amount, settings.knapsack_resolution);
     for r in results.iter_mut() {
         if let Some(rf) = r.retrofit_mut() {
@@ -163,6 +185,7 @@ pub fn budget_plan<T: Fundable>(results: &mut [T], settings: &Settings) -> Optio
         budget: amount,
         priority_walk: budget::funding_plan(&items, &plans.walk, None),
         max_occupants: budget::funding_plan(&items, &plans.best, Some(plans.method)),
+        excluded,
     })
 }
 
@@ -252,6 +275,7 @@ pub(crate) mod test_support {
                 direction: Dir::X,
                 group: Group::Walls,
                 level: Level::Ls,
+                frame_alone: false,
             },
             axial_load_ratio: 0.1,
             strength_coefficient: PerDir { x: 0.2, y: 0.2 },
@@ -336,6 +360,42 @@ mod tests {
         let (walk_only, best_only) = plan_differences(&plan);
         assert_eq!(walk_only, vec!["B1"]);
         assert_eq!(best_only, vec!["B2", "B3"]);
+    }
+
+    #[test]
+    fn unpriced_column_remedy_and_nothing_to_fund_are_excluded_from_both_plans() {
+        // B2: captive columns, no unit_cost_short_column_m2 → cost and replace null;
+        // B3: no walls, no remedy → cost 0, nothing to fund. Both listed in `excluded`,
+        // neither funded although the budget would hold them.
+        let mut rs = vec![
+            with_retrofit(1, 1, 10, 60.0),
+            with_retrofit(2, 2, 500, 0.0),
+            with_retrofit(3, 2, 400, 0.0),
+        ];
+        if let Some(rf) = rs[1].retrofit.as_mut() {
+            rf.column_remedy = true;
+            rf.cost = None;
+            rf.replace = None;
+        }
+        let plan = budget_plan(&mut rs, &priced(1000.0)).unwrap();
+        assert_eq!(plan.priority_walk.funded, vec!["B1"]);
+        assert_eq!(plan.max_occupants.funded, vec!["B1"]);
+        let ex: Vec<&str> = plan.excluded.iter().map(|e| e.id.as_str()).collect();
+        assert_eq!(ex, vec!["B2", "B3"]);
+        assert!(
+            plan.excluded[0]
+                .reason
+                .contains("unit_cost_short_column_m2")
+        );
+        assert!(plan.excluded[1].reason.starts_with("nothing to fund"));
+        assert_eq!(
+            rs[1].retrofit.as_ref().unwrap().excluded,
+            Some(plan.excluded[0].reason.clone())
+        );
+        assert_eq!(rs[0].retrofit.as_ref().unwrap().excluded, None);
+        let json = serde_json::to_value(&plan).unwrap();
+        assert_eq!(json["excluded"][0]["id"], "B2");
+        assert!(json["excluded"][0]["reason"].is_string());
     }
 
     #[test]

@@ -179,6 +179,15 @@ pub fn size_direction(
     )
 }
 
+/// Flag code of captive columns recorded by the surveyor (method §10).
+pub const SHORT_COLUMN: &str = "short-column";
+
+/// True when the building carries the `short-column` flag: walls do not cure captive
+/// columns, the retrofit record gets `column_remedy` (method §12).
+pub fn has_short_columns(result: &BuildingResult) -> bool {
+    result.flags.iter().any(|f| f.code == SHORT_COLUMN)
+}
+
 /// The soft/weak storey codes among a result's flags, each once, in flag order.
 pub fn storey_flag_codes(result: &BuildingResult) -> Vec<String> {
     let mut codes: Vec<String> = Vec::new();
@@ -280,10 +289,20 @@ pub fn size_building(
             format!("{NO_SOLUTION_NOTE} (direction {})", unsolved.join(" and ")),
         );
     } else if areas.x == Some(0.0) && areas.y == Some(0.0) {
-        notes.push(format!(
-            "no added walls needed: DCR_LS is at or below the target {target} in both directions (class {} for other reasons, e.g. short columns — detailed study)",
-            base.class
-        ));
+        if has_short_columns(base) {
+            notes.push(format!(
+                "no added walls needed: DCR_LS is at or below the target {target} in both directions; the captive columns need their own remedy (separating the infill from the columns, or jacketing them)"
+            ));
+        } else {
+            notes.push(format!(
+                "no added walls needed: DCR_LS is at or below the target {target} in both directions (class {} for other reasons — detailed study)",
+                base.class
+            ));
+        }
+    } else if has_short_columns(base) {
+        notes.push(
+            "the captive columns need their own remedy besides the walls (separating the infill from the columns, or jacketing them)".into(),
+        );
     }
     Some(Retrofit {
         added_wall_area_m2: areas,
@@ -291,8 +310,10 @@ pub fn size_building(
         replacement_cost: None,
         replace: None,
         flags_after,
+        column_remedy: has_short_columns(base),
         funded: None,
         funded_best: None,
+        excluded: None,
         note: notes.join("; "),
     })
 }
@@ -526,6 +547,26 @@ mod tests {
         assert_eq!(rf.added_wall_area_m2.x, None);
         assert_eq!(rf.added_wall_area_m2.y, Some(0.0));
         assert!(rf.note.starts_with(NO_SOLUTION_NOTE), "{}", rf.note);
+    }
+
+    #[test]
+    fn short_columns_get_a_column_remedy_even_without_walls() {
+        // Method §12: class 2 from the short-column flag alone, DCR_LS below the target in
+        // both directions → both added areas 0, column_remedy true.
+        let s = Settings::default();
+        let mut base = result_with(2, 0.6, 0.5, 1000.0, 9.0);
+        base.flags.push(crate::results::Flag {
+            code: SHORT_COLUMN.into(),
+            direction: None,
+            detail: String::new(),
+        });
+        let rf = size_building(&base, &s, |_: &NewWalls| Ok(base.clone())).unwrap();
+        assert!(rf.column_remedy);
+        assert_eq!(rf.added_wall_area_m2.x, Some(0.0));
+        assert_eq!(rf.added_wall_area_m2.y, Some(0.0));
+        let plain = result_with(1, 1.8, 0.5, 1000.0, 9.0);
+        let rf = size_building(&plain, &s, fake_screen).unwrap();
+        assert!(!rf.column_remedy);
     }
 
     #[test]

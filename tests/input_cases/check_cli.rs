@@ -4,10 +4,15 @@ use std::process::Command;
 
 use super::*;
 
+/// `check` with a settings file giving the hazard (the fixture rows carry none).
 fn check(path: &std::path::Path, extra: &[&str]) -> std::process::Output {
+    let settings = path.with_file_name("hazard.toml");
+    std::fs::write(&settings, "agr_g = 0.25\n").unwrap();
     Command::new(env!("CARGO_BIN_EXE_seistriage"))
         .arg("check")
         .arg(path)
+        .arg("--settings")
+        .arg(&settings)
         .args(extra)
         .output()
         .unwrap()
@@ -31,7 +36,7 @@ fn check_lists_every_problem_and_exits_0_when_a_row_can_be_screened() {
         "{stdout}"
     );
     assert!(
-        stdout.contains("2 rows: 1 accepted, 1 rejected"),
+        stdout.contains("2 rows: 1 rows will be screened, 1 will not"),
         "{stdout}"
     );
 }

@@ -165,3 +165,113 @@ proptest! {
         read_bytes("c.xls", &b);
     }
 }
+
+/// The tolerant number reader of inventory.md ("Survey text in a numeric cell") on arbitrary
+/// text: no panic; whatever it accepts passes the column's check (no silent acceptance of
+/// an out-of-range value); an ambiguous text is never read without saying so.
+mod survey_text {
+    use proptest::prelude::*;
+    use seistriage::input::columns::{Factor, find_unit};
+    use seistriage::input::parse::{Checked, read_survey_text, survey_number, unit_mistake_check};
+
+    fn cases() -> u32 {
+        super::cases().max(256)
+    }
+
+    /// Text made of the characters surveys use in numbers, units and years.
+    fn survey_like() -> impl Strategy<Value = String> {
+        proptest::collection::vec(
+            prop_oneof![
+                Just("0"),
+                Just("1"),
+                Just("2"),
+                Just("3"),
+                Just("9"),
+                Just(","),
+                Just("."),
+                Just(" "),
+                Just("\u{a0}"),
+                Just("\u{202f}"),
+                Just("'"),
+                Just("-"),
+                Just("+"),
+                Just("e"),
+                Just("m"),
+                Just("mm"),
+                Just("cm"),
+                Just("kPa"),
+                Just("MPa"),
+                Just("m/s²"),
+                Just("g"),
+                Just("%"),
+                Just("c. "),
+                Just("~"),
+                Just("ca "),
+                Just("x"),
+                Just("²"),
+            ],
+            0..12,
+        )
+        .prop_map(|v| v.concat())
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(cases()))]
+
+        #[test]
+        fn arbitrary_text_never_panics(t in "\\PC{0,40}", dc in any::<bool>(), circa in any::<bool>()) {
+            let _ = survey_number(&t, dc, circa);
+        }
+
+        #[test]
+        fn an_accepted_reading_always_passes_the_columns_check(t in survey_like(), dc in any::<bool>()) {
+            let check = unit_mistake_check("a storey height", "m", (1.5, 12.0), &[]);
+            let m = find_unit("m");
+            match read_survey_text(&t, dc, false, "storey_height_m", m, Factor::ONE, &check) {
+                Checked::Value(v, note) => {
+                    prop_assert!(check(v).is_ok(), "{t:?} -> {v}");
+                    prop_assert!(v.is_finite());
+                    // Anything but a plain number says what was done.
+                    let plain = t.trim().parse::<f64>().is_ok();
+                    prop_assert!(plain || dc || note.is_some(), "{t:?} read silently as {v}");
+                }
+                Checked::Refused(e) => prop_assert!(!e.is_empty()),
+            }
+        }
+
+        #[test]
+        fn the_reader_never_accepts_an_out_of_range_value_from_survey_text(
+            height in survey_like(), thickness in survey_like(), agr in survey_like(),
+            weight in survey_like(), semicolon in any::<bool>(),
+        ) {
+            let dir = tempfile::tempdir().unwrap();
+            let sep = if semicolon { ';' } else { ',' };
+            let q = |t: &str| format!("\"{}\"", t.replace('"', ""));
+            let body = format!(
+                "id{sep}storeys{sep}plan_area_m2{sep}column_area_m2{sep}storey_height_m{sep}wall_thickness_m{sep}agr_g{sep}floor_weight_kpa\n\
+                 P1{sep}4{sep}400{sep}10{sep}{}{sep}{}{sep}{}{sep}{}\n",
+                q(&height), q(&thickness), q(&agr), q(&weight)
+            );
+            let p = dir.path().join("p.csv");
+            std::fs::write(&p, body).unwrap();
+            let inv = seistriage::input::read_inventory(&p, &seistriage::input::ReadOptions::default()).unwrap();
+            prop_assert_eq!(inv.rows, inv.buildings.len() + inv.not_screened.len());
+            for b in &inv.buildings {
+                if let Some(h) = b.storey_height_m { prop_assert!((1.5..=12.0).contains(&h), "{height:?} -> {h}"); }
+                if let Some(t) = b.wall_thickness_m { prop_assert!((0.05..=1.5).contains(&t), "{thickness:?} -> {t}"); }
+                if let Some(a) = b.agr_g { prop_assert!((0.0..=1.5).contains(&a), "{agr:?} -> {a}"); }
+                if let Some(w) = b.floor_weight_kpa { prop_assert!((2.0..=40.0).contains(&w), "{weight:?} -> {w}"); }
+            }
+        }
+
+        #[test]
+        fn an_ambiguous_comma_is_never_taken_silently(a in 1u32..1000, b in 0u32..1000) {
+            let t = format!("{a},{b:03}");
+            let n = survey_number(&t, false, false).unwrap();
+            prop_assert_eq!(n.alternative, Some(f64::from(a * 1000 + b)));
+            // Both readings pass a check that takes everything: refused, showing both.
+            let r = read_survey_text(&t, false, false, "x", None, Factor::ONE, &|_| Ok(()));
+            prop_assert!(matches!(r, Checked::Refused(_)), "{t}");
+        }
+    }
+}

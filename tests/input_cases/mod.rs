@@ -5,6 +5,7 @@ pub(crate) mod cases;
 mod check_cli;
 mod hostile;
 mod settings_file;
+mod survey;
 mod template;
 
 use std::path::{Path, PathBuf};

@@ -64,7 +64,9 @@ fn the_template_has_every_sheet_with_canonical_headers_a_read_me_and_drop_downs(
         .cloned()
         .collect::<Vec<_>>()
         .join("\n");
-    assert!(text.contains("trailing unit token"));
+    assert!(text.contains("last brackets or parentheses") && text.contains("trailing known unit"));
+    // The units and the survey-text rule are printed (inventory.md: in one place).
+    assert!(text.contains("m/s² (divided by 9.81)") && text.contains("A period alone is"));
     assert!(text.contains("plan_area_m2") && text.contains("m²"));
     // Notes and data validation live in the sheet XML.
     let mut zip = zip::ZipArchive::new(std::fs::File::open(&path).unwrap()).unwrap();

@@ -4,8 +4,8 @@
 
 use seistriage::model::{Dir, FaultDistance, NotScreened, PerDir, Problem, Severity, Use};
 use seistriage::results::{
-    BudgetPlan, BuildingDetail, BuildingResult, Counts, DirectionDetail, DirectionResult, Flag,
-    FundingPlan, Governing, Group, Groups, InputInfo, Levels, Report, Retrofit, WallResult,
+    BudgetPlan, BuildingDetail, BuildingResult, Counts, DirectionDetail, DirectionResult, Excluded,
+    Flag, FundingPlan, Governing, Group, Groups, InputInfo, Levels, Report, Retrofit, WallResult,
 };
 use seistriage::settings::{Level, Settings};
 
@@ -47,6 +47,8 @@ fn direction(i: usize, d: Dir, class: u8) -> DirectionResult {
             ls: dcr,
             cp: dcr * 0.75,
         },
+        frame_alone: None,
+        group_dcr: Default::default(),
         detail: DirectionDetail {
             rc_wall_area_m2: 1.5,
             infill_area_m2: 4.0,
@@ -108,6 +110,7 @@ pub fn building(i: usize, class: u8) -> BuildingResult {
                 Group::Walls
             },
             level: Level::Ls,
+            frame_alone: false,
         },
         axial_load_ratio: 0.12,
         strength_coefficient: PerDir { x: 0.27, y: 0.3 },
@@ -150,8 +153,10 @@ pub fn building(i: usize, class: u8) -> BuildingResult {
             } else {
                 Vec::new()
             },
+            column_remedy: i == 3,
             funded: Some(i < 6),
             funded_best: Some(i % 2 == 1),
+            excluded: None,
             note: String::new(),
         }),
         row: i + 2,
@@ -271,6 +276,10 @@ pub fn report(n: usize) -> Report {
                 occupants_protected: 21,
                 method: Some("exact 0/1 knapsack".into()),
             },
+            excluded: vec![Excluded {
+                id: "B0007".into(),
+                reason: "column remedy without a price (unit_cost_short_column_m2 not set)".into(),
+            }],
         }),
         buildings,
         not_screened,

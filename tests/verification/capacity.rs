@@ -40,18 +40,19 @@ fn column_worked_example_eq_a1_and_a10b() {
 }
 
 #[test]
-fn wall_worked_example_with_0_58_factor_and_a11b() {
+fn wall_worked_example_with_1_6_divisor_and_a11b() {
     // Wall, 4 storeys × 3 m: Lv = Σz²/Σz = 270/30 = 9 m; lw 4 m, fc 20, fy 420, ν 0.1,
     // boundary elements present (α 0.5, ρsx 0.006), boundary steel 1 % (ω = ω' → bracket 20^0.225):
     //   (Lv/lw)^0.35 = 2.25^0.35 = 1.328201; 25^(0.5·0.006·420/20) = 25^0.063 = 1.224814
     //   θum(A.1) = (1/1.5)·0.016·0.886568·1.962148·1.328201·1.224814 = 0.0301861
-    //   × 0.58 (walls, EN 1998-3 §A.3.2.2(1)) = 0.0175079
+    //   ÷ 1.6 (walls, EN 1998-3:2005 §A.3.2.2(2) [mem]; the ×0.58 of later papers gave
+    //   0.0175079 before revision 6) = 0.0188663
     // θy (eq. A.11b): φy = 2.0·0.0021/4 = 0.00105; φy·Lv/3 = 0.00315;
     //   0.002·(1 − 0.125·9/4) = 0.0014375; 0.13·0.00105·0.016·420/√20 = 0.00020511
     //   → θy = 0.0047926
     let s = Settings::default();
     let w = wall_capacity(0.1, 20.0, 420.0, 4.0, 9.0, true, 1.0, 0.016, &s);
-    assert_abs_diff_eq!(w.theta_um, 0.0175079, epsilon = 1e-6);
+    assert_abs_diff_eq!(w.theta_um, 0.0188663, epsilon = 1e-6);
     assert_abs_diff_eq!(w.theta_y, 0.0047926, epsilon = 1e-6);
     // Without boundary elements: α 0.2, ρsx 0.001 and ÷1.2.
     let n = wall_capacity(0.1, 20.0, 420.0, 4.0, 9.0, false, 1.0, 0.016, &s);
@@ -60,16 +61,16 @@ fn wall_worked_example_with_0_58_factor_and_a11b() {
         * 20.0f64.powf(0.225)
         * 2.25f64.powf(0.35)
         * 25.0f64.powf(0.0042);
-    assert_abs_diff_eq!(n.theta_um, a1 * 0.58 / 1.2, epsilon = 1e-12);
+    assert_abs_diff_eq!(n.theta_um, a1 / 1.6 / 1.2, epsilon = 1e-12);
 }
 
 #[test]
-fn member_factors_0_58_and_1_2() {
-    // EN 1998-3 §A.3.2.2: walls × 0.58; members without seismic detailing ÷ 1.2 [mem].
+fn member_factors_1_6_and_1_2() {
+    // EN 1998-3:2005 §A.3.2.2(2): walls ÷ 1.6; members without seismic detailing ÷ 1.2 [mem].
     let s = Settings::default();
     assert_abs_diff_eq!(
         theta_um_member(0.03, true, true, &s),
-        0.0174,
+        0.01875,
         epsilon = 1e-15
     );
     assert_abs_diff_eq!(
@@ -79,7 +80,7 @@ fn member_factors_0_58_and_1_2() {
     );
     assert_abs_diff_eq!(
         theta_um_member(0.03, true, false, &s),
-        0.0145,
+        0.015625,
         epsilon = 1e-15
     );
     assert_abs_diff_eq!(
@@ -156,7 +157,8 @@ fn theta_y_clamp_for_slender_walls() {
 
 #[test]
 fn confidence_factor_divides_existing_strengths() {
-    // EN 1998-3 §3.5 / Table 3.1 [mem-H]: mean strengths ÷ CF for existing members.
+    // EN 1998-3 §3.5 / Table 3.1 [mem-H]: mean strengths ÷ CF for existing members, and
+    // ν × CF inside eq. (A.1) (method §8, confidence factor scope: ν = N/(A·fc/CF)).
     let s1 = Settings::default();
     let s2 = Settings {
         confidence_factor: 1.35,
@@ -165,7 +167,7 @@ fn confidence_factor_divides_existing_strengths() {
     let r1 = Case::new(record("C1")).screen(&s1);
     let r2 = Case::new(record("C2")).screen(&s2);
     let c2 = column_capacity(
-        r2.axial_load_ratio,
+        r2.axial_load_ratio * 1.35,
         20.0 / 1.35,
         420.0 / 1.35,
         0.4,

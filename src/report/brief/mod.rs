@@ -716,6 +716,12 @@ pub const TOP_COLUMNS: &[TopColumn] = &[
                         m
                     }
                 }
+                _ if rf.excluded.is_some() => {
+                    format!(
+                        "not computed ({})",
+                        esc(rf.excluded.as_deref().unwrap_or(""))
+                    )
+                }
                 _ if r.settings.unit_cost_wall_m3.is_none()
                     || r.settings.unit_cost_floor_m2.is_none()
                     || r.settings.replacement_cost_m2.is_none() =>

@@ -39,6 +39,31 @@ pub const SIMPLIFICATIONS: &[&str] = &[
      the unit costs given (no built-in prices).",
 ];
 
+/// The method corrections of revision 6 (issue 13), in plain words: what changed in the
+/// numbers since earlier runs.
+pub const METHOD_CORRECTIONS: &[&str] = &[
+    "Strength (§3): C_y = C_m + max(C_rc + 0.7·C_c, C_c), the larger of the wall-governed and \
+     the column-governed strength; a token wall no longer lowers the strength (before: any \
+     wall switched the columns to 70 %). The weak-storey check uses the same form.",
+    "Frame-alone bound (§9): where a direction has columns and RC walls, its DCR at Life \
+     Safety and Collapse Prevention is never above that of its frame alone (walls removed, \
+     frame period, κ 1.5 or 2.5 with a surveyed soft/weak storey). At Immediate Occupancy a \
+     wall's damage is damage. The Directions sheet shows the bound; where it governs, the \
+     governing group is columns.",
+    "Walls (§8): θum of EN 1998-3 eq. (A.1) is divided by wall_rotation_divisor = 1.6 \
+     (EN 1998-3:2005 §A.3.2.2(2)); before, it was multiplied by 0.58 (later papers).",
+    "Confidence factor (§8): inside the capacity formulas existing members take fc/CF, fy/CF \
+     and ν·CF (eq. A.1, the ASCE 41 Q, the outside-calibration check); the axial-load flags \
+     keep ν with the mean fc.",
+    "Soft/weak storey data (§10), per building: the storeys sheet when it has a row for \
+     storey 2; else the upper_* cells; else storey 2 repeats the ground storey but takes the \
+     listed walls standing in storey 2 and its own height. The flag says which data it used.",
+    "Captive columns (§12): walls do not cure short columns. A short-column building gets a \
+     column remedy costed at unit_cost_short_column_m2 per m² of plan; the floor-area cost is \
+     charged only when walls are added. Without that unit cost the building has no cost and \
+     is left out of both budget plans (listed with the reason on the Retrofit plan).",
+];
+
 /// Writes the Assumptions sheet.
 pub fn write(ws: &mut Worksheet, report: &Report, styles: &Styles) -> Result<(), ReportError> {
     ws.set_name("Assumptions")?;
@@ -106,6 +131,16 @@ pub fn write(ws: &mut Worksheet, report: &Report, styles: &Styles) -> Result<(),
         ws.write_number(r, 0, (i + 1) as f64)?;
         ws.merge_range(r, 1, r, 3, s, &styles.wrap)?;
         ws.set_row_height(r, 32)?;
+        r += 1;
+    }
+
+    r += 1;
+    ws.write_string_with_format(r, 0, "Method corrections (revision 6)", &styles.section)?;
+    r += 1;
+    for (i, s) in METHOD_CORRECTIONS.iter().enumerate() {
+        ws.write_number(r, 0, (i + 1) as f64)?;
+        ws.merge_range(r, 1, r, 3, s, &styles.wrap)?;
+        ws.set_row_height(r, 45)?;
         r += 1;
     }
 

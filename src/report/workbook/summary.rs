@@ -429,6 +429,19 @@ pub fn budget_line(report: &Report) -> String {
             );
             let mut s = s;
             s.push('.');
+            if !p.excluded.is_empty() {
+                let shown: Vec<&str> = p.excluded.iter().take(10).map(|e| e.id.as_str()).collect();
+                let more = p.excluded.len() - shown.len();
+                s.push_str(&format!(
+                    " Left out of both plans (no amount to fund; reasons on the Retrofit plan): {}{}.",
+                    shown.join(", "),
+                    if more > 0 {
+                        format!(" and {more} more")
+                    } else {
+                        String::new()
+                    }
+                ));
+            }
             s
         }
         None => {

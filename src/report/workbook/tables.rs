@@ -243,6 +243,7 @@ pub const RETROFIT: &[Column] = &[
         Kind::Dec2,
         12.0,
     ),
+    col("Column remedy", "column_remedy", Kind::Text, 9.0),
     col("Retrofit cost", "cost", Kind::Thousands, 14.0),
     col(
         "Replacement cost",
@@ -268,7 +269,7 @@ pub const RETROFIT: &[Column] = &[
         "Funded by Plan A: in priority order",
         "funded",
         Kind::Text,
-        12.0,
+        15.0,
     ),
     col(
         "Funded by Plan B: most people protected",
@@ -276,18 +277,21 @@ pub const RETROFIT: &[Column] = &[
         Kind::Text,
         15.0,
     ),
+    col(
+        "Excluded from the budget plans (reason)",
+        "excluded",
+        Kind::Text,
+        44.0,
+    ),
     col("Note", "note", Kind::Text, 48.0),
 ];
 
-/// The cost a building takes from the budget: its replacement cost where replacement is
-/// recommended, else its retrofit cost (method §12).
+/// The cost a building takes from the budget (method §12), computed by
+/// [`crate::retrofit::cost::funding_cost`] (the one place).
 pub fn funding_cost(b: &BuildingResult) -> Option<f64> {
-    let r = b.retrofit.as_ref()?;
-    if r.replace == Some(true) {
-        r.replacement_cost
-    } else {
-        r.cost
-    }
+    b.retrofit
+        .as_ref()
+        .and_then(crate::retrofit::cost::funding_cost)
 }
 
 /// One Retrofit plan row; `cumulative` is the running funding cost in rank order.
@@ -329,6 +333,7 @@ pub fn retrofit_row<'a>(
         Cell::Num(b.detail.floor_area_m2),
         Cell::opt(r.added_wall_area_m2.x),
         Cell::opt(r.added_wall_area_m2.y),
+        Cell::yes_no(r.column_remedy),
         Cell::opt(r.cost),
         Cell::opt(r.replacement_cost),
         Cell::opt_yes_no(r.replace),
@@ -337,6 +342,7 @@ pub fn retrofit_row<'a>(
         Cell::owned(r.flags_after.join(sep)),
         Cell::opt_yes_no(r.funded),
         Cell::opt_yes_no(r.funded_best),
+        Cell::text(r.excluded.as_deref().unwrap_or("")),
         Cell::owned(note),
     ]);
 }
@@ -534,6 +540,37 @@ pub const DIRECTIONS: &[Column] = &[
     col("DCR IO (-)", "dcr_io", Kind::Dcr, 8.0),
     col("DCR LS (-)", "dcr_ls", Kind::Dcr, 8.0),
     col("DCR CP (-)", "dcr_cp", Kind::Dcr, 8.0),
+    // §9 frame-alone bound (RC walls of the direction removed)
+    col(
+        "Frame alone: period (s)",
+        "frame_alone_period_s",
+        Kind::Dec3,
+        10.0,
+    ),
+    col(
+        "Frame alone: roof drift (%)",
+        "frame_alone_roof_drift_demand",
+        Kind::Ratio,
+        10.0,
+    ),
+    col(
+        "Frame alone: DCR LS (-)",
+        "frame_alone_dcr_ls",
+        Kind::Dcr,
+        9.0,
+    ),
+    col(
+        "Frame alone: DCR CP (-)",
+        "frame_alone_dcr_cp",
+        Kind::Dcr,
+        9.0,
+    ),
+    col(
+        "Frame alone governs at",
+        "frame_alone_governs",
+        Kind::Text,
+        10.0,
+    ),
 ];
 
 /// One Directions row (building `b`, direction `d`).
@@ -544,6 +581,7 @@ pub fn direction_row<'a>(b: &'a BuildingResult, d: Dir, out: &mut Vec<Cell<'a>>)
     let bd = &b.detail;
     let cw = r.capacity.walls;
     let cc = r.capacity.columns;
+    let fa = r.frame_alone;
     out.extend([
         Cell::Num(b.rank as f64),
         Cell::text(&b.id),
@@ -613,6 +651,17 @@ pub fn direction_row<'a>(b: &'a BuildingResult, d: Dir, out: &mut Vec<Cell<'a>>)
         Cell::Num(r.dcr.io),
         Cell::Num(r.dcr.ls),
         Cell::Num(r.dcr.cp),
+        Cell::opt(fa.map(|f| f.period_s)),
+        Cell::opt(fa.map(|f| f.roof_drift_demand)),
+        Cell::opt(fa.map(|f| f.dcr.ls)),
+        Cell::opt(fa.map(|f| f.dcr.cp)),
+        Cell::text(match fa.map(|f| (f.governs.ls, f.governs.cp)) {
+            None => "",
+            Some((true, true)) => "LS, CP",
+            Some((true, false)) => "LS",
+            Some((false, true)) => "CP",
+            Some((false, false)) => "no",
+        }),
     ]);
 }
 
