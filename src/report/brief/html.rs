@@ -54,7 +54,7 @@ table { border-collapse: collapse; width: 100%; font-size: 8.5pt; margin: 4px 0 
 th, td { border: 1px solid #999; padding: 2px 4px; vertical-align: top; text-align: left; }
 th { background: #e4e4e4; font-weight: bold; }
 td.n, th.n { text-align: right; font-variant-numeric: tabular-nums; }
-td.n { white-space: nowrap; }
+td.n .note { display: block; text-align: left; }
 td.c { white-space: nowrap; }
 thead { display: table-header-group; }
 tr { break-inside: avoid; page-break-inside: avoid; }

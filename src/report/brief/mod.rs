@@ -470,6 +470,28 @@ fn plans_section(o: &mut String, r: &Report) {
     }
     o.push_str("</div>\n");
     let _ = writeln!(o, "<p>{}</p>", why_plans_differ(r));
+    if !p.excluded.is_empty() {
+        let listed: Vec<String> = p
+            .excluded
+            .iter()
+            .take(PLAN_LISTED)
+            .map(|e| {
+                let name = by_id.get(e.id.as_str()).map_or("", |b| b.name.as_str());
+                format!("{} {} ({})", esc(name), esc(&e.id), esc(&e.reason))
+            })
+            .collect();
+        let more = p.excluded.len().saturating_sub(PLAN_LISTED);
+        let _ = writeln!(
+            o,
+            "<p>Left out of both plans, with no amount to fund: {}{}.</p>",
+            listed.join("; "),
+            if more > 0 {
+                format!("; and {} more (Retrofit plan sheet)", count(more as u64))
+            } else {
+                String::new()
+            }
+        );
+    }
     o.push_str("</section>\n");
 }
 
@@ -703,7 +725,7 @@ pub const TOP_COLUMNS: &[TopColumn] = &[
     TopColumn {
         header: "Cost",
         shown: |_| true,
-        width: 0,
+        width: 12,
         numeric: true,
         cell: |b, r| match &b.retrofit {
             None => "not needed".into(),
@@ -718,7 +740,7 @@ pub const TOP_COLUMNS: &[TopColumn] = &[
                 }
                 _ if rf.excluded.is_some() => {
                     format!(
-                        "not computed ({})",
+                        "not computed <span class=\"note\">({})</span>",
                         esc(rf.excluded.as_deref().unwrap_or(""))
                     )
                 }
