@@ -186,6 +186,10 @@ fn demo_brief_renders_in_a_headless_browser() {
     }
     assert!(!flat.contains("null") && !flat.contains("NaN"));
     assert!(flat.contains("What the numbers rest on"));
+    // The demo samples (method §13): the chance of a deficit and the survey-next list.
+    if json["uncertainty"].is_object() {
+        assert!(flat.contains("Chance of a deficit") && flat.contains("Survey next"));
+    }
     // More than one page (the print stylesheet breaks between sections), and not dozens.
     let pages = text.matches('\u{c}').count();
     assert!((2..=12).contains(&pages), "{pages} pages");

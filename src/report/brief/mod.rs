@@ -755,6 +755,18 @@ pub const TOP_COLUMNS: &[TopColumn] = &[
         },
     },
     TopColumn {
+        header: "Chance of a deficit",
+        shown: |r| r.uncertainty.is_some(),
+        width: 0,
+        numeric: true,
+        cell: |b, _| {
+            b.uncertainty
+                .as_ref()
+                .and_then(|u| super::people::sig4(100.0 * u.p_deficit))
+                .map_or_else(|| "not computed".into(), |p| format!("{p} %"))
+        },
+    },
+    TopColumn {
         header: "Plan A",
         shown: |_| true,
         width: 0,
@@ -805,6 +817,30 @@ fn top_section(o: &mut String, r: &Report) {
     }
     o.push_str("</tbody></table>\n");
     o.push_str(&class_key());
+    if let Some(u) = &r.uncertainty {
+        let names: HashMap<&str, &BuildingResult> =
+            r.buildings.iter().map(|b| (b.id.as_str(), b)).collect();
+        let list: Vec<String> = u
+            .survey_next
+            .iter()
+            .map(|id| match names.get(id.as_str()) {
+                Some(b) => format!("{} {} (rank {})", esc(&b.name), esc(id), b.rank),
+                None => esc(id),
+            })
+            .collect();
+        let _ = writeln!(
+            o,
+            "<p><b>Survey next</b> (many people, and a deficit that hangs on uncertain inputs; \
+             {} samples): {}.</p><p class=\"note\">Chance of a deficit: the share of the \
+             samples in which the building is in class 1 or 2 (docs/method.md §13).</p>",
+            count(u.samples as u64),
+            if list.is_empty() {
+                "none".to_string()
+            } else {
+                list.join("; ")
+            }
+        );
+    }
     let _ = writeln!(
         o,
         "<p class=\"note\">Score: the largest ratio of drift demand to drift \

@@ -16,6 +16,7 @@ The file is saved under a temporary name in the target folder and renamed when c
 
 mod assumptions;
 mod changes_sheet;
+pub mod confidence;
 pub mod style;
 mod summary;
 pub use summary::budget_line;
@@ -401,6 +402,11 @@ fn write_inner(
         }
         extra.push((format!("{} (CSV)", t.sheet_name()), p));
     }
+    if report.uncertainty.is_some() && layout.large() {
+        let p = confidence::csv_path(path);
+        confidence::write_csv(report, &p)?;
+        extra.push((format!("{} (CSV)", confidence::SHEET), p));
+    }
     write_atomic(path, |w| {
         build_and_save(report, path, w, layout, &extra, changes, progress)
     })?;
@@ -517,6 +523,13 @@ fn build_and_save(
     })?;
     for (t, _, ws) in sheets {
         wb.push_worksheet(ws);
+        // Method §13: the Confidence sheet follows Priority (only with samples).
+        if t == Table::Priority && report.uncertainty.is_some() {
+            let rows = layout
+                .sheet_rows(Table::Priority)
+                .unwrap_or(report.buildings.len());
+            confidence::write(wb.add_worksheet(), report, rows, &styles)?;
+        }
         if t == Table::Priority
             && let Some(c) = changes
         {
