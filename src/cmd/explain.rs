@@ -7,11 +7,17 @@ use std::process::ExitCode;
 use seistriage::pipeline::{self, RunOptions};
 
 /// Runs `explain` for one building id.
-pub fn run(inventory: &Path, id: &str, opts: &RunOptions) -> anyhow::Result<ExitCode> {
+pub fn run(inventory: &Path, id: &str, opts: &RunOptions, full: bool) -> anyhow::Result<ExitCode> {
     let loaded = pipeline::load(inventory, opts)?;
+    use seistriage::report::explain::{Precision, explain_with};
+    let precision = if full {
+        Precision::Full
+    } else {
+        Precision::People
+    };
     // Screened (and sized) once, here; the report layer only reads the result.
     let report = pipeline::screen(&loaded);
-    let text = seistriage::report::explain::explain(&loaded, &report, id);
+    let text = explain_with(&loaded, &report, id, precision);
     match text {
         Some(t) => {
             std::io::stdout().lock().write_all(t.as_bytes())?;
