@@ -371,30 +371,30 @@ settings_table! {
         "Viscous damping ratio xi (%) for eta = sqrt(10/(5+xi)) >= 0.55.";
     eta_min: f64 = 0.55; "[src] EN 1998-1 eq. (3.6)";
         "Lower bound of the damping correction factor eta.";
-    gamma_i_residential: f64 = 1.0; "[mem-H] EN 1998-1 Table 4.3 recommended, class II";
+    gamma_i_residential: f64 = 1.0; "[mem-H] EN 1998-1:2004 §4.2.5(5)P and Table 4.3: ordinary buildings are importance class II, whose gamma_I is 1.0 by definition: not verified against the source: recalled from memory; check before relying on it";
         "Importance factor gamma_I for residential use.";
-    gamma_i_office: f64 = 1.0; "[mem-H] EN 1998-1 Table 4.3 recommended, class II";
+    gamma_i_office: f64 = 1.0; "[mem-H] EN 1998-1:2004 §4.2.5(5)P and Table 4.3: ordinary buildings are importance class II, whose gamma_I is 1.0 by definition: not verified against the source: recalled from memory; check before relying on it";
         "Importance factor gamma_I for office use.";
-    gamma_i_school: f64 = 1.2; "[mem-H] EN 1998-1 Table 4.3 recommended, class III";
+    gamma_i_school: f64 = 1.2; "[mem-H] EN 1998-1:2004 Table 4.3 (schools: class III) and the note to §4.2.5(5)P (recommended 1.2): not verified against the source: recalled from memory; check before relying on it";
         "Importance factor gamma_I for schools.";
-    gamma_i_hospital: f64 = 1.4; "[mem-H] EN 1998-1 Table 4.3 recommended, class IV";
+    gamma_i_hospital: f64 = 1.4; "[mem-H] EN 1998-1:2004 Table 4.3 (hospitals: class IV) and the note to §4.2.5(5)P (recommended 1.4): not verified against the source: recalled from memory; check before relying on it";
         "Importance factor gamma_I for hospitals.";
-    gamma_i_other: f64 = 1.0; "[mem-H] EN 1998-1 Table 4.3 recommended, class II";
+    gamma_i_other: f64 = 1.0; "[mem-H] EN 1998-1:2004 §4.2.5(5)P and Table 4.3: ordinary buildings are importance class II, whose gamma_I is 1.0 by definition: not verified against the source: recalled from memory; check before relying on it";
         "Importance factor gamma_I for other uses.";
     near_fault_km: f64 = 10.0; "[screening]";
         "Distance (km) within which a fault trace without magnitude flags near-fault.";
-    near_fault_mw_large: f64 = 7.0; "[mem-H] ASCE 7-16 §11.4.1";
+    near_fault_mw_large: f64 = 7.0; "[mem-H] ASCE 7-16 §11.4.1 (near-fault site: within 15 km of a fault able to produce Mw 7, 10 km of Mw 6): not verified against the source: recalled from memory; check before relying on it";
         "Magnitude from which the large near-fault distance applies.";
-    near_fault_km_large: f64 = 15.0; "[mem-H] ASCE 7-16 §11.4.1";
+    near_fault_km_large: f64 = 15.0; "[mem-H] ASCE 7-16 §11.4.1: not verified against the source: recalled from memory; check before relying on it";
         "Near-fault distance (km) for traces with Mw >= near_fault_mw_large.";
-    near_fault_mw_small: f64 = 6.0; "[mem-H] ASCE 7-16 §11.4.1";
+    near_fault_mw_small: f64 = 6.0; "[mem-H] ASCE 7-16 §11.4.1: not verified against the source: recalled from memory; check before relying on it";
         "Magnitude below which a trace never flags near-fault.";
-    near_fault_km_small: f64 = 10.0; "[mem-H] ASCE 7-16 §11.4.1";
+    near_fault_km_small: f64 = 10.0; "[mem-H] ASCE 7-16 §11.4.1: not verified against the source: recalled from memory; check before relying on it";
         "Near-fault distance (km) for traces with near_fault_mw_small <= Mw < near_fault_mw_large.";
     near_fault_demand_factor: f64 = 1.0; "[screening] off (1.0) by default";
         "Factor on the spectrum for buildings flagged near-fault (1.0 = no change).";
     // ---- building defaults (method §0) ----
-    floor_weight_kpa: f64 = 12.0; "[practice, mem] 10-14 kPa for RC buildings with infill";
+    floor_weight_kpa: f64 = 12.0; "[practice] 10-14 kPa for RC buildings with infill: common practice, no single source; recalled from memory, check before relying on it";
         "Seismic weight per unit floor area w (kPa).";
     default_storey_height_m: f64 = 3.0; "[practice]";
         "Typical storey height when the row gives none (m).";
@@ -418,36 +418,36 @@ settings_table! {
         "Column longitudinal steel ratio rho_l (%); omega = omega' = 0.5 rho_l fy / fc.";
     es_mpa: f64 = 200000.0; "[src] EN 1992-1-1 §3.2.7(4)";
         "Steel modulus Es (MPa).";
-    confidence_factor: f64 = 1.0; "[mem-H] EN 1998-3 Table 3.1 (KL1 1.35, KL2 1.20, KL3 1.00)";
+    confidence_factor: f64 = 1.0; "[mem-H] EN 1998-3:2005 §3.3 and Table 3.1 (KL1 1.35, KL2 1.20, KL3 1.00; the values are nationally determined, these the recommended ones): not verified against the source: recalled from memory; check before relying on it";
         "Confidence factor CF dividing mean strengths of existing members in §8.";
     boundary_elements_from_year: Option<i32> = None; "[screening] empty: local code history decides";
         "Year from which walls recorded 'unknown' are taken to have boundary elements.";
     seismic_detailing_from_year: Option<i32> = None; "[screening] empty: local code history decides";
         "Year from which columns are taken to be seismically detailed.";
     // ---- indices and strength (method §1-§3) ----
-    infill_weight: f64 = 0.1; "[src] Hassan & Sozen 1997 (1/10 weight of infill, mem)";
+    infill_weight: f64 = 0.1; "[src] Hassan & Sozen 1997, ACI Structural Journal 94(1), wall index: infill counted at 1/10 of its area; the 1/10 is not verified against the source: recalled from memory; check before relying on it";
         "Weight of masonry infill area relative to RC wall area (§1, §3, §10).";
     pi_threshold_pct: Option<f64> = None; "[screening] no published cut-off built in";
         "Priority index (%) below which low-priority-index is flagged; empty = no flag.";
-    tau_wall_mpa: f64 = 2.0; "[src] JBDPA 2001 first-level screening (mem)";
+    tau_wall_mpa: f64 = 2.0; "[mem] JBDPA 2001 Standard for Seismic Evaluation of Existing RC Buildings, first-level screening: 2.0 N/mm2 for walls with a column at one end (3.0 with columns at both ends, 1.0 with none): not verified against the source: recalled from memory; check before relying on it";
         "Average shear strength of RC walls tau_w (MPa).";
-    tau_column_mpa: f64 = 1.0; "[src] JBDPA 2001 first-level screening, 2 < h0/D <= 6 (mem)";
+    tau_column_mpa: f64 = 1.0; "[mem] JBDPA 2001 first-level screening: 1.0 N/mm2 for columns with 2 < h0/D <= 6 (0.7 above 6; 1.5 for extremely short columns): not verified against the source: recalled from memory; check before relying on it";
         "Average shear strength of columns tau_c (MPa).";
-    fc_reference_mpa: f64 = 20.0; "[src] JBDPA 2001 (beta = fc/20, sqrt branch mem)";
+    fc_reference_mpa: f64 = 20.0; "[mem] JBDPA 2001 first-level screening, strength factor beta = fc/20 up to 20 MPa, sqrt(fc/20) above: not verified against the source: recalled from memory; check before relying on it";
         "Reference concrete strength of the strength factor beta (MPa).";
-    alpha1_with_walls: f64 = 0.7; "[src] JBDPA 2001 (mem)";
+    alpha1_with_walls: f64 = 0.7; "[mem] JBDPA 2001 first-level screening, E0 = (Cw + 0.7 Cc)·F for wall-governed buildings (columns short of their strength at the walls' ultimate drift): not verified against the source: recalled from memory; check before relying on it";
         "Column participation alpha1 in the wall-governed strength: C_y = C_m + max(C_rc + alpha1 C_c, C_c).";
     // ---- period (method §4) ----
     ct_period: f64 = 0.075; "[src] EN 1998-1 eqs. (4.6)/(4.7)";
         "Period coefficient Ct (s/m^0.75).";
-    period_factor: f64 = 1.0; "[screening] cracked-stiffness practice 1.3-1.5 (mem)";
+    period_factor: f64 = 1.0; "[screening] 1.0 = the code formula; cracked-stiffness practice of 1.3-1.5 is recalled from memory, check before relying on it";
         "Factor on the formula period.";
     period_height_limit_m: f64 = 40.0; "[src] EN 1998-1 §4.3.3.2.2(3)";
         "Height above which the period formula is outside its range (flag period-range).";
     // ---- drift demand (method §7) ----
-    kappa_frame: f64 = 1.5; "[practice, mem]";
+    kappa_frame: f64 = 1.5; "[practice] common practice, no single source; recalled from memory, check before relying on it";
         "Storey-drift concentration factor for a bare frame.";
-    kappa_wall: f64 = 1.2; "[practice, mem]";
+    kappa_wall: f64 = 1.2; "[practice] common practice, no single source; recalled from memory, check before relying on it";
         "Storey-drift concentration factor for a wall-dominated building.";
     kappa_soft: f64 = 2.5; "[screening]";
         "Storey-drift concentration factor with a soft or weak storey.";
@@ -456,9 +456,9 @@ settings_table! {
     // ---- capacity (method §8) ----
     gamma_el: f64 = 1.5; "[src] EN 1998-3 §A.3.2.2(1)";
         "gamma_el for primary seismic elements in eq. (A.1).";
-    wall_rotation_divisor: f64 = 1.6; "[src] EN 1998-3:2005 §A.3.2.2(2) (wording and paragraph from memory)";
+    wall_rotation_divisor: f64 = 1.6; "[src] EN 1998-3:2005 §A.3.2.2(2), walls: the value of eq. (A.1) divided by 1.6 (the 0.58 of later papers is not the standard's); wording and paragraph number not verified against the source: recalled from memory; check before relying on it";
         "Divisor on theta_um of eq. (A.1) for walls (the 0.58 of later papers is not the standard's).";
-    no_detailing_divisor: f64 = 1.2; "[mem] EN 1998-3 §A.3.2.2(2)";
+    no_detailing_divisor: f64 = 1.2; "[mem] EN 1998-3:2005 §A.3.2.2(2), members without seismic detailing: not verified against the source: recalled from memory; check before relying on it";
         "Divisor on theta_um for members without seismic detailing.";
     confined_alpha: f64 = 0.5; "[screening]";
         "Confinement effectiveness alpha with boundary elements / seismic detailing.";
@@ -485,9 +485,9 @@ settings_table! {
         "Extreme soft storey: k1 below this fraction of the mean of the three storeys above.";
     weak_ratio: f64 = 0.80; "[src] ASCE 7-16 Table 12.3-2 type 5a";
         "Weak storey: ground-storey strength below this fraction of the storey above.";
-    high_axial_wall: f64 = 0.40; "[mem-H] EN 1998-1 §5.4.3.4.1 (DCM)";
+    high_axial_wall: f64 = 0.40; "[mem-H] EN 1998-1:2004 §5.4.3.4.1(2), DCM walls nu_d <= 0.4: not verified against the source: recalled from memory; check before relying on it";
         "Axial load ratio above which walls are flagged high-axial-wall.";
-    high_axial_column: f64 = 0.65; "[mem-H] EN 1998-1 §5.4.3.2.1 (DCM)";
+    high_axial_column: f64 = 0.65; "[mem-H] EN 1998-1:2004 §5.4.3.2.1(3)P, DCM columns nu_d <= 0.65: not verified against the source: recalled from memory; check before relying on it";
         "Axial load ratio above which columns are flagged high-axial-column.";
     slender_wall_ratio: f64 = 12.0; "[practice]";
         "H/lw above which a wall is flagged slender-wall.";
@@ -510,7 +510,7 @@ settings_table! {
     calibration_shear_span_max: f64 = 8.0; "[practice]";
         "Upper bound of the calibrated shear-span ratio Lv/h.";
     wall_area_mismatch_pct: f64 = 5.0; "[project]";
-        "Difference (%) between listed walls and rc_wall_area_* above which a warning is given.";
+        "Difference (%) between listed walls and rc_wall_area_*, and between a storeys-sheet row for storey 1 and the buildings row (method §10), above which a warning is given.";
     // ---- capacity model choice and ranking (method §8, §11) ----
     capacity_model: CapacityModel = CapacityModel::Eurocode; "[project]";
         "Wall capacity model: eurocode, asce41 or lower-of-both.";
@@ -545,7 +545,7 @@ settings_table! {
         "Replacement cost per m2 of floor area (currency-neutral).";
     unit_cost_short_column_m2: Option<f64> = None; "[project] no default: prices are local";
         "Captive-column remedy per m2 of ground-storey plan A_plan (currency-neutral); empty = such buildings are not costed.";
-    replace_ratio: f64 = 0.40; "[practice, mem]";
+    replace_ratio: f64 = 0.40; "[practice] common practice, no single source; recalled from memory, check before relying on it";
         "Recommend replacement when retrofit cost exceeds this fraction of replacement cost.";
     budget: Option<f64> = None; "[project]";
         "Budget for the funding plan (currency-neutral); empty = no plan.";

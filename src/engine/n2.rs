@@ -60,7 +60,8 @@ pub const N2_CAP: f64 = 3.0;
 
 /// SDOF target displacement dt* (m), EN 1998-1 eqs. (B.7)–(B.8):
 /// T ≥ TC or qu ≤ 1 → det*; else (det*/qu)(1 + (qu−1)·TC/T), within [det*, 3·det*].
-/// `qu = None` (no strength) takes the cap.
+/// `qu = None` (no strength, S_ay = 0: qu unbounded) takes the formula's limit as qu → ∞,
+/// det*·TC/T, within the same clamp (method §6; before the audit it took 3·det* outright).
 pub fn target_displacement_m(det_m: f64, qu: Option<f64>, t: f64, tc: f64) -> (f64, N2Branch) {
     match qu {
         Some(q) if t >= tc || q <= 1.0 => (det_m, N2Branch::EqualDisplacement),
@@ -69,6 +70,10 @@ pub fn target_displacement_m(det_m: f64, qu: Option<f64>, t: f64, tc: f64) -> (f
             (dt.clamp(det_m, N2_CAP * det_m), N2Branch::ShortPeriod)
         }
         None if t >= tc => (det_m, N2Branch::EqualDisplacement),
+        None if t > 0.0 => {
+            let dt = det_m * tc / t;
+            (dt.clamp(det_m, N2_CAP * det_m), N2Branch::ShortPeriod)
+        }
         _ => (N2_CAP * det_m, N2Branch::ShortPeriod),
     }
 }

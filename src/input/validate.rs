@@ -205,6 +205,13 @@ pub fn finish_with_ids(
         &mut extra,
         &mut later,
     );
+    // Storey-1 rows of the storeys sheet, per building (method §10: checked against the
+    // buildings row below).
+    let storey_one: HashMap<&str, &StoreyRecord> = storeys
+        .iter()
+        .filter(|st| st.storey == 1)
+        .map(|st| (st.building_id.as_str(), st))
+        .collect();
     // Ground-storey walls per building: (any listed, sum X, sum Y, sums complete).
     let mut ground: HashMap<&str, (bool, [f64; 2], [bool; 2])> = HashMap::new();
     let thickness: HashMap<&str, Option<f64>> = c
@@ -298,6 +305,17 @@ pub fn finish_with_ids(
                 }
             }
         }
+        if !bad.contains(&b.row)
+            && let Some(st) = storey_one.get(b.id.as_str())
+        {
+            storey_one_check(
+                b,
+                st,
+                ground.get(b.id.as_str()),
+                wall_area_mismatch_pct,
+                &mut later,
+            );
+        }
         if let Some(more) = extra.get(&b.id) {
             for m in more {
                 row_problems.push(err("buildings", b.row, "", m.message.clone()));
@@ -347,6 +365,75 @@ pub fn finish_with_ids(
     inv.footprints = footprints;
     inv.problems = problems;
     inv
+}
+
+/// Method §10: "storey 1 is always the buildings row (and its listed walls) with the
+/// storeys row's height, and a storey-1 row whose areas differ from the buildings row by
+/// more than 5 % raises a warning" (`wall_area_mismatch_pct`, default 5). Compared: column
+/// area; RC wall area per direction (the listed ground-storey walls when the walls sheet
+/// lists the building's walls and their areas are known, else the buildings row's cell,
+/// blank = 0); infill area per direction (blank = 0). A blank cell of the storey row is not
+/// compared. One warning per differing cell, on the storeys sheet's row.
+fn storey_one_check(
+    b: &BuildingRecord,
+    st: &StoreyRecord,
+    walls: Option<&(bool, [f64; 2], [bool; 2])>,
+    pct: f64,
+    out: &mut Vec<Problem>,
+) {
+    let wall = |i: usize, cell: Option<f64>| match walls {
+        Some((true, sums, complete)) => complete[i].then_some(sums[i]),
+        _ => Some(cell.unwrap_or(0.0)),
+    };
+    let pairs = [
+        ("column_area_m2", st.column_area_m2, Some(b.column_area_m2)),
+        (
+            "rc_wall_area_x_m2",
+            st.rc_wall_area_x_m2,
+            wall(0, b.rc_wall_area_x_m2),
+        ),
+        (
+            "rc_wall_area_y_m2",
+            st.rc_wall_area_y_m2,
+            wall(1, b.rc_wall_area_y_m2),
+        ),
+        (
+            "infill_area_x_m2",
+            st.infill_area_x_m2,
+            Some(b.infill_area_x_m2.unwrap_or(0.0)),
+        ),
+        (
+            "infill_area_y_m2",
+            st.infill_area_y_m2,
+            Some(b.infill_area_y_m2.unwrap_or(0.0)),
+        ),
+    ];
+    for (col, row_value, building_value) in pairs {
+        let (Some(v), Some(g)) = (row_value, building_value) else {
+            continue;
+        };
+        let off = if g > 0.0 {
+            (v - g).abs() / g * 100.0
+        } else if v > 0.0 {
+            f64::INFINITY
+        } else {
+            0.0
+        };
+        if off > pct {
+            out.push(warning(
+                "storeys",
+                st.row,
+                col,
+                format!(
+                    "expected storey 1 of \"{}\" to agree within {} % with the buildings row ({} m²), found {} m²; storey 1 is the buildings row (method §10)",
+                    b.id,
+                    format_number(pct),
+                    format_number((g * 1e4).round() / 1e4),
+                    format_number(v)
+                ),
+            ));
+        }
+    }
 }
 
 /// Spreadsheet rows as "22, 29" for messages that name every row of a repeated key.

@@ -1,6 +1,13 @@
 //! Verification: Hassan & Sozen (1997, ACI Structural Journal 94(1)) indices, the axial
 //! load ratio and the JBDPA (2001) strength coefficient (method §1-§3) on a hand-computed
 //! building. Tolerance 1e-12 (closed-form arithmetic).
+//!
+//! Checked against the paper's text where it could be read: Hassan & Sozen (1997) measure
+//! the RC wall ratio as wall area at the base over the total floor area above the base (the
+//! paper's description of the METU building data, seen in an excerpt of the paper), the
+//! denominator method §1 uses; the 1/10 weight of infill and the 1/2 on columns could not be
+//! read there and are from memory. No published index example of a single building was
+//! found (the paper plots its buildings; it does not tabulate them in the excerpt).
 
 use approx::assert_abs_diff_eq;
 use seistriage::settings::Settings;

@@ -80,8 +80,16 @@ pub fn write(ws: &mut Worksheet, report: &Report, styles: &Styles) -> Result<(),
         ws.write_string(r, 0, k.key)?;
         let v = report.settings.value_text(k.key).unwrap_or_default();
         ws.write_string(r, 1, if v.is_empty() { "(empty)" } else { cut(&v) })?;
-        ws.write_string(r, 2, k.tag)?;
-        ws.write_string(r, 3, k.doc)?;
+        // Wrapped: a tag can say in words that its value is not verified against its source.
+        // Spreadsheet applications do not grow a row for wrapped text on their own, so the
+        // row gets the height of its longer text (about 40 characters a line in the Source
+        // column, 85 in Meaning).
+        ws.write_string_with_format(r, 2, k.tag, &styles.wrap)?;
+        ws.write_string_with_format(r, 3, k.doc, &styles.wrap)?;
+        let lines = (k.tag.chars().count().div_ceil(40)).max(k.doc.chars().count().div_ceil(85));
+        if lines > 1 {
+            ws.set_row_height(r, 15.0 * lines as f64)?;
+        }
         r += 1;
     }
     ws.autofilter(0, 0, r - 1, 3)?;
