@@ -1,9 +1,11 @@
 //! Benchmark: screening 10,000 synthetic buildings (engine + ranking, method §0-§11).
 
-use criterion::{Criterion, criterion_group, criterion_main};
+use criterion::{Criterion, Throughput, criterion_group, criterion_main};
+use rayon::prelude::*;
 use seistriage::engine::{BuildingInput, screen_all};
 use seistriage::model::{BuildingRecord, GroundType, Use, YesNo};
 use seistriage::settings::Settings;
+use seistriage::uncertainty::{self, Evaluator};
 
 /// 10,000 invented buildings with a deterministic spread of sizes, materials and hazard.
 fn stock(n: usize) -> Vec<BuildingRecord> {
@@ -70,6 +72,34 @@ fn bench(c: &mut Criterion) {
             let out = screen_all(&inputs, &settings);
             assert_eq!(out.buildings.len(), 10_000);
             out
+        })
+    });
+    g.finish();
+
+    // Method §13: building-samples per second of the sampler (draws, factors and the
+    // re-run of class and score), on the same 10,000 buildings × 20 samples.
+    let evaluators: Vec<(Evaluator, &str)> = inputs
+        .iter()
+        .filter_map(|i| Some((Evaluator::new(i, &settings).ok()?, i.record.id.as_str())))
+        .collect();
+    let mut g = c.benchmark_group("sampling");
+    g.sample_size(10);
+    const SAMPLES: u64 = 20;
+    g.throughput(Throughput::Elements(evaluators.len() as u64 * SAMPLES));
+    g.bench_function("building-samples (10k buildings x 20)", |b| {
+        b.iter(|| {
+            evaluators
+                .par_iter()
+                .map(|(ev, id)| {
+                    let mut acc = 0.0;
+                    for j in 1..=SAMPLES {
+                        let z = uncertainty::building_normals(id, 1, j);
+                        let f = uncertainty::factors(&z, 0.0, 0.2, 0.1, &settings);
+                        acc += ev.evaluate(&f, &settings).score;
+                    }
+                    acc
+                })
+                .sum::<f64>()
         })
     });
     g.finish();

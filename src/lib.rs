@@ -27,6 +27,7 @@ pub mod retrofit;
 pub mod settings;
 pub mod stream;
 pub mod template;
+pub mod uncertainty;
 
 /// The screening caution printed on every output.
 pub const CAUTION: &str = "CAUTION: screening only. These results rank buildings for further study; \

@@ -74,6 +74,28 @@ impl InputArgs {
             faults: self.faults.clone(),
             level: self.level.map(Into::into),
             budget,
+            ..Default::default()
+        }
+    }
+}
+
+/// Sampling options of method §13 (screen and explain).
+#[derive(Args, Debug, Clone, Copy)]
+struct SampleArgs {
+    /// Number of samples of the uncertainty stage (method §13; 0 = none, the default).
+    #[arg(long, value_name = "N")]
+    samples: Option<u32>,
+    /// Seed of the portable draws (unsigned 64-bit integer; default 1).
+    #[arg(long, value_name = "S")]
+    seed: Option<u64>,
+}
+
+impl SampleArgs {
+    fn apply(self, o: seistriage::pipeline::RunOptions) -> seistriage::pipeline::RunOptions {
+        seistriage::pipeline::RunOptions {
+            samples: self.samples,
+            seed: self.seed,
+            ..o
         }
     }
 }
@@ -102,6 +124,8 @@ enum Command {
         id: String,
         #[command(flatten)]
         input: InputArgs,
+        #[command(flatten)]
+        sampling: SampleArgs,
     },
     /// Write the blank inventory workbook (and, with --settings, the documented settings file).
     Template {
@@ -162,6 +186,8 @@ struct ScreenArgs {
     /// Retrofit budget, a positive amount (currency-neutral): 2000000 or 2_000_000.
     #[arg(long, value_name = "AMOUNT", value_parser = parse_budget)]
     budget: Option<f64>,
+    #[command(flatten)]
+    sampling: SampleArgs,
     /// Worker threads (default: all cores).
     #[arg(long, value_name = "N", value_parser = clap::value_parser!(u32).range(1..))]
     threads: Option<u32>,
@@ -223,7 +249,7 @@ fn main() -> ExitCode {
     let result = match cli.command {
         Command::Screen(a) => cmd::screen::run(&cmd::screen::Options {
             inventory: a.inventory.clone(),
-            run: a.input.run_options(a.budget),
+            run: a.sampling.apply(a.input.run_options(a.budget)),
             out: a.out,
             json: a.json,
             csv: a.csv,
@@ -240,7 +266,8 @@ fn main() -> ExitCode {
             inventory,
             id,
             input,
-        } => cmd::explain::run(&inventory, &id, &input.run_options(None)),
+            sampling,
+        } => cmd::explain::run(&inventory, &id, &sampling.apply(input.run_options(None))),
         Command::Template { out, settings } => cmd::template::run(&out, settings.as_deref()),
         Command::Demo { out, quiet } => cmd::demo::run(&out, quiet),
         Command::Generate {

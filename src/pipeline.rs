@@ -32,6 +32,10 @@ pub struct RunOptions {
     pub level: Option<Level>,
     /// `--budget`.
     pub budget: Option<f64>,
+    /// `--samples` (method §13).
+    pub samples: Option<u32>,
+    /// `--seed` (method §13).
+    pub seed: Option<u64>,
 }
 
 /// Failures that stop a run (exit 1).
@@ -152,6 +156,12 @@ pub fn settle_sheet_settings(
     }
     if let Some(budget) = opts.budget {
         settings.budget = Some(budget);
+    }
+    if let Some(samples) = opts.samples {
+        settings.samples = samples;
+    }
+    if let Some(seed) = opts.seed {
+        settings.seed = seed;
     }
     settings
         .validate()
@@ -284,7 +294,14 @@ pub fn screen(loaded: &Loaded) -> Report {
     let screening = engine::screen_all(&inputs, &loaded.settings);
     let mut buildings = screening.buildings;
     retrofit::size_all(&mut buildings, &inputs, &loaded.settings);
-    let budget_plan = retrofit::budget_plan(&mut buildings, &loaded.settings);
+    let mut budget_plan = retrofit::budget_plan(&mut buildings, &loaded.settings);
+    // Method §13 (N = 0 skips it): after the deterministic plan, which it does not change.
+    let uncertainty = crate::uncertainty::run(
+        &mut buildings,
+        &inputs,
+        &loaded.settings,
+        budget_plan.as_mut(),
+    );
     let mut not_screened = loaded.inventory.not_screened.clone();
     not_screened.extend(screening.not_screened);
     not_screened.sort_by(|a, b| (a.sheet.as_str(), a.row).cmp(&(b.sheet.as_str(), b.row)));
@@ -312,6 +329,7 @@ pub fn screen(loaded: &Loaded) -> Report {
         counts,
         buildings,
         budget_plan,
+        uncertainty,
         not_screened,
         problems,
     }

@@ -353,6 +353,8 @@ pub struct BuildingResult {
     pub defaults_used: Vec<String>,
     /// Retrofit sizing (None when none is needed).
     pub retrofit: Option<Retrofit>,
+    /// Uncertainty and rank robustness (method §13); None when no samples were drawn.
+    pub uncertainty: Option<BuildingUncertainty>,
     /// Spreadsheet row of the building.
     #[serde(skip)]
     pub row: usize,
@@ -396,6 +398,9 @@ pub struct FundingPlan {
     /// How the set was found (max-occupants plan only).
     #[serde(skip_serializing_if = "Option::is_none")]
     pub method: Option<String>,
+    /// Σ p_deficit·occupants over the funded buildings (method §13; only with samples).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub expected_occupants_protected: Option<f64>,
 }
 
 /// The budget plan (JSON `budget_plan`).
@@ -478,6 +483,8 @@ pub struct Report {
     pub buildings: Vec<BuildingResult>,
     /// Budget plan, when a budget and unit costs are given.
     pub budget_plan: Option<BudgetPlan>,
+    /// Stock-level uncertainty outputs (method §13); None when no samples were drawn.
+    pub uncertainty: Option<StockUncertainty>,
     /// Rows not screened.
     pub not_screened: Vec<NotScreened>,
     /// Every input problem.
@@ -509,4 +516,81 @@ impl Counts {
             by_class,
         }
     }
+}
+
+/// p05 / p50 / p95 of a sampled quantity (method §13's quantile rule).
+#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize)]
+pub struct Quantiles<T> {
+    /// 5 % quantile.
+    pub p05: T,
+    /// 50 % quantile.
+    pub p50: T,
+    /// 95 % quantile.
+    pub p95: T,
+}
+
+/// Share of samples in each class (JSON `uncertainty.p_class`).
+#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize)]
+pub struct ClassShares {
+    /// Class 1.
+    #[serde(rename = "1")]
+    pub c1: f64,
+    /// Class 2.
+    #[serde(rename = "2")]
+    pub c2: f64,
+    /// Class 3.
+    #[serde(rename = "3")]
+    pub c3: f64,
+    /// Class 4.
+    #[serde(rename = "4")]
+    pub c4: f64,
+}
+
+impl ClassShares {
+    /// The share of one class (1–4).
+    pub fn of(&self, class: u8) -> f64 {
+        match class {
+            1 => self.c1,
+            2 => self.c2,
+            3 => self.c3,
+            _ => self.c4,
+        }
+    }
+}
+
+/// Method §13 outputs of one building (JSON `buildings[].uncertainty`).
+#[derive(Debug, Clone, PartialEq, Default, Serialize)]
+pub struct BuildingUncertainty {
+    /// Number of samples N.
+    pub samples: u32,
+    /// Share of samples per class.
+    pub p_class: ClassShares,
+    /// p_class 1 + p_class 2.
+    pub p_deficit: f64,
+    /// Score quantiles (governing DCR at the ranking level).
+    pub score: Quantiles<f64>,
+    /// Rank quantiles among the screened buildings of each sample.
+    pub rank: Quantiles<u64>,
+    /// Share of samples with rank ≤ k.
+    pub p_top_k: f64,
+    /// occupants · 2·min(p_deficit, 1 − p_deficit).
+    pub survey_value: f64,
+}
+
+/// Method §13 outputs of the stock (JSON top-level `uncertainty`).
+#[derive(Debug, Clone, PartialEq, Default, Serialize)]
+pub struct StockUncertainty {
+    /// Number of samples N.
+    pub samples: u32,
+    /// Seed S.
+    pub seed: u64,
+    /// k of p_top_k.
+    pub top_k: u64,
+    /// Quantiles of the number of class 1–2 buildings per sample.
+    pub class_1_2_count: Quantiles<u64>,
+    /// Ids of the (at most ten) buildings where a survey would most change a decision.
+    pub survey_next: Vec<String>,
+    /// How k was chosen (for the Confidence sheet and the terminal).
+    #[serde(skip)]
+    pub top_k_source: String,
 }

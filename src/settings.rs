@@ -240,6 +240,50 @@ impl SettingValue for Option<i32> {
     }
 }
 
+/// An unsigned integer setting: digits only (an integral number such as `200.0`, as a
+/// spreadsheet cell may hold it, is accepted up to 2^53); negative values are refused.
+fn parse_unsigned(text: &str) -> Option<u64> {
+    let t = text.trim().replace('_', "");
+    if let Ok(v) = t.parse::<u64>() {
+        return Some(v);
+    }
+    let v = parse_number(&t)?;
+    (v >= 0.0 && v.fract() == 0.0 && v <= 9_007_199_254_740_992.0).then_some(v as u64)
+}
+
+impl SettingValue for u64 {
+    const EXPECTED: &'static str = "an unsigned 64-bit integer (0 to 18446744073709551615)";
+    fn parse_text(text: &str) -> Option<Self> {
+        parse_unsigned(text)
+    }
+    fn to_text(&self) -> String {
+        self.to_string()
+    }
+}
+
+impl SettingValue for u32 {
+    const EXPECTED: &'static str = "a whole number from 0 to 4294967295";
+    fn parse_text(text: &str) -> Option<Self> {
+        parse_unsigned(text).and_then(|v| u32::try_from(v).ok())
+    }
+    fn to_text(&self) -> String {
+        self.to_string()
+    }
+}
+
+impl SettingValue for Option<u64> {
+    const EXPECTED: &'static str = "a whole number of at least 1, or empty";
+    fn parse_text(text: &str) -> Option<Self> {
+        if text.trim().is_empty() {
+            return Some(None);
+        }
+        parse_unsigned(text).map(Some)
+    }
+    fn to_text(&self) -> String {
+        self.map(|v| v.to_string()).unwrap_or_default()
+    }
+}
+
 macro_rules! text_enum {
     ($ty:ty, $expected:literal, $( $text:literal => $variant:expr ),* $(,)?) => {
         impl SettingValue for $ty {
@@ -551,6 +595,27 @@ settings_table! {
         "Budget for the funding plan (currency-neutral); empty = no plan.";
     knapsack_resolution: f64 = 2000.0; "[project]";
         "Number of cost steps of the knapsack (cost step = budget / this).";
+    // ---- uncertainty and rank robustness (method §13) ----
+    samples: u32 = 0; "[project] method §13: 0 skips the stage";
+        "Number of samples N of the uncertainty stage (--samples); 0 = no sampling.";
+    seed: u64 = 1; "[project] method §13";
+        "Seed S of the portable draws (unsigned 64-bit integer; --seed).";
+    top_k: Option<u64> = None; "[screening] method §13: empty = the priority walk's funded count, else the class 1-2 count (at least 1)";
+        "k of p_top_k, the share of samples with rank <= k.";
+    beta_demand: f64 = 0.35; "[mem] record-to-record dispersion of inelastic displacement, 0.3-0.4";
+        "Lognormal dispersion of the demand factor D on d_t (method §13).";
+    beta_capacity: f64 = 0.40; "[mem] scatter of EN 1998-3 eq. (A.1) against tests, CoV about 0.4-0.5";
+        "Lognormal dispersion of the capacity factors Cw, Cc on theta IO/LS/CP (method §13).";
+    beta_fc_given: f64 = 0.20; "[practice]";
+        "Lognormal dispersion of the concrete factor F when fc_mpa was given (method §13).";
+    beta_fc_default: f64 = 0.35; "[practice]";
+        "Lognormal dispersion of the concrete factor F when fc was defaulted (method §13).";
+    beta_weight_given: f64 = 0.10; "[practice]";
+        "Lognormal dispersion of the weight factor W when floor_weight_kpa was given (method §13).";
+    beta_weight_default: f64 = 0.20; "[practice]";
+        "Lognormal dispersion of the weight factor W when w was defaulted (method §13).";
+    beta_hazard: f64 = 0.0; "[screening] the code spectrum is the scenario; set it to express hazard uncertainty";
+        "Lognormal dispersion of the hazard factor H on agR or SDS/SD1, one draw per district (method §13).";
     // ---- input plausibility (inventory.md) ----
     max_storeys: f64 = 60.0; "[project] inventory.md";
         "Storey count above which a row is refused as implausible.";
@@ -762,6 +827,28 @@ impl Settings {
             return Err(SettingsError::OutOfRange {
                 key: "max_storeys".into(),
                 message: format!("must be at least 1, found {}", self.max_storeys),
+            });
+        }
+        for (key, v) in [
+            ("beta_demand", self.beta_demand),
+            ("beta_capacity", self.beta_capacity),
+            ("beta_fc_given", self.beta_fc_given),
+            ("beta_fc_default", self.beta_fc_default),
+            ("beta_weight_given", self.beta_weight_given),
+            ("beta_weight_default", self.beta_weight_default),
+            ("beta_hazard", self.beta_hazard),
+        ] {
+            if v < 0.0 {
+                return Err(SettingsError::OutOfRange {
+                    key: key.into(),
+                    message: format!("a dispersion must not be negative, found {v}"),
+                });
+            }
+        }
+        if self.top_k == Some(0) {
+            return Err(SettingsError::OutOfRange {
+                key: "top_k".into(),
+                message: "must be at least 1 (or empty for the default of method §13)".into(),
             });
         }
         // The inventory's unit-mistake limits apply to the settings' defaults too
@@ -977,6 +1064,49 @@ mod tests {
             );
         }
         assert_eq!(Settings::default().validate(), Ok(()));
+    }
+
+    #[test]
+    fn seed_samples_and_top_k_are_unsigned_integers() {
+        let mut s = Settings::default();
+        assert_eq!((s.samples, s.seed, s.top_k), (0, 1, None));
+        s.set_from_text("seed", "18446744073709551615")
+            .unwrap_or_else(|e| panic!("{e}"));
+        assert_eq!(s.seed, u64::MAX);
+        s.set_from_text("samples", "200.0")
+            .unwrap_or_else(|e| panic!("{e}"));
+        assert_eq!(s.samples, 200);
+        for (key, bad) in [
+            ("seed", "-1"),
+            ("seed", "1.5"),
+            ("samples", "-3"),
+            ("top_k", "x"),
+        ] {
+            assert!(
+                matches!(
+                    s.set_from_text(key, bad),
+                    Err(SettingsError::BadValue { .. })
+                ),
+                "{key} = {bad}"
+            );
+        }
+        s.set_from_text("top_k", "0")
+            .unwrap_or_else(|e| panic!("{e}"));
+        assert!(matches!(
+            s.validate(),
+            Err(SettingsError::OutOfRange { .. })
+        ));
+        let mut s = Settings::default();
+        s.set_from_text("beta_demand", "-0.1")
+            .unwrap_or_else(|e| panic!("{e}"));
+        assert!(matches!(
+            s.validate(),
+            Err(SettingsError::OutOfRange { .. })
+        ));
+        let mut s = Settings::default();
+        s.apply_toml("seed = 42\nsamples = 50\ntop_k = 3\n")
+            .unwrap_or_else(|e| panic!("{e}"));
+        assert_eq!((s.samples, s.seed, s.top_k), (50, 42, Some(3)));
     }
 
     #[test]

@@ -252,6 +252,7 @@ impl Compact {
                 .collect(),
             defaults_used: Vec::new(),
             retrofit: self.retrofit.as_deref().cloned(),
+            uncertainty: None,
             row: self.row,
             detail: BuildingDetail {
                 floor_area_m2: self.floor_area_m2,
@@ -439,6 +440,7 @@ pub fn screen_to_files(
         counts: Counts::tally(0, 0, 0, &[]),
         buildings: Vec::new(),
         budget_plan: None,
+        uncertainty: None,
         not_screened: Vec::new(),
         problems: Vec::new(),
     };
@@ -555,6 +557,7 @@ pub fn screen_to_files(
         counts: report_counts,
         buildings: Vec::new(),
         budget_plan,
+        uncertainty: None,
         not_screened,
         problems: all_problems,
     };

@@ -12,4 +12,5 @@ mod outputs;
 mod properties;
 mod regression;
 mod retrofit;
+mod uncertainty;
 mod verification;

@@ -143,6 +143,7 @@ fn ranked(rank: usize, class: u8, occupants: u64, cost: f64) -> BuildingResult {
             replace: Some(false),
             ..Retrofit::default()
         }),
+        uncertainty: None,
         row: rank + 1,
         detail: Default::default(),
         walls: Vec::new(),

@@ -196,6 +196,20 @@ fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitC
         );
         return Ok(ExitCode::from(1));
     }
+    let store = seistriage::uncertainty::store_bytes(
+        loaded.inventory.buildings.len(),
+        loaded.settings.samples,
+    );
+    if store > seistriage::uncertainty::MAX_STORE_BYTES {
+        bail!(
+            "{}: --samples {} on {} buildings would hold about {:.1} GiB of samples (13 bytes per building and sample; at most {} GiB): use fewer samples or screen the stock in parts",
+            o.inventory.display(),
+            loaded.settings.samples,
+            loaded.inventory.buildings.len(),
+            store as f64 / f64::from(1u32 << 30),
+            seistriage::uncertainty::MAX_STORE_BYTES >> 30
+        );
+    }
     let progress = Progress::spinner(o.quiet, "screening");
     let report = pipeline::screen(&loaded);
     // The report holds everything the writers need: free the inventory before writing.
@@ -280,6 +294,18 @@ fn run_streamed(
     summary_to_stderr: bool,
     shown: &Shown<'_>,
 ) -> anyhow::Result<ExitCode> {
+    // Method §13 on a streamed stock needs per-sample ranks over the whole stock, about
+    // 13·B·N bytes in memory (README, Performance): not offered on this path.
+    let settings = pipeline::settle_settings(&[], &mut Vec::new(), &o.run)?;
+    if settings.samples > 0 {
+        bail!(
+            "{}: --samples (method §13) is not available for a stock this large (more than {} CSV lines, screened in chunks): \
+             the per-sample ranks of the whole stock would not fit in bounded memory; \
+             run without --samples (or samples = 0), or screen the stock in parts",
+            o.inventory.display(),
+            seistriage::stream::threshold()
+        );
+    }
     for p in [
         Some(out),
         o.json.as_deref(),

@@ -701,6 +701,7 @@ pub fn screen(
         flags: fl,
         defaults_used: res.defaults_used.clone(),
         retrofit: None,
+        uncertainty: None,
         row: r.row,
         detail: BuildingDetail {
             storeys: res.n,

@@ -170,6 +170,7 @@ mod tests {
                     flags: Vec::new(),
                     defaults_used: Vec::new(),
                     retrofit: None,
+                    uncertainty: None,
                     row: i + 2,
                     detail: Default::default(),
                     walls: Vec::new(),

@@ -48,6 +48,47 @@ fn number_text(v: f64, buf: &mut String) {
     }
 }
 
+/// Columns the Priority CSV (and the GeoJSON properties) add with `--samples` (method §13,
+/// interface.md), after the Priority columns.
+pub const SAMPLE_COLUMNS: [&str; 3] = ["p_deficit", "rank_p05", "rank_p95"];
+
+/// The method §13 cells of one building (blank without samples).
+pub fn sample_cells(b: &BuildingResult) -> [Cell<'static>; 3] {
+    match &b.uncertainty {
+        Some(u) => [
+            Cell::Num(u.p_deficit),
+            Cell::Num(u.rank.p05 as f64),
+            Cell::Num(u.rank.p95 as f64),
+        ],
+        None => [Cell::Blank, Cell::Blank, Cell::Blank],
+    }
+}
+
+/// The Priority table with the columns of [`SAMPLE_COLUMNS`] appended (a run with samples).
+fn write_priority_with_samples<W: Write>(
+    report: &Report,
+    limit: usize,
+    out: W,
+) -> Result<(), ReportError> {
+    let mut w = ::csv::Writer::from_writer(out);
+    w.write_record(
+        Table::Priority
+            .columns()
+            .iter()
+            .map(|c| c.key)
+            .chain(SAMPLE_COLUMNS),
+    )?;
+    let mut num = String::new();
+    let mut buf = Vec::with_capacity(Table::Priority.columns().len() + SAMPLE_COLUMNS.len());
+    for b in report.buildings.iter().take(limit) {
+        super::workbook::tables::priority_row(b, Target::Csv, &mut buf);
+        buf.extend(sample_cells(b));
+        write_cells(&buf, false, &mut num, &mut w)?;
+    }
+    w.flush()?;
+    Ok(())
+}
+
 /// Writes one table as CSV (header = the columns' machine names) to a writer.
 pub fn write_table<W: Write>(
     report: &Report,
@@ -55,6 +96,9 @@ pub fn write_table<W: Write>(
     limit: usize,
     out: W,
 ) -> Result<(), ReportError> {
+    if table == Table::Priority && report.uncertainty.is_some() {
+        return write_priority_with_samples(report, limit, out);
+    }
     let mut out = out;
     let mut w = ::csv::Writer::from_writer(&mut out);
     write_header(table, &mut w)?;

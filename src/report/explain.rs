@@ -523,7 +523,93 @@ fn render(
             }
         );
     }
+    if let Some(u) = &b.uncertainty {
+        uncertainty_section(&mut o, b, u, input, s);
+    }
     o
+}
+
+/// Method §13 for one building: its distribution over the samples (score quantiles, share
+/// per class, rank interval in the stock) and which factor moves the score most (Spearman
+/// rank correlation of each factor's draw with the score over the same samples).
+fn uncertainty_section(
+    o: &mut String,
+    b: &BuildingResult,
+    u: &crate::results::BuildingUncertainty,
+    input: &engine::BuildingInput<'_>,
+    s: &crate::settings::Settings,
+) {
+    use crate::uncertainty::{BuildingSamples, Evaluator, FACTOR_NAMES};
+    let _ = writeln!(
+        o,
+        "§13 Uncertainty: {} samples, seed {}; score p05 {} | p50 {} | p95 {}; rank p05 {} | p50 {} | p95 {}",
+        u.samples,
+        s.seed,
+        n(u.score.p05),
+        n(u.score.p50),
+        n(u.score.p95),
+        u.rank.p05,
+        u.rank.p50,
+        u.rank.p95
+    );
+    let _ = writeln!(
+        o,
+        "  share of samples per class: 1 {} | 2 {} | 3 {} | 4 {}; p_deficit {}; p_top_k {}; survey value {}",
+        n(u.p_class.c1),
+        n(u.p_class.c2),
+        n(u.p_class.c3),
+        n(u.p_class.c4),
+        n(u.p_deficit),
+        n(u.p_top_k),
+        n(u.survey_value)
+    );
+    let (bf, bw) = crate::uncertainty::material_betas(&b.defaults_used, s);
+    let _ = writeln!(
+        o,
+        "  dispersions β: D {} | Cw, Cc {} | F {} ({}) | W {} ({}) | H {}",
+        n(s.beta_demand),
+        n(s.beta_capacity),
+        n(bf),
+        if b.defaults_used.iter().any(|d| d == "fc_mpa") {
+            "fc defaulted"
+        } else {
+            "fc given"
+        },
+        n(bw),
+        if b.defaults_used.iter().any(|d| d == "floor_weight_kpa") {
+            "w defaulted"
+        } else {
+            "w given"
+        },
+        n(s.beta_hazard)
+    );
+    let Ok(ev) = Evaluator::new(input, s) else {
+        return;
+    };
+    let draws = BuildingSamples::draw(&ev, &b.id, &b.district, &b.defaults_used, s);
+    let corr = draws.correlations();
+    let mut ranked: Vec<(usize, f64)> = corr
+        .iter()
+        .enumerate()
+        .filter_map(|(k, c)| c.map(|c| (k, c)))
+        .collect();
+    ranked.sort_by(|a, b| b.1.abs().total_cmp(&a.1.abs()).then(a.0.cmp(&b.0)));
+    let list: Vec<String> = ranked
+        .iter()
+        .map(|(k, c)| format!("{} {}", FACTOR_NAMES[*k], n(*c)))
+        .collect();
+    let _ = writeln!(
+        o,
+        "  rank correlation of each factor with the score (Spearman): {}",
+        if list.is_empty() {
+            "none (no factor varies)".to_string()
+        } else {
+            list.join(" | ")
+        }
+    );
+    if let Some((k, _)) = ranked.first() {
+        let _ = writeln!(o, "  moves the score most: {}", FACTOR_NAMES[*k]);
+    }
 }
 
 #[cfg(test)]
@@ -599,6 +685,28 @@ mod tests {
         ] {
             assert!(text.contains(step), "{step}");
         }
+    }
+
+    #[test]
+    fn explain_with_samples_shows_the_distribution_and_the_strongest_factor() {
+        let mut l = loaded();
+        l.settings.samples = 50;
+        let text = explain(&l, "E1").unwrap();
+        let report = pipeline::screen(&l);
+        let b = report.buildings.iter().find(|b| b.id == "E1").unwrap();
+        let u = b.uncertainty.as_ref().unwrap();
+        assert!(
+            text.contains(&format!("score p05 {}", u.score.p05)),
+            "{text}"
+        );
+        assert!(text.contains("share of samples per class"));
+        // H has β = 0 by default: never named; the strongest factor is one that varies.
+        assert!(text.contains("moves the score most: "), "{text}");
+        assert!(!text.contains("moves the score most: H"), "{text}");
+        assert!(
+            !text.contains("H (hazard) "),
+            "β_H = 0: no correlation listed"
+        );
     }
 
     #[test]

@@ -17,7 +17,7 @@ use super::workbook::tables::{Cell, PRIORITY, Target, priority_row};
 use crate::results::{BuildingResult, Report};
 
 /// Properties that are whole numbers in the JSON (written without a decimal point).
-const WHOLE: &[&str] = &["rank", "class", "occupants"];
+const WHOLE: &[&str] = &["rank", "class", "occupants", "rank_p05", "rank_p95"];
 
 fn json_number(key: &str, v: f64) -> JsonValue {
     if !v.is_finite() {
@@ -45,6 +45,18 @@ pub fn feature(b: &BuildingResult) -> Option<Feature> {
             Cell::Text(t) => JsonValue::String(t.into_owned()),
         };
         props.insert(c.key.to_string(), v);
+    }
+    if b.uncertainty.is_some() {
+        for (key, cell) in super::csv::SAMPLE_COLUMNS
+            .iter()
+            .zip(super::csv::sample_cells(b))
+        {
+            let v = match cell {
+                Cell::Num(v) => json_number(key, v),
+                _ => JsonValue::Null,
+            };
+            props.insert((*key).to_string(), v);
+        }
     }
     Some(Feature {
         bbox: None,

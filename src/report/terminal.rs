@@ -108,6 +108,9 @@ pub fn summary(report: &Report, written: &[(String, PathBuf)]) -> String {
     if report.budget_plan.is_some() || report.settings.budget.is_some() {
         let _ = writeln!(s, "{}", super::workbook::budget_line(report));
     }
+    if let Some(u) = &report.uncertainty {
+        s.push_str(&uncertainty_lines(u));
+    }
     if !written.is_empty() {
         let _ = writeln!(s);
         if written.iter().any(|(what, _)| what.ends_with("(CSV)")) {
@@ -126,6 +129,22 @@ pub fn summary(report: &Report, written: &[(String, PathBuf)]) -> String {
     let _ = writeln!(s);
     s.push_str(crate::CAUTION);
     s.push('\n');
+    s
+}
+
+/// The method §13 lines of the summary: the class 1–2 count interval and "survey next".
+pub fn uncertainty_lines(u: &crate::results::StockUncertainty) -> String {
+    let c = &u.class_1_2_count;
+    let mut s = format!(
+        "Uncertainty ({} samples, seed {}): class 1–2 buildings {} to {} (p05–p95, median {})\n",
+        u.samples, u.seed, c.p05, c.p95, c.p50
+    );
+    if u.survey_next.is_empty() {
+        s.push_str("Survey next: none (no building's deficit hangs on uncertain inputs)\n");
+    } else {
+        let ids: Vec<String> = u.survey_next.iter().map(|id| clean(id, 40)).collect();
+        let _ = writeln!(s, "Survey next: {}", ids.join(", "));
+    }
     s
 }
 

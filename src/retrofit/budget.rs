@@ -321,6 +321,7 @@ pub fn funding_plan(items: &[Item], sel: &Selection, method: Option<String>) -> 
         cost: sel.cost,
         occupants_protected: sel.occupants,
         method,
+        expected_occupants_protected: None,
     }
 }
 

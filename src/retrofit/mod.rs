@@ -283,6 +283,7 @@ pub(crate) mod test_support {
             flags: Vec::new(),
             defaults_used: Vec::new(),
             retrofit: None,
+            uncertainty: None,
             row: 2,
             detail: Default::default(),
             walls: Vec::new(),

@@ -15,6 +15,7 @@ The file is saved under a temporary name in the target folder and renamed when c
 */
 
 mod assumptions;
+pub mod confidence;
 pub mod style;
 mod summary;
 pub use summary::budget_line;
@@ -308,6 +309,11 @@ pub fn write_with_layout_except(
         }
         extra.push((format!("{} (CSV)", t.sheet_name()), p));
     }
+    if report.uncertainty.is_some() && layout.large() {
+        let p = confidence::csv_path(path);
+        confidence::write_csv(report, &p)?;
+        extra.push((format!("{} (CSV)", confidence::SHEET), p));
+    }
     write_atomic(path, |w| {
         build_and_save(report, path, w, layout, &extra, progress)
     })?;
@@ -418,8 +424,15 @@ fn build_and_save(
             write_table_sheet(ws, report, *t, *rows, &styles, progress, &done)
         })
     })?;
-    for (_, _, ws) in sheets {
+    for (t, _, ws) in sheets {
         wb.push_worksheet(ws);
+        // Method §13: the Confidence sheet follows Priority (only with samples).
+        if t == Table::Priority && report.uncertainty.is_some() {
+            let rows = layout
+                .sheet_rows(Table::Priority)
+                .unwrap_or(report.buildings.len());
+            confidence::write(wb.add_worksheet(), report, rows, &styles)?;
+        }
     }
     assumptions::write(wb.add_worksheet(), report, &styles)?;
     let charts = summary::write_chart_data(wb.add_worksheet(), report)?;
