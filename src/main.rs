@@ -122,6 +122,9 @@ enum Command {
         inventory: PathBuf,
         /// Building id.
         id: String,
+        /// Numbers at full precision (default: 4 significant digits).
+        #[arg(long)]
+        full: bool,
         #[command(flatten)]
         input: InputArgs,
         #[command(flatten)]
@@ -186,6 +189,13 @@ struct ScreenArgs {
     /// Retrofit budget, a positive amount (currency-neutral): 2000000 or 2_000_000.
     #[arg(long, value_name = "AMOUNT", value_parser = parse_budget)]
     budget: Option<f64>,
+    /// Officials' brief, one self-contained HTML page (default: <out stem>-brief.html beside
+    /// the workbook when the stock has coordinates or a budget plan).
+    #[arg(long, value_name = "FILE.html")]
+    brief: Option<PathBuf>,
+    /// Compare with a previous run's JSON results (a Changes sheet and a brief section).
+    #[arg(long, value_name = "OLD.json")]
+    previous: Option<PathBuf>,
     #[command(flatten)]
     sampling: SampleArgs,
     /// Worker threads (default: all cores).
@@ -254,6 +264,9 @@ fn main() -> ExitCode {
             json: a.json,
             csv: a.csv,
             geojson: a.geojson,
+            brief: a.brief,
+            brief_always: false,
+            previous: a.previous,
             threads: a.threads.map(|n| n as usize),
             quiet: a.quiet,
         }),
@@ -265,9 +278,15 @@ fn main() -> ExitCode {
         Command::Explain {
             inventory,
             id,
+            full,
             input,
             sampling,
-        } => cmd::explain::run(&inventory, &id, &sampling.apply(input.run_options(None))),
+        } => cmd::explain::run(
+            &inventory,
+            &id,
+            &sampling.apply(input.run_options(None)),
+            full,
+        ),
         Command::Template { out, settings } => cmd::template::run(&out, settings.as_deref()),
         Command::Demo { out, quiet } => cmd::demo::run(&out, quiet),
         Command::Generate {

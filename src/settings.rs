@@ -595,6 +595,8 @@ settings_table! {
         "Budget for the funding plan (currency-neutral); empty = no plan.";
     knapsack_resolution: f64 = 2000.0; "[project]";
         "Number of cost steps of the knapsack (cost step = budget / this).";
+    changes_rank_threshold: f64 = 10.0; "[project] interface.md";
+        "Changes sheet (--previous): rank moves of more than this many places are listed.";
     // ---- uncertainty and rank robustness (method §13) ----
     samples: u32 = 0; "[project] method §13: 0 skips the stage";
         "Number of samples N of the uncertainty stage (--samples); 0 = no sampling.";
@@ -815,6 +817,7 @@ impl Settings {
             ("storey_height_min_m", self.storey_height_min_m),
             ("floor_weight_min_kpa", self.floor_weight_min_kpa),
             ("wall_area_mismatch_pct", self.wall_area_mismatch_pct),
+            ("changes_rank_threshold", self.changes_rank_threshold),
         ] {
             if v < 0.0 {
                 return Err(SettingsError::OutOfRange {

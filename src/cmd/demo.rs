@@ -18,6 +18,9 @@ pub fn run(out: &Path, quiet: bool) -> anyhow::Result<ExitCode> {
         json: Some(out.join("demo-screening.json")),
         csv: Some(out.join("demo-priority.csv")),
         geojson: Some(out.join("demo-buildings.geojson")),
+        brief: Some(out.join("demo-brief.html")),
+        brief_always: true,
+        previous: None,
         threads: None,
         quiet,
     })

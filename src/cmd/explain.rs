@@ -7,9 +7,15 @@ use std::process::ExitCode;
 use seistriage::pipeline::{self, RunOptions};
 
 /// Runs `explain` for one building id.
-pub fn run(inventory: &Path, id: &str, opts: &RunOptions) -> anyhow::Result<ExitCode> {
+pub fn run(inventory: &Path, id: &str, opts: &RunOptions, full: bool) -> anyhow::Result<ExitCode> {
     let loaded = pipeline::load(inventory, opts)?;
-    let text = seistriage::report::explain::explain(&loaded, id);
+    use seistriage::report::explain::{Precision, explain_with};
+    let precision = if full {
+        Precision::Full
+    } else {
+        Precision::People
+    };
+    let text = explain_with(&loaded, id, precision);
     match text {
         Some(t) => {
             std::io::stdout().lock().write_all(t.as_bytes())?;

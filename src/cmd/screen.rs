@@ -24,6 +24,13 @@ pub struct Options {
     pub csv: Option<PathBuf>,
     /// GeoJSON path.
     pub geojson: Option<PathBuf>,
+    /// Officials' brief (HTML); `None`: beside the workbook when the stock has coordinates
+    /// or a budget plan.
+    pub brief: Option<PathBuf>,
+    /// Always write the brief (demo), at `brief` or beside the workbook.
+    pub brief_always: bool,
+    /// A previous run's JSON to compare with (`Changes` sheet, brief section).
+    pub previous: Option<PathBuf>,
     /// Worker threads.
     pub threads: Option<usize>,
     /// Print only errors.
@@ -136,6 +143,7 @@ fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitC
         o.json.as_ref(),
         o.csv.as_ref(),
         o.geojson.as_ref(),
+        o.brief.as_ref(),
     ]
     .into_iter()
     .flatten()
@@ -173,8 +181,23 @@ fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitC
     }
     let from = seistriage::stream::threshold();
     if seistriage::stream::applies(&o.inventory, from) {
+        if o.brief.is_some() || o.previous.is_some() {
+            eprintln!(
+                "seistriage: warning: --brief and --previous are not available for a stock \
+                 screened in chunks (a CSV of more than {from} lines); they are left out"
+            );
+        }
         return run_streamed(o, &out, summary_to_stderr, &shown);
     }
+    // Read the previous run first: a wrong file is found before the screening runs.
+    let previous = o
+        .previous
+        .as_ref()
+        .map(|p| {
+            report::changes::read_previous(p)
+                .with_context(|| format!("reading the previous run {}", p.display()))
+        })
+        .transpose()?;
     let progress = Progress::spinner(o.quiet, "reading the inventory");
     let loaded = pipeline::load(&o.inventory, &o.run);
     progress.finish();
@@ -235,7 +258,9 @@ fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitC
             + total.problems) as u64,
         "writing the workbook",
     );
-    let extra = report::workbook::write_with_progress(&report, &out, &|n| progress.set(n));
+    let changes = previous.map(|p| report::changes::compare(p, &report));
+    let extra =
+        report::workbook::write_with_changes(&report, &out, changes.as_ref(), &|n| progress.set(n));
     progress.finish();
     let extra = extra.with_context(|| format!("writing {}", out.display()))?;
     written.push(("workbook".into(), out.clone()));
@@ -261,6 +286,48 @@ fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitC
     if let Some(p) = &o.geojson {
         report::geojson::write(&report, p).with_context(|| format!("writing {}", p.display()))?;
         written.push(("GeoJSON".into(), p.clone()));
+    }
+    let brief_path = o.brief.clone().or_else(|| {
+        (o.brief_always || report::brief::wanted_by_default(&report)).then(|| {
+            let stem = out
+                .file_stem()
+                .map(|s| s.to_string_lossy().into_owned())
+                .unwrap_or_else(|| "screening".into());
+            out.with_file_name(format!("{stem}-brief.html"))
+        })
+    });
+    if let Some(p) = &brief_path {
+        if same_file(p, &o.inventory) {
+            bail!(
+                "refusing to write the brief over the input file {}",
+                o.inventory.display()
+            );
+        }
+        if let Some(parent) = p.parent().filter(|p| !p.as_os_str().is_empty()) {
+            std::fs::create_dir_all(parent)
+                .with_context(|| format!("creating {}", parent.display()))?;
+        }
+        // The map layers: the same files the screening read (their problems are already
+        // on the Input problems sheet).
+        let layers = seistriage::geography::Geography::load(
+            o.run.districts.as_deref(),
+            o.run.faults.as_deref(),
+        )
+        .ok()
+        .map(|(g, _)| report::brief::MapLayers::from_geography(&g));
+        let workbook_name = out.file_name().map(|n| n.to_string_lossy().into_owned());
+        let brief = report::brief::Brief {
+            report: &report,
+            layers: layers.as_ref(),
+            changes: changes.as_ref(),
+            workbook: workbook_name.as_deref(),
+            made_at: std::time::SystemTime::now()
+                .duration_since(std::time::UNIX_EPOCH)
+                .map(|d| d.as_secs() as i64)
+                .unwrap_or(0),
+        };
+        report::brief::write(&brief, p).with_context(|| format!("writing {}", p.display()))?;
+        written.push(("brief (HTML)".into(), p.clone()));
     }
     if !o.quiet {
         let text = report::terminal::summary(&report, &shown(&written));

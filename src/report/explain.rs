@@ -14,21 +14,42 @@ use crate::model::Dir;
 use crate::pipeline::{self, Loaded};
 use crate::results::{BuildingResult, Levels};
 
-/// Formats a number at full precision for hand checks (shortest round-trip text).
-fn n(v: f64) -> String {
-    format!("{v}")
+/// How `explain` prints its numbers (`interface.md`): 4 significant digits for people by
+/// default, full precision (shortest round-trip text, for hand checks) with `--full`.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum Precision {
+    /// 4 significant digits ([`crate::report::people`]).
+    #[default]
+    People,
+    /// Full precision.
+    Full,
 }
 
-fn opt(v: Option<f64>) -> String {
-    v.map_or_else(|| "null".to_string(), n)
+/// One number; a number that could not be computed is said in words, never "null" or NaN.
+fn num(v: f64, p: Precision) -> String {
+    if !v.is_finite() {
+        return "not computed".into();
+    }
+    match p {
+        Precision::Full => format!("{v}"),
+        Precision::People => super::people::sig4(v).unwrap_or_else(|| "not computed".into()),
+    }
 }
 
-fn lv(l: &Levels) -> String {
-    format!("IO {} | LS {} | CP {}", n(l.io), n(l.ls), n(l.cp))
+/// A list of numbers `[a, b, …]`.
+fn list(v: &[f64], p: Precision) -> String {
+    let items: Vec<String> = v.iter().map(|x| num(*x, p)).collect();
+    format!("[{}]", items.join(", "))
 }
 
-/// The explanation of one building, or `None` when the id is not in the inventory.
+/// The explanation of one building at 4 significant digits, or `None` when the id is not in
+/// the inventory.
 pub fn explain(loaded: &Loaded, id: &str) -> Option<String> {
+    explain_with(loaded, id, Precision::People)
+}
+
+/// [`explain`] at a chosen precision (`explain --full`: [`Precision::Full`]).
+pub fn explain_with(loaded: &Loaded, id: &str, precision: Precision) -> Option<String> {
     let in_inventory = loaded.inventory.buildings.iter().any(|b| b.id == id);
     let rejected = loaded.inventory.not_screened.iter().find(|n| n.id == id);
     if !in_inventory {
@@ -60,7 +81,14 @@ pub fn explain(loaded: &Loaded, id: &str) -> Option<String> {
     let inputs = engine::building_inputs(&loaded.inventory, &loaded.sites);
     let input = inputs.iter().find(|i| i.record.id == id)?;
     let res = resolve::resolve(input, &loaded.settings).ok()?;
-    Some(render(b, &res, input, loaded, report.buildings.len()))
+    Some(render(
+        b,
+        &res,
+        input,
+        loaded,
+        report.buildings.len(),
+        precision,
+    ))
 }
 
 fn render(
@@ -69,7 +97,13 @@ fn render(
     input: &engine::BuildingInput<'_>,
     loaded: &Loaded,
     total: usize,
+    precision: Precision,
 ) -> String {
+    let n = move |v: f64| num(v, precision);
+    let opt = move |v: Option<f64>, why: &str| {
+        v.map_or_else(|| format!("not computed ({why})"), |v| num(v, precision))
+    };
+    let lv = move |l: &Levels| format!("IO {} | LS {} | CP {}", n(l.io), n(l.ls), n(l.cp));
     let s = &loaded.settings;
     let d = &b.detail;
     let mark = |key: &str| {
@@ -104,7 +138,10 @@ fn render(
     );
     let _ = writeln!(o);
 
-    let _ = writeln!(o, "§0 Inputs and quantities (method.md §0)");
+    let _ = writeln!(
+        o,
+        "§0 Inputs and quantities (docs/method.md §0; the method step by step, shipped with seistriage)"
+    );
     let _ = writeln!(
         o,
         "  use = {}{}; importance factor γI = {} (EN 1998-1 Table 4.3)",
@@ -123,15 +160,15 @@ fn render(
     let _ = writeln!(o, "  storeys n = {}", res.n);
     let _ = writeln!(
         o,
-        "  storey heights h_i = {:?} m{}{}",
-        res.heights_m,
+        "  storey heights h_i = {} m{}{}",
+        list(&res.heights_m, precision),
         mark("ground_storey_height_m"),
         mark("storey_height_m")
     );
     let _ = writeln!(
         o,
-        "  floor heights z_i = {:?} m; H = {} m",
-        d.floor_heights_m,
+        "  floor heights z_i = {} m; H = {} m",
+        list(&d.floor_heights_m, precision),
         n(d.height_m)
     );
     let _ = writeln!(
@@ -316,7 +353,7 @@ fn render(
             n(s.ct_period),
             n(dd.period_frame_s),
             n(dd.ac_m2),
-            opt(dd.period_wall_s),
+            opt(dd.period_wall_s, "no walls, Ac = 0"),
             n(dd.period_formula_s),
             n(s.period_factor),
             dd.period_source,
@@ -376,8 +413,8 @@ fn render(
             } else {
                 ""
             },
-            opt(r.drift_demand.walls),
-            opt(r.drift_demand.columns)
+            opt(r.drift_demand.walls, "no walls"),
+            opt(r.drift_demand.columns, "no columns")
         );
     }
     let _ = writeln!(
@@ -430,8 +467,14 @@ fn render(
             o,
             "  {}: capacity walls {}; columns {}",
             dir.code(),
-            r.capacity.walls.as_ref().map_or("null".into(), lv),
-            r.capacity.columns.as_ref().map_or("null".into(), lv)
+            r.capacity
+                .walls
+                .as_ref()
+                .map_or("not computed (no walls)".into(), lv),
+            r.capacity
+                .columns
+                .as_ref()
+                .map_or("not computed (no columns)".into(), lv)
         );
         if let Some(g) = &r.group_dcr.walls {
             let _ = writeln!(o, "     walls δ_w/θ_w: {}", lv(g));
@@ -505,12 +548,18 @@ fn render(
         let _ = writeln!(
             o,
             "§12 Retrofit: added wall area x {} m², y {} m²; column remedy {}; cost {}; replacement cost {}; replace {}; flags after: {}{}",
-            opt(rf.added_wall_area_m2.x),
-            opt(rf.added_wall_area_m2.y),
+            opt(rf.added_wall_area_m2.x, "no wall solution within the cap"),
+            opt(rf.added_wall_area_m2.y, "no wall solution within the cap"),
             if rf.column_remedy { "yes" } else { "no" },
-            opt(rf.cost),
-            opt(rf.replacement_cost),
-            rf.replace.map_or("null".into(), |v| v.to_string()),
+            opt(rf.cost, "no unit costs, or no wall solution"),
+            opt(rf.replacement_cost, "no unit costs"),
+            rf.replace
+                .map_or("not decided (no unit costs)".into(), |v| if v {
+                    "yes"
+                } else {
+                    "no"
+                }
+                .to_string()),
             if rf.flags_after.is_empty() {
                 "none".into()
             } else {
@@ -524,7 +573,7 @@ fn render(
         );
     }
     if let Some(u) = &b.uncertainty {
-        uncertainty_section(&mut o, b, u, input, s);
+        uncertainty_section(&mut o, b, u, input, s, precision);
     }
     o
 }
@@ -538,7 +587,9 @@ fn uncertainty_section(
     u: &crate::results::BuildingUncertainty,
     input: &engine::BuildingInput<'_>,
     s: &crate::settings::Settings,
+    precision: Precision,
 ) {
+    let n = move |v: f64| num(v, precision);
     use crate::uncertainty::{BuildingSamples, Evaluator, FACTOR_NAMES};
     let _ = writeln!(
         o,
@@ -668,7 +719,7 @@ mod tests {
         let l = loaded();
         let report = pipeline::screen(&l);
         let b = report.buildings.iter().find(|b| b.id == "E1").unwrap();
-        let text = explain(&l, "E1").unwrap();
+        let text = explain_with(&l, "E1", Precision::Full).unwrap();
         if std::env::var_os("SHOW_EXPLAIN").is_some() {
             println!("{text}");
         }
@@ -688,10 +739,36 @@ mod tests {
     }
 
     #[test]
+    fn explain_prints_four_significant_digits_by_default() {
+        let l = loaded();
+        let report = pipeline::screen(&l);
+        let b = report.buildings.iter().find(|b| b.id == "E1").unwrap();
+        let text = explain(&l, "E1").unwrap();
+        let score = crate::report::people::sig4(b.score).unwrap();
+        assert!(text.contains(&format!("score {score} ")), "{text}");
+        let drift = crate::report::people::sig4(b.directions.x.roof_drift_demand).unwrap();
+        assert!(text.contains(&format!("roof drift δ_r = d_t/H = {drift}")));
+        assert!(!text.contains("null") && !text.contains("NaN"), "{text}");
+        // No number in the text has more than 4 significant digits (method step numbers,
+        // clause numbers and years aside, which are written without a decimal point).
+        for word in text.split(|c: char| !(c.is_ascii_digit() || c == '.')) {
+            let w = word.trim_matches('.');
+            if w.contains('.') && w.chars().filter(|c| *c == '.').count() == 1 {
+                let digits: String = w.chars().filter(char::is_ascii_digit).collect();
+                let sig = digits.trim_start_matches('0');
+                assert!(sig.len() <= 4, "{w} in {text}");
+            }
+        }
+        // `--full` keeps full precision.
+        let full = explain_with(&l, "E1", Precision::Full).unwrap();
+        assert!(full.contains(&format!("score {} ", b.score)));
+    }
+
+    #[test]
     fn explain_with_samples_shows_the_distribution_and_the_strongest_factor() {
         let mut l = loaded();
         l.settings.samples = 50;
-        let text = explain(&l, "E1").unwrap();
+        let text = explain_with(&l, "E1", Precision::Full).unwrap();
         let report = pipeline::screen(&l);
         let b = report.buildings.iter().find(|b| b.id == "E1").unwrap();
         let u = b.uncertainty.as_ref().unwrap();

@@ -4,10 +4,13 @@ Every file is written to a temporary name in its target folder and renamed when 
 */
 
 pub mod atomic;
+pub mod brief;
+pub mod changes;
 pub mod csv;
 pub mod explain;
 pub mod geojson;
 pub mod json;
+pub mod people;
 pub mod terminal;
 pub mod workbook;
 

@@ -5,7 +5,7 @@ use seistriage::report;
 use super::sample;
 
 /// The `--csv` column names of interface.md, in order.
-pub const CSV_COLUMNS: [&str; 20] = [
+pub const CSV_COLUMNS: [&str; 22] = [
     "rank",
     "id",
     "name",
@@ -26,6 +26,8 @@ pub const CSV_COLUMNS: [&str; 20] = [
     "latitude",
     "longitude",
     "fault_distance_m",
+    "funded_plan_a",
+    "funded_plan_b",
 ];
 
 #[test]
@@ -44,6 +46,12 @@ fn csv_has_the_contract_columns_and_full_precision_numbers() {
         assert_eq!(row[7].parse::<f64>().unwrap(), b.score);
         assert_eq!(row[14], b.flag_codes().join(";"));
         assert_eq!(row[5].is_empty(), b.occupants.is_none());
+        // `funded` stays for compatibility and means Plan A (interface.md).
+        assert_eq!(row[16], row[20]);
+        let yn = |v: Option<bool>| v.map_or("", |v| if v { "yes" } else { "no" });
+        let rf = b.retrofit.as_ref();
+        assert_eq!(&row[20], yn(rf.and_then(|r| r.funded)));
+        assert_eq!(&row[21], yn(rf.and_then(|r| r.funded_best)));
     }
 }
 

@@ -3,7 +3,10 @@
 //! on the built binary run over inventories the tests generate.
 
 pub mod binary;
+mod brief;
+mod changes;
 pub mod exports;
+mod print;
 mod sample;
 pub mod streaming;
 pub mod workbook;

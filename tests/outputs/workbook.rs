@@ -379,7 +379,7 @@ fn summary_says_what_was_screened_and_lists_the_top_ten_and_budget() {
     assert!(!all.contains(&report.buildings[10].id));
     assert!(
         all.iter()
-            .any(|x| x.starts_with("Budget 500,000: the priority walk funds"))
+            .any(|x| x.starts_with("Budget 500,000: Plan A (in priority order) funds"))
     );
     assert!(all.iter().any(|x| x == "Northfield"));
 }

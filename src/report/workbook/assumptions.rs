@@ -174,6 +174,17 @@ pub fn write(ws: &mut Worksheet, report: &Report, styles: &Styles) -> Result<(),
     }
 
     r += 1;
+    ws.write_string_with_format(r, 0, "The method", &styles.label)?;
+    ws.merge_range(
+        r,
+        1,
+        r,
+        3,
+        "docs/method.md, shipped with seistriage: what each step computes, its source and its \
+         limits; `seistriage explain INVENTORY ID` shows every number for one building",
+        &styles.wrap,
+    )?;
+    r += 2;
     ws.merge_range(r, 0, r + 1, 3, crate::CAUTION, &styles.caution)?;
     Ok(())
 }

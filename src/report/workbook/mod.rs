@@ -15,6 +15,7 @@ The file is saved under a temporary name in the target folder and renamed when c
 */
 
 mod assumptions;
+mod changes_sheet;
 pub mod confidence;
 pub mod style;
 mod summary;
@@ -31,8 +32,9 @@ use rust_xlsxwriter::{DocProperties, ExcelDateTime, Workbook, Worksheet};
 
 use super::ReportError;
 use super::atomic::write_atomic;
+use super::changes::Changes;
 use crate::results::Report;
-use style::Styles;
+use style::{Print, Styles};
 use tables::{Cell, Kind, RowCounts, Table, Target};
 
 /// Rows of a worksheet, header included (Excel and LibreOffice limit).
@@ -208,6 +210,43 @@ fn put(
     Ok(())
 }
 
+/// Text columns at least this wide (characters) wrap their text.
+const WRAP_FROM_WIDTH: f64 = 24.0;
+/// Height of one line of 11 pt text (points), the spreadsheet default row height.
+const ROW_HEIGHT_PT: f64 = 15.0;
+/// Most lines a wrapped row is sized for (longer text is cut at the cell's bottom).
+const MAX_ROW_LINES: usize = 8;
+
+/// Lines a text takes wrapped in a column `width` characters wide: words are kept whole;
+/// proportional text is about 1.15 characters per width unit (width units are widths of
+/// the digit 0; common practice, measured on the rendered sheets).
+pub(crate) fn wrapped_lines(text: &str, width: f64) -> usize {
+    let per_line = ((width * 1.15).floor() as usize).max(1);
+    let mut lines = 0usize;
+    for para in text.split('\n') {
+        let mut len = 0usize;
+        lines += 1;
+        for word in para.split_whitespace() {
+            let w = word.chars().count();
+            if len > 0 && len + 1 + w > per_line {
+                lines += 1;
+                len = w;
+            } else {
+                len += if len > 0 { 1 + w } else { w };
+            }
+        }
+    }
+    lines.max(1)
+}
+
+/// The inventory's file name (without its folder), for page headers.
+fn input_file_name(report: &Report) -> String {
+    Path::new(&report.input.file)
+        .file_name()
+        .map(|n| n.to_string_lossy().into_owned())
+        .unwrap_or_else(|| report.input.file.clone())
+}
+
 /// Progress callback: called with the number of rows written so far (from whichever thread
 /// is writing a sheet).
 pub type Progress<'a> = &'a (dyn Fn(u64) + Sync);
@@ -221,8 +260,8 @@ fn write_table_sheet(
     table: Table,
     rows: usize,
     styles: &Styles,
-    progress: Progress<'_>,
-    done: &AtomicU64,
+    fit_rows: bool,
+    (progress, done): (Progress<'_>, &AtomicU64),
 ) -> Result<(), ReportError> {
     let cols = table.columns();
     ws.set_name(table.sheet_name())?;
@@ -230,6 +269,14 @@ fn write_table_sheet(
         ws.set_column_width(i as u16, c.width)?;
         if column_formatted(c.kind) {
             ws.set_column_format(i as u16, styles.kind(c.kind))?;
+        } else if c.kind == Kind::Text && c.width >= WRAP_FROM_WIDTH {
+            // Long text (names, flags, notes, reasons) wraps instead of running on.
+            ws.set_column_format(i as u16, &styles.wrap)?;
+        } else if c.kind == Kind::Text {
+            ws.set_column_format(i as u16, styles.kind(Kind::Text))?;
+        }
+        if table == Table::Priority && tables::PRIORITY_HIDDEN.contains(&c.key) {
+            ws.set_column_hidden(i as u16)?;
         }
     }
     ws.set_row_height(0, 45)?;
@@ -238,20 +285,44 @@ fn write_table_sheet(
         _ => 0,
     };
     ws.set_freeze_panes(1, freeze_cols)?;
-    // Printing: landscape, header repeated on every page; the tables an official prints
-    // (Priority, Retrofit plan, Flags) fit the page width.
-    ws.set_landscape();
-    ws.set_repeat_rows(0, 0)?;
-    if matches!(table, Table::Priority | Table::Retrofit | Table::Flags) {
-        ws.set_print_fit_to_pages(1, 0);
-    }
     let last_col = cols.len().saturating_sub(1) as u16;
+    style::page_setup(
+        ws,
+        table.sheet_name(),
+        &input_file_name(report),
+        Print {
+            repeat_rows: Some((0, 0)),
+            repeat_cols: (freeze_cols > 0 || table == Table::Walls || table == Table::Flags)
+                .then_some((0, 1)),
+            on_request: matches!(table, Table::Directions | Table::Walls | Table::Flags)
+                .then_some(last_col),
+        },
+    )?;
     ws.autofilter(0, 0, rows as u32, last_col)?;
     for (i, c) in cols.iter().enumerate() {
         ws.write_string_with_format(0, i as u16, c.header, &styles.header)?;
     }
     let mut r: u32 = 1;
+    let wrapped = |c: &tables::Column| c.kind == Kind::Text && c.width >= WRAP_FROM_WIDTH;
+    let any_wrapped = fit_rows && cols.iter().any(wrapped);
     table.for_each_row(report, Target::Sheet, rows, |cells| {
+        if any_wrapped {
+            // Spreadsheet applications do not all size rows to wrapped text when they open a
+            // file (LibreOffice keeps the default height): set the height from the text.
+            let lines = cells
+                .iter()
+                .zip(cols)
+                .filter(|(_, c)| wrapped(c))
+                .map(|(cell, c)| match cell {
+                    Cell::Text(t) => wrapped_lines(t, c.width),
+                    _ => 1,
+                })
+                .max()
+                .unwrap_or(1);
+            if lines > 1 {
+                ws.set_row_height(r, ROW_HEIGHT_PT * lines.min(MAX_ROW_LINES) as f64)?;
+            }
+        }
         for (i, (cell, c)) in cells.iter().zip(cols).enumerate() {
             put(ws, r, i as u16, cell, c.kind, styles)?;
         }
@@ -301,6 +372,28 @@ pub fn write_with_layout_except(
     written: &[Table],
     progress: Progress<'_>,
 ) -> Result<Vec<(String, PathBuf)>, ReportError> {
+    write_inner(report, path, layout, written, None, progress)
+}
+
+/// [`write_with_progress`] with the comparison with a previous run (`--previous`): the
+/// `Changes` sheet after Priority.
+pub fn write_with_changes(
+    report: &Report,
+    path: &Path,
+    changes: Option<&Changes>,
+    progress: Progress<'_>,
+) -> Result<Vec<(String, PathBuf)>, ReportError> {
+    write_inner(report, path, &Layout::of(report), &[], changes, progress)
+}
+
+fn write_inner(
+    report: &Report,
+    path: &Path,
+    layout: &Layout,
+    written: &[Table],
+    changes: Option<&Changes>,
+    progress: Progress<'_>,
+) -> Result<Vec<(String, PathBuf)>, ReportError> {
     let mut extra = Vec::new();
     for t in &layout.csv {
         let p = csv_path(path, *t);
@@ -315,7 +408,7 @@ pub fn write_with_layout_except(
         extra.push((format!("{} (CSV)", confidence::SHEET), p));
     }
     write_atomic(path, |w| {
-        build_and_save(report, path, w, layout, &extra, progress)
+        build_and_save(report, path, w, layout, &extra, changes, progress)
     })?;
     Ok(extra)
 }
@@ -357,6 +450,7 @@ fn build_and_save(
     out: &mut BufWriter<File>,
     layout: &Layout,
     extra: &[(String, PathBuf)],
+    changes: Option<&Changes>,
     progress: Progress<'_>,
 ) -> Result<(), ReportError> {
     let styles = Styles::new();
@@ -407,6 +501,9 @@ fn build_and_save(
         sheets.push((t, rows, ws));
     }
     let done = AtomicU64::new(0);
+    // Row heights for wrapped text only below the constant-memory size (a stock that large
+    // is not printed; the per-row sheets stay as fast as before).
+    let fit_rows = !layout.constant_memory;
     let weights: Vec<u64> = sheets
         .iter()
         .map(|(t, rows, _)| *rows as u64 * t.columns().len() as u64)
@@ -421,7 +518,7 @@ fn build_and_save(
     }
     bins.into_par_iter().try_for_each(|bin| {
         bin.into_iter().try_for_each(|(t, rows, ws)| {
-            write_table_sheet(ws, report, *t, *rows, &styles, progress, &done)
+            write_table_sheet(ws, report, *t, *rows, &styles, fit_rows, (progress, &done))
         })
     })?;
     for (t, _, ws) in sheets {
@@ -433,8 +530,24 @@ fn build_and_save(
                 .unwrap_or(report.buildings.len());
             confidence::write(wb.add_worksheet(), report, rows, &styles)?;
         }
+        if t == Table::Priority
+            && let Some(c) = changes
+        {
+            changes_sheet::write(wb.add_worksheet(), report, c, &styles)?;
+        }
     }
-    assumptions::write(wb.add_worksheet(), report, &styles)?;
+    let ws = wb.add_worksheet();
+    assumptions::write(ws, report, &styles)?;
+    style::page_setup(
+        ws,
+        "Assumptions",
+        &input_file_name(report),
+        Print {
+            repeat_rows: Some((0, 0)),
+            repeat_cols: None,
+            on_request: None,
+        },
+    )?;
     let charts = summary::write_chart_data(wb.add_worksheet(), report)?;
     let summary_ws = wb.worksheet_from_name("Summary")?;
     summary::write(summary_ws, report, layout, extra, &styles, &now, &charts)?;
@@ -461,6 +574,17 @@ mod tests {
         assert_eq!(balance(&[3, 2], 1), vec![0, 0]);
         assert_eq!(balance(&[3, 2], 0), vec![0, 0]);
         assert!(balance(&[], 2).is_empty());
+    }
+
+    #[test]
+    fn wrapped_lines_keep_words_whole() {
+        // Width 10 holds 11 characters a line (10 × 1.15, rounded down).
+        assert_eq!(wrapped_lines("", 10.0), 1);
+        assert_eq!(wrapped_lines("short", 10.0), 1);
+        assert_eq!(wrapped_lines("abcde fghij", 10.0), 1); // 11 characters
+        assert_eq!(wrapped_lines("abcde fghijk", 10.0), 2);
+        assert_eq!(wrapped_lines("one two three four five six", 10.0), 3);
+        assert_eq!(wrapped_lines("a\nb", 10.0), 2);
     }
 
     #[test]

@@ -71,7 +71,8 @@ fn kind_index(k: Kind) -> usize {
 impl Styles {
     /// Builds the formats.
     pub fn new() -> Self {
-        let num = |f: &str| Format::new().set_num_format(f);
+        // Table cells align to the top, so that a row with wrapped text reads across.
+        let num = |f: &str| Format::new().set_num_format(f).set_align(FormatAlign::Top);
         let class = std::array::from_fn(|i| {
             let name = CLASS_NAMES.get(i).copied().unwrap_or("");
             let fill = CLASS_FILL.get(i).copied().unwrap_or(0xFF_FF_FF);
@@ -80,7 +81,8 @@ impl Styles {
                 .set_num_format(format!("0\" {name}\""))
                 .set_background_color(Color::RGB(fill))
                 .set_font_color(Color::RGB(font))
-                .set_align(FormatAlign::Left);
+                .set_align(FormatAlign::Left)
+                .set_align(FormatAlign::Top);
             if i == 0 {
                 f = f.set_bold();
             }
@@ -94,7 +96,7 @@ impl Styles {
                 .set_background_color(Color::RGB(HEADER_FILL))
                 .set_border_bottom(FormatBorder::Thin),
             kinds: [
-                Format::new(),
+                Format::new().set_align(FormatAlign::Top),
                 num("0"),
                 num("#,##0"),
                 num("0.00"),
@@ -119,7 +121,9 @@ impl Styles {
                 .set_text_wrap()
                 .set_align(FormatAlign::Top)
                 .set_border(FormatBorder::Thin),
-            datetime: num("yyyy-mm-dd hh:mm \"UTC\"").set_align(FormatAlign::Left),
+            datetime: Format::new()
+                .set_num_format("yyyy-mm-dd hh:mm \"UTC\"")
+                .set_align(FormatAlign::Left),
             text: Format::new(),
             int_left: num("0").set_align(FormatAlign::Left),
             indent: Format::new().set_indent(1),
@@ -139,6 +143,62 @@ impl Styles {
             _ => self.kind(Kind::Int),
         }
     }
+}
+
+/// What a sheet repeats on every printed page and whether it prints by default.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Print {
+    /// Header rows repeated on every page (first, last).
+    pub repeat_rows: Option<(u32, u32)>,
+    /// Id columns repeated on every page (first, last).
+    pub repeat_cols: Option<(u16, u16)>,
+    /// Printed only on request: the print area is the header row alone (Directions, Walls,
+    /// Flags: an engineer's tables, tens of pages for a small stock). LibreOffice and Excel
+    /// print only the print area of a sheet that has one; selecting rows and printing the
+    /// selection, or clearing the print area, prints the table.
+    pub on_request: Option<u16>,
+}
+
+/// Escapes `&` in text placed in a page header or footer (`&` starts a code there).
+fn header_text(text: &str) -> String {
+    text.replace('&', "&&")
+}
+
+/// Page setup of a sheet for print and for officials: landscape, fit to one page wide
+/// (any number of pages tall), the sheet and the inventory in the page header, the caution
+/// and "page N of M" in the footer, header rows and id columns repeated on every page.
+pub fn page_setup(
+    ws: &mut rust_xlsxwriter::Worksheet,
+    sheet: &str,
+    inventory: &str,
+    print: Print,
+) -> Result<(), rust_xlsxwriter::XlsxError> {
+    ws.set_landscape();
+    ws.set_print_fit_to_pages(1, 0);
+    ws.set_margins(0.5, 0.5, 0.75, 0.75, 0.3, 0.3);
+    // Excel limits each of header and footer to 255 characters; the caution (about 170)
+    // fits with the codes. A long inventory name is cut.
+    let file: String = inventory.chars().take(120).collect();
+    let mut head = format!("&L&8{}", header_text(sheet));
+    if print.on_request.is_some() {
+        head.push_str(" (not printed by default: print a selection, or clear the print area)");
+    }
+    head.push_str(&format!("&R&8{}", header_text(&file)));
+    ws.set_header(head);
+    ws.set_footer(format!(
+        "&L&7{}&R&8Page &P of &N",
+        header_text(crate::CAUTION)
+    ));
+    if let Some((a, b)) = print.repeat_rows {
+        ws.set_repeat_rows(a, b)?;
+    }
+    if let Some((a, b)) = print.repeat_cols {
+        ws.set_repeat_columns(a, b)?;
+    }
+    if let Some(last_col) = print.on_request {
+        ws.set_print_area(0, 0, 0, last_col)?;
+    }
+    Ok(())
 }
 
 impl Default for Styles {

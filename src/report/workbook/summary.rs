@@ -20,6 +20,8 @@ use crate::results::Report;
 pub const CHART_DATA: &str = "Chart data";
 /// Most points per class in the wall-index / column-index chart (highest priorities first).
 pub const SCATTER_POINTS_PER_CLASS: usize = 5_000;
+/// Summary rows up to which the sheet is printed on one page (beyond, one page wide).
+const SUMMARY_ONE_PAGE_ROWS: u32 = 110;
 /// Bars in the governing-DCR chart.
 pub const TOP_BARS: usize = 30;
 /// Most points on the cumulative-cost curve (evenly thinned beyond this).
@@ -316,6 +318,22 @@ impl Rows<'_> {
         self.r += 1;
         Ok(())
     }
+    /// A label with a long value wrapped over columns B–H, `lines` lines tall.
+    fn label_wrapped(
+        &mut self,
+        label: &str,
+        value: &str,
+        lines: u32,
+        styles: &Styles,
+    ) -> Result<(), ReportError> {
+        self.ws
+            .write_string_with_format(self.r, 0, label, &styles.label)?;
+        self.ws
+            .merge_range(self.r, 1, self.r, 7, cut(value), &styles.wrap)?;
+        self.ws.set_row_height(self.r, 15 * lines)?;
+        self.r += 1;
+        Ok(())
+    }
     fn label_num(
         &mut self,
         label: &str,
@@ -397,10 +415,10 @@ pub fn budget_line(report: &Report) -> String {
                     format!("{k} buildings")
                 }
             };
-            let mut s = format!(
-                "Budget {}: the priority walk funds {} for {}, protecting {} occupants of \
-                 class 1–2 buildings; the max-occupants plan funds {} for {}, protecting {} \
-                 occupants",
+            let s = format!(
+                "Budget {}: Plan A (in priority order) funds {} for {}, protecting {} \
+                 occupants of class 1–2 buildings; Plan B (most people protected) funds {} for \
+                 {}, protecting {} occupants",
                 money(p.budget),
                 n(walk.funded.len()),
                 money(walk.cost),
@@ -409,9 +427,7 @@ pub fn budget_line(report: &Report) -> String {
                 money(best.cost),
                 money(best.occupants_protected as f64)
             );
-            if let Some(m) = &best.method {
-                s.push_str(&format!(" ({m})"));
-            }
+            let mut s = s;
             s.push('.');
             if !p.excluded.is_empty() {
                 let shown: Vec<&str> = p.excluded.iter().take(10).map(|e| e.id.as_str()).collect();
@@ -447,6 +463,122 @@ pub fn budget_line(report: &Report) -> String {
     }
 }
 
+/// The block an official decides on: counts, people, costs, the two plans by their plain
+/// names (`interface.md`: Plan A "in priority order" = the priority walk, Plan B "most people
+/// protected" = the max-occupants plan).
+fn decision_block(w: &mut Rows<'_>, report: &Report, styles: &Styles) -> Result<(), ReportError> {
+    w.section("For the decision", styles)?;
+    let c = &report.counts;
+    let (mut people, mut people_unknown, mut cost, mut cost_unknown) = (0u64, 0usize, 0.0, 0usize);
+    for b in report.buildings.iter().filter(|b| b.class <= 2) {
+        match b.occupants {
+            Some(o) => people += o,
+            None => people_unknown += 1,
+        }
+        match funding_cost(b).filter(|v| v.is_finite()) {
+            Some(v) => cost += v,
+            None => cost_unknown += 1,
+        }
+    }
+    w.label_num(
+        "Buildings screened",
+        c.screened as f64,
+        Kind::Thousands,
+        styles,
+    )?;
+    w.label_num(
+        &format!("Class 1 {}", class_name(1)),
+        c.by_class.c1 as f64,
+        Kind::Thousands,
+        styles,
+    )?;
+    w.label_num(
+        &format!("Class 2 {}", class_name(2)),
+        c.by_class.c2 as f64,
+        Kind::Thousands,
+        styles,
+    )?;
+    w.label_num(
+        "People in class 1–2 buildings",
+        people as f64,
+        Kind::Thousands,
+        styles,
+    )?;
+    if people_unknown > 0 {
+        w.label(
+            "",
+            &format!("(occupants not given for {people_unknown} of these buildings)"),
+            styles,
+        )?;
+    }
+    let st = &report.settings;
+    let costs_set = st.unit_cost_wall_m3.is_some()
+        && st.unit_cost_floor_m2.is_some()
+        && st.replacement_cost_m2.is_some();
+    let severe = c.by_class.c1 + c.by_class.c2;
+    if !costs_set {
+        w.label(
+            "Cost to fix all class 1–2 buildings",
+            "not computed (no unit costs set)",
+            styles,
+        )?;
+    } else {
+        w.label_num(
+            "Cost to fix all class 1–2 buildings",
+            cost,
+            Kind::Thousands,
+            styles,
+        )?;
+        if cost_unknown > 0 {
+            w.label(
+                "",
+                &format!(
+                    "(not counting {cost_unknown} of the {severe} buildings without a cost: see \
+                     the Retrofit plan sheet's notes)"
+                ),
+                styles,
+            )?;
+        }
+    }
+    match &report.budget_plan {
+        Some(p) => {
+            w.label_num("Budget", p.budget, Kind::Thousands, styles)?;
+            for (name, plan) in [
+                ("Plan A: in priority order", &p.priority_walk),
+                ("Plan B: most people protected", &p.max_occupants),
+            ] {
+                w.label(
+                    name,
+                    &format!(
+                        "{} buildings, cost {}, {} people protected",
+                        money(plan.funded.len() as f64),
+                        money(plan.cost),
+                        money(plan.occupants_protected as f64)
+                    ),
+                    styles,
+                )?;
+            }
+            if severe > 0 && cost_unknown < severe {
+                w.label_num(
+                    "Gap (class 1–2 cost beyond budget)",
+                    (cost - p.budget).max(0.0),
+                    Kind::Thousands,
+                    styles,
+                )?;
+            }
+            w.label(
+                "Which buildings",
+                "Retrofit plan and Priority sheets: columns funded by Plan A and by Plan B",
+                styles,
+            )?;
+        }
+        None => {
+            w.label("Budget", &budget_line(report), styles)?;
+        }
+    }
+    Ok(())
+}
+
 /// Writes the Summary sheet and inserts the charts.
 pub fn write(
     ws: &mut Worksheet,
@@ -463,38 +595,26 @@ pub fn write(
     {
         ws.set_column_width(c as u16, *w)?;
     }
-    ws.set_landscape().set_print_fit_to_pages(1, 0);
+    let file = std::path::Path::new(&report.input.file)
+        .file_name()
+        .map(|n| n.to_string_lossy().into_owned())
+        .unwrap_or_default();
+    super::style::page_setup(
+        ws,
+        "Summary",
+        &file,
+        super::style::Print {
+            repeat_rows: None,
+            repeat_cols: None,
+            on_request: None,
+        },
+    )?;
     ws.write_string_with_format(0, 0, "Seismic screening results", &styles.title)?;
     ws.merge_range(1, 0, 3, 7, crate::CAUTION, &styles.caution)?;
     let mut w = Rows { ws, r: 4 };
 
-    w.section("What was screened", styles)?;
-    w.label("Inventory file", &report.input.file, styles)?;
-    w.label("SHA-256 of the file", &report.input.sha256, styles)?;
-    w.ws.write_string_with_format(w.r, 0, "Screened on", &styles.label)?;
-    w.ws.write_datetime_with_format(w.r, 1, now, &styles.datetime)?;
-    w.r += 1;
-    w.label(
-        "Tool",
-        &format!("{} {}", report.tool, report.version),
-        styles,
-    )?;
-    for (key, label) in HAZARD_KEYS {
-        let v = report.settings.value_text(key).unwrap_or_default();
-        let v = if v.is_empty() {
-            "(not set: per building row or district)".to_string()
-        } else if *key == "ranking_level" {
-            v.to_uppercase()
-        } else {
-            v
-        };
-        w.label(&format!("{label} [{key}]"), &v, styles)?;
-    }
-    w.label(
-        "All settings",
-        "see the Assumptions sheet (every value with its source)",
-        styles,
-    )?;
+    decision_block(&mut w, report, styles)?;
+    // The tool parameters come last (written below, after the tables).
 
     w.section("Counts", styles)?;
     let c = &report.counts;
@@ -662,7 +782,7 @@ pub fn write(
     }
     w.label("Reasons", "see the Flags sheet", styles)?;
 
-    w.section("Budget", styles)?;
+    w.section("Budget plans", styles)?;
     let line = budget_line(report);
     w.ws.merge_range(w.r, 0, w.r + 1, 7, &line, &styles.wrap)?;
     w.r += 2;
@@ -712,6 +832,54 @@ pub fn write(
             )?;
         }
         w.r += 1;
+    }
+
+    w.section("Tool parameters", styles)?;
+    w.label("Inventory file", &report.input.file, styles)?;
+    w.label("SHA-256 of the file", &report.input.sha256, styles)?;
+    w.ws.write_string_with_format(w.r, 0, "Screened on", &styles.label)?;
+    w.ws.write_datetime_with_format(w.r, 1, now, &styles.datetime)?;
+    w.r += 1;
+    w.label(
+        "Tool",
+        &format!("{} {}", report.tool, report.version),
+        styles,
+    )?;
+    for (key, label) in HAZARD_KEYS {
+        let v = report.settings.value_text(key).unwrap_or_default();
+        let v = if v.is_empty() {
+            "(not set: per building row or district)".to_string()
+        } else if *key == "ranking_level" {
+            v.to_uppercase()
+        } else {
+            v
+        };
+        w.label(&format!("{label} [{key}]"), &v, styles)?;
+    }
+    w.label(
+        "All settings",
+        "see the Assumptions sheet (every value with its source)",
+        styles,
+    )?;
+
+    if let Some(m) = report
+        .budget_plan
+        .as_ref()
+        .and_then(|p| p.max_occupants.method.as_ref())
+    {
+        w.label_wrapped("How Plan B is found", m, 3, styles)?;
+    }
+    w.label_wrapped(
+        "The method",
+        "docs/method.md (shipped with seistriage): what each step computes, its source, its \
+         limits; `seistriage explain INVENTORY ID` shows every number for one building",
+        2,
+        styles,
+    )?;
+
+    // A Summary of ordinary length prints on one page (a long district list runs on).
+    if w.r <= SUMMARY_ONE_PAGE_ROWS {
+        w.ws.set_print_fit_to_pages(1, 1);
     }
 
     // Charts to the right of the tables.

@@ -160,7 +160,8 @@ pub const PRIORITY: &[Column] = &[
     ),
     col("Flags (codes)", "flags", Kind::Text, 36.0),
     col("Retrofit cost", "retrofit_cost", Kind::Thousands, 14.0),
-    col("Funded (priority walk)", "funded", Kind::Text, 10.0),
+    // `funded` = Plan A, kept for compatibility; the sheet hides it (PRIORITY_HIDDEN).
+    col("Funded (= Plan A)", "funded", Kind::Text, 10.0),
     col("Latitude (deg)", "latitude", Kind::Coord, 12.0),
     col("Longitude (deg)", "longitude", Kind::Coord, 12.0),
     col(
@@ -169,7 +170,23 @@ pub const PRIORITY: &[Column] = &[
         Kind::Thousands,
         12.0,
     ),
+    col(
+        "Funded by Plan A: in priority order",
+        "funded_plan_a",
+        Kind::Text,
+        15.0,
+    ),
+    col(
+        "Funded by Plan B: most people protected",
+        "funded_plan_b",
+        Kind::Text,
+        15.0,
+    ),
 ];
+
+/// Priority columns hidden on the sheet (still in CSV and GeoJSON): `funded`, the same as
+/// `funded_plan_a`.
+pub const PRIORITY_HIDDEN: &[&str] = &["funded"];
 
 /// One Priority row.
 pub fn priority_row<'a>(b: &'a BuildingResult, target: Target, out: &mut Vec<Cell<'a>>) {
@@ -196,6 +213,8 @@ pub fn priority_row<'a>(b: &'a BuildingResult, target: Target, out: &mut Vec<Cel
         Cell::opt(b.latitude),
         Cell::opt(b.longitude),
         Cell::opt(b.fault.as_ref().map(|f| f.distance_m)),
+        Cell::opt_yes_no(b.retrofit.as_ref().and_then(|r| r.funded)),
+        Cell::opt_yes_no(b.retrofit.as_ref().and_then(|r| r.funded_best)),
     ]);
 }
 
@@ -246,12 +265,17 @@ pub const RETROFIT: &[Column] = &[
         15.0,
     ),
     col("Flags after retrofit", "flags_after", Kind::Text, 24.0),
-    col("Funded (priority walk)", "funded", Kind::Text, 11.0),
     col(
-        "Funded (max-occupants plan)",
+        "Funded by Plan A: in priority order",
+        "funded",
+        Kind::Text,
+        15.0,
+    ),
+    col(
+        "Funded by Plan B: most people protected",
         "funded_max_occupants",
         Kind::Text,
-        12.0,
+        15.0,
     ),
     col(
         "Excluded from the budget plans (reason)",
