@@ -8,6 +8,12 @@
 //!     cargo bench --bench stock                       # 10,000 buildings, .xlsx
 //!     STOCK_SIZES=10000:xlsx,100000:xlsx,1000000:csv cargo bench --bench stock
 //!
+//! The first pass of the streaming path alone, before (the whole chunked read, every row
+//! parsed and validated, as that pass ran until the ids-only reader) and after
+//! ([`stream::repeated_ids`]), alternated twice in one run on the file given:
+//!
+//!     STOCK_FIRST_PASS=output/bench/stock.csv cargo bench --bench stock
+//!
 //! Two writing floors are measured, both at the writer's zip level and both filling their
 //! sheets in parallel over the threads as the real writer does:
 //! - `floor-w` (like for like): the very cells of the written workbook (numbers as numbers,
@@ -273,7 +279,62 @@ fn release_binary() -> PathBuf {
     PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("target/release/seistriage")
 }
 
+/// The first pass as it ran before the ids-only reader: the whole chunked read.
+fn first_pass_full_read(inventory: &Path) -> HashMap<String, Vec<usize>> {
+    let mut all: HashMap<String, Vec<usize>> = HashMap::new();
+    read_csv_chunks(
+        inventory,
+        &ReadOptions::default(),
+        stream::CHUNK_ROWS,
+        &HashMap::new(),
+        &mut |inv| {
+            for (id, row) in inv
+                .buildings
+                .iter()
+                .map(|b| (&b.id, b.row))
+                .chain(inv.not_screened.iter().map(|n| (&n.id, n.row)))
+            {
+                if !id.is_empty() {
+                    all.entry(id.clone()).or_default().push(row);
+                }
+            }
+        },
+    )
+    .unwrap();
+    all.retain(|_, rows| rows.len() > 1);
+    for rows in all.values_mut() {
+        rows.sort_unstable();
+    }
+    all
+}
+
+/// `STOCK_FIRST_PASS=FILE`: the first pass before and after, alternated, same result.
+fn first_pass(inventory: &Path) {
+    let mut before = Vec::new();
+    let mut after = Vec::new();
+    for _ in 0..2 {
+        let t = Instant::now();
+        let old = first_pass_full_read(inventory);
+        before.push(secs(t.elapsed()));
+        let t = Instant::now();
+        let new = stream::repeated_ids(inventory, &ReadOptions::default()).unwrap();
+        after.push(secs(t.elapsed()));
+        assert_eq!(old, new, "the ids-only pass differs from the full read");
+    }
+    for (b, a) in before.iter().zip(&after) {
+        println!(
+            "first pass of {}: full read {b:.2} s, ids only {a:.2} s, ratio {:.1}",
+            inventory.display(),
+            b / a
+        );
+    }
+}
+
 fn main() {
+    if let Ok(file) = std::env::var("STOCK_FIRST_PASS") {
+        first_pass(Path::new(&file));
+        return;
+    }
     let sizes = std::env::var("STOCK_SIZES").unwrap_or_else(|_| "10000:xlsx".into());
     let dir = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("output/bench");
     std::fs::create_dir_all(&dir).unwrap();

@@ -347,6 +347,37 @@ pub struct Extras<'a> {
     pub geojson: Option<&'a Path>,
 }
 
+/// Step 1: the ids on more than one building row of a CSV stock → their rows (ascending),
+/// from a pass that reads only the id column ([`input::csv::read_ids`]; the rows and their
+/// numbers are those the chunked read validates). Every id's first row is kept in one map;
+/// only a repeated id gets a list.
+pub fn repeated_ids(
+    path: &Path,
+    read: &input::ReadOptions,
+) -> Result<HashMap<String, Vec<usize>>, InputError> {
+    let mut first: HashMap<Box<str>, usize> = HashMap::new();
+    let mut duplicates: HashMap<String, Vec<usize>> = HashMap::new();
+    input::csv::read_ids(path, read.header_row, &read.budget, &mut |id, row| {
+        if id.is_empty() {
+            return;
+        }
+        match first.get(id) {
+            Some(&at) => duplicates
+                .entry(id.to_string())
+                .or_insert_with(|| vec![at])
+                .push(row),
+            None => {
+                first.insert(Box::from(id), row);
+            }
+        }
+    })?;
+    for rows in duplicates.values_mut() {
+        rows.sort_unstable();
+    }
+    duplicates.shrink_to_fit();
+    Ok(duplicates)
+}
+
 /// Screens a large CSV stock in chunks and writes the workbook `out`, its per-row CSV files
 /// beside it and the `extras` asked for (not the JSON and GeoJSON when no building could be
 /// screened, as on the whole-stock path). `progress` gets rows screened.
@@ -371,27 +402,7 @@ pub fn screen_to_files(
         .map_err(PipelineError::from)?;
 
     // 1. Ids on more than one row.
-    let mut duplicates: HashMap<String, Vec<usize>> = HashMap::new();
-    {
-        let none = HashMap::new();
-        input::read_csv_chunks(path, &read, chunk_rows, &none, &mut |inv| {
-            for (id, row) in inv
-                .buildings
-                .iter()
-                .map(|b| (&b.id, b.row))
-                .chain(inv.not_screened.iter().map(|n| (&n.id, n.row)))
-            {
-                if !id.is_empty() {
-                    duplicates.entry(id.clone()).or_default().push(row);
-                }
-            }
-        })?;
-        duplicates.retain(|_, rows| rows.len() > 1);
-        for rows in duplicates.values_mut() {
-            rows.sort_unstable();
-        }
-        duplicates.shrink_to_fit();
-    }
+    let duplicates = repeated_ids(path, &read)?;
 
     // 2. Chunks.
     let mut files = Vec::new();
@@ -677,4 +688,146 @@ fn write_ranked(
     .map_err(write_err(retrofit_path))?;
     counts.retrofit = n;
     Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    #![allow(clippy::unwrap_used, clippy::expect_used)]
+
+    use super::*;
+
+    /// The first pass as it was before the ids-only reader: the whole chunked read
+    /// (every row parsed and validated), ids of accepted and refused rows alike.
+    fn ids_of_full_read(
+        path: &Path,
+        read: &input::ReadOptions,
+    ) -> Result<HashMap<String, Vec<usize>>, InputError> {
+        let mut all: HashMap<String, Vec<usize>> = HashMap::new();
+        input::read_csv_chunks(path, read, 7, &HashMap::new(), &mut |inv| {
+            for (id, row) in inv
+                .buildings
+                .iter()
+                .map(|b| (&b.id, b.row))
+                .chain(inv.not_screened.iter().map(|n| (&n.id, n.row)))
+            {
+                if !id.is_empty() {
+                    all.entry(id.clone()).or_default().push(row);
+                }
+            }
+        })?;
+        all.retain(|_, rows| rows.len() > 1);
+        for rows in all.values_mut() {
+            rows.sort_unstable();
+        }
+        Ok(all)
+    }
+
+    /// Generated rows (header first), as lines.
+    fn generated(n: usize) -> Vec<String> {
+        let dir = tempfile::tempdir().unwrap();
+        let p = dir.path().join("g.csv");
+        crate::demo::write_generated(n, &p, 5).unwrap();
+        std::fs::read_to_string(&p)
+            .unwrap()
+            .lines()
+            .map(str::to_string)
+            .collect()
+    }
+
+    fn with_id(line: &str, id: &str) -> String {
+        let (_, rest) = line.split_once(',').unwrap();
+        format!("{id},{rest}")
+    }
+
+    #[test]
+    fn the_ids_only_pass_finds_the_rows_of_the_full_read() {
+        let mut lines = generated(60);
+        let id10 = lines[10].split(',').next().unwrap().to_string();
+        let id20 = lines[20].split(',').next().unwrap().to_string();
+        // The id of row 10 three times (once with spaces around it, once on a row that
+        // cannot be screened), the id of row 20 twice, one row with its name spanning two
+        // lines (quoted), one with a blank id, blank lines, and two title lines above the
+        // header.
+        let header: Vec<String> = lines[0].split(',').map(str::to_string).collect();
+        let storeys = header.iter().position(|h| h == "storeys").unwrap();
+        let mut bad: Vec<String> = with_id(&lines[30], &id10)
+            .split(',')
+            .map(str::to_string)
+            .collect();
+        bad[storeys] = "abc".into();
+        lines[30] = bad.join(",");
+        lines[40] = with_id(&lines[40], &format!("\"  {id10} \""));
+        lines[50] = with_id(&lines[50], &id20);
+        lines[15] = with_id(&lines[15], "");
+        let mut quoted: Vec<String> = lines[25].split(',').map(str::to_string).collect();
+        quoted[1] = "\"two\nlines\"".into();
+        lines[25] = quoted.join(",");
+        lines.insert(35, String::new());
+        lines.insert(0, String::new());
+        lines.insert(0, "Invented stock, for a test".into());
+        let dir = tempfile::tempdir().unwrap();
+        let p = dir.path().join("stock.csv");
+        std::fs::write(&p, lines.join("\n") + "\n").unwrap();
+        let read = input::ReadOptions::default();
+        let fast = repeated_ids(&p, &read).unwrap();
+        assert_eq!(fast, ids_of_full_read(&p, &read).unwrap());
+        // Person rows: two title lines (1, 2), header 3, generated line k at k + 3; the
+        // blank line inserted at 35 moves the lines after it one row down.
+        assert_eq!(fast.get(&id10), Some(&vec![13, 33, 44]));
+        assert_eq!(fast.get(&id20), Some(&vec![23, 54]));
+        assert_eq!(fast.len(), 2);
+    }
+
+    #[test]
+    fn the_ids_only_pass_reads_semicolons_a_bom_and_windows_1252_like_the_full_read() {
+        let lines = generated(20);
+        let mut text = b"\xEF\xBB\xBF".to_vec();
+        for (i, line) in lines.iter().enumerate() {
+            // `;` as delimiter; decimal commas do not matter to the ids.
+            let mut l = line.replace(',', ";").replace('.', ",");
+            if i == 3 || i == 12 {
+                l = with_id(&l.replace(';', ","), "Bloc\u{e9}-1").replace(',', ";");
+            }
+            let bytes = encoding_rs::WINDOWS_1252.encode(&l).0.into_owned();
+            text.extend(bytes);
+            text.extend(b"\r\n");
+        }
+        let dir = tempfile::tempdir().unwrap();
+        let p = dir.path().join("stock.csv");
+        std::fs::write(&p, &text).unwrap();
+        let read = input::ReadOptions::default();
+        let fast = repeated_ids(&p, &read).unwrap();
+        assert_eq!(fast, ids_of_full_read(&p, &read).unwrap());
+        assert_eq!(fast.get("Bloc\u{e9}-1"), Some(&vec![4, 13]));
+    }
+
+    #[test]
+    fn the_ids_only_pass_honours_the_header_row_and_refuses_a_bad_header_alike() {
+        let mut lines = generated(12);
+        let id = lines[2].split(',').next().unwrap().to_string();
+        lines[9] = with_id(&lines[9], &id);
+        // A row above the header that looks like data: only --header-row tells them apart.
+        lines.insert(0, lines[5].clone());
+        let dir = tempfile::tempdir().unwrap();
+        let p = dir.path().join("stock.csv");
+        std::fs::write(&p, lines.join("\n") + "\n").unwrap();
+        let read = input::ReadOptions {
+            header_row: Some(2),
+            ..Default::default()
+        };
+        let fast = repeated_ids(&p, &read).unwrap();
+        assert_eq!(fast, ids_of_full_read(&p, &read).unwrap());
+        assert_eq!(fast.get(&id), Some(&vec![4, 11]));
+
+        // No id column: the same refusal as the full read.
+        let no_id: Vec<String> = lines[1..]
+            .iter()
+            .map(|l| l.split_once(',').unwrap().1.to_string())
+            .collect();
+        std::fs::write(&p, no_id.join("\n") + "\n").unwrap();
+        let read = input::ReadOptions::default();
+        let fast = repeated_ids(&p, &read).unwrap_err().to_string();
+        assert_eq!(fast, ids_of_full_read(&p, &read).unwrap_err().to_string());
+        assert!(fast.contains("id"), "{fast}");
+    }
 }

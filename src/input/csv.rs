@@ -21,6 +21,8 @@ pub struct CsvInfo {
     pub decimal_comma: bool,
     /// The file was not UTF-8 and was decoded as Windows-1252.
     pub windows_1252: bool,
+    /// The head of the file is not UTF-8: every field is read as Windows-1252.
+    whole_1252: bool,
 }
 
 fn unreadable(path: &str, message: impl std::fmt::Display) -> InputError {
@@ -75,6 +77,82 @@ pub fn read_csv(
     counter: &mut CellCounter,
     sink: &mut super::xlsx::Sink<'_>,
 ) -> Result<CsvInfo, InputError> {
+    let mut truncated = Vec::new();
+    scan_records(path, budget, &mut |person_row, record, info| {
+        let mut row = RawRow {
+            row: person_row,
+            cells: Vec::new(),
+        };
+        truncated.clear();
+        for (col, field) in record.iter().enumerate() {
+            let Some(s) = cell_text(field, info) else {
+                continue;
+            };
+            let (s, cut) = s.capped();
+            if cut {
+                truncated.push(col);
+            }
+            counter.count()?;
+            row.cells.push((col, RawCell::Text(s)));
+        }
+        if !row.cells.is_empty() {
+            sink(row, &truncated)?;
+        }
+        Ok(Flow::More)
+    })
+}
+
+/// Whether [`scan_records`] goes on after a record.
+pub(crate) enum Flow {
+    More,
+    Stop,
+}
+
+/// A field's text as the reader keeps it: `None` when blank (only spaces), Windows-1252
+/// decoded when the file (or this field) is not UTF-8 (noted in `info`).
+fn cell_text<'f>(field: &'f [u8], info: &mut CsvInfo) -> Option<Cell<'f>> {
+    let s = match std::str::from_utf8(field) {
+        Ok(t) if !info.whole_1252 => std::borrow::Cow::Borrowed(t),
+        _ => {
+            info.windows_1252 = true;
+            encoding_rs::WINDOWS_1252
+                .decode_without_bom_handling(field)
+                .0
+        }
+    };
+    (!s.trim().is_empty()).then_some(Cell(s))
+}
+
+/// A non-blank field's text.
+struct Cell<'f>(std::borrow::Cow<'f, str>);
+
+impl Cell<'_> {
+    /// Cut to [`MAX_CELL_CHARS`] characters (and whether it was cut), owned.
+    fn capped(self) -> (String, bool) {
+        if self.0.chars().count() > MAX_CELL_CHARS {
+            (self.0.chars().take(MAX_CELL_CHARS).collect(), true)
+        } else {
+            (self.0.into_owned(), false)
+        }
+    }
+
+    /// The same cut, borrowed where no cut is needed.
+    fn capped_str(&self) -> std::borrow::Cow<'_, str> {
+        match self.0.char_indices().nth(MAX_CELL_CHARS) {
+            Some((at, _)) => std::borrow::Cow::Borrowed(&self.0[..at]),
+            None => std::borrow::Cow::Borrowed(&self.0),
+        }
+    }
+}
+
+/// Opens a CSV file (size budget, binary content refused, delimiter sniffed, BOM skipped)
+/// and hands every record to `on_record` with the row number a person sees (blank lines
+/// counted), in one reused [`csv::ByteRecord`].
+pub(crate) fn scan_records(
+    path: &Path,
+    budget: &Budget,
+    on_record: &mut dyn FnMut(usize, &csv::ByteRecord, &mut CsvInfo) -> Result<Flow, InputError>,
+) -> Result<CsvInfo, InputError> {
     let p = path.display().to_string();
     let meta = std::fs::metadata(path).map_err(|e| unreadable(&p, e))?;
     if meta.len() > budget.max_file_bytes {
@@ -110,7 +188,7 @@ pub fn read_csv(
         ..Default::default()
     };
     info.decimal_comma = info.delimiter == b';';
-    let whole_1252 = !head_is_utf8(body_head);
+    info.whole_1252 = !head_is_utf8(body_head);
     drop(file);
     let file = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
     let body =
@@ -134,10 +212,7 @@ pub fn read_csv(
         // where reading stopped after it, less the line ends inside its quoted fields; the
         // lines between the end of the previous record and that start are blank rows.
         let end = rdr.position();
-        let inner = record
-            .iter()
-            .map(|f| f.iter().filter(|b| **b == b'\n').count() as u64)
-            .sum::<u64>();
+        let inner = record.as_slice().iter().filter(|b| **b == b'\n').count() as u64;
         // The csv crate counts a line end at the end of the file too, so every record ends
         // one line further on.
         let terminator = 1;
@@ -145,37 +220,104 @@ pub fn read_csv(
         let blanks = first_line.saturating_sub(prev_end_line);
         prev_end_line = end.line();
         person_row += blanks as usize + 1;
+        if let Flow::Stop = on_record(person_row, &record, &mut info)? {
+            break;
+        }
+    }
+    Ok(info)
+}
+
+/// The first pass of the streaming path: every building row's id with its row number, in
+/// file order, reading only the id column once the header is known (one reused
+/// [`csv::ByteRecord`], no row parsed or validated). The header is found, and rows before
+/// it are read, exactly as [`read_csv`] with the buildings sheet's reader does, so the ids
+/// and row numbers are the ones the chunked read validates (trimmed text, cut to
+/// [`MAX_CELL_CHARS`] characters, Windows-1252 decoded when the file is not UTF-8). A header
+/// problem is the same error as in the full read.
+pub fn read_ids(
+    path: &Path,
+    header_row: Option<usize>,
+    budget: &Budget,
+    on_id: &mut dyn FnMut(&str, usize),
+) -> Result<(), InputError> {
+    use super::columns::BUILDINGS;
+    let p = path.display().to_string();
+    let early: std::cell::RefCell<Vec<(String, usize)>> = std::cell::RefCell::new(Vec::new());
+    let id_slot = BUILDINGS
+        .columns
+        .iter()
+        .position(|c| c.name == "id")
+        .unwrap_or(0);
+    let mut reader = super::raw::SheetReader::new(
+        &BUILDINGS,
+        BUILDINGS.name,
+        header_row,
+        budget,
+        &p,
+        |row: super::raw::DataRow| {
+            if let Some(RawCell::Text(t)) = row.cells.get(id_slot) {
+                let t = t.trim();
+                if !t.is_empty() {
+                    early.borrow_mut().push((t.to_string(), row.row));
+                }
+            }
+        },
+    );
+    let mut counter = CellCounter {
+        cells: 0,
+        max: budget.max_cells,
+        path: p.clone(),
+    };
+    // Until the header is known: rows as `read_csv` gives them, through the sheet reader.
+    let mut id_col = None;
+    let mut rest_from = 0usize;
+    scan_records(path, budget, &mut |person_row, record, info| {
         let mut row = RawRow {
             row: person_row,
             cells: Vec::new(),
         };
-        let mut truncated = Vec::new();
         for (col, field) in record.iter().enumerate() {
-            let mut s = match std::str::from_utf8(field) {
-                Ok(t) if !whole_1252 => t.to_string(),
-                _ => {
-                    info.windows_1252 = true;
-                    encoding_rs::WINDOWS_1252
-                        .decode_without_bom_handling(field)
-                        .0
-                        .into_owned()
-                }
-            };
-            if s.trim().is_empty() {
-                continue;
+            if let Some(s) = cell_text(field, info) {
+                counter.count()?;
+                row.cells.push((col, RawCell::Text(s.capped().0)));
             }
-            if s.chars().count() > MAX_CELL_CHARS {
-                s = s.chars().take(MAX_CELL_CHARS).collect();
-                truncated.push(col);
-            }
-            counter.count()?;
-            row.cells.push((col, RawCell::Text(s)));
         }
         if !row.cells.is_empty() {
-            sink(row, &truncated)?;
+            reader.push(row)?;
         }
+        id_col = reader.column_of("id");
+        rest_from = person_row;
+        Ok(if id_col.is_some() || reader.is_fatal() {
+            Flow::Stop
+        } else {
+            Flow::More
+        })
+    })?;
+    let Some(col) = id_col else {
+        // The file ended before the header was settled (a short file: its rows are replayed
+        // now), or the header is unusable (the same error as the full read).
+        reader.finish()?;
+        for (id, row) in early.take() {
+            on_id(&id, row);
+        }
+        return Ok(());
+    };
+    drop(reader);
+    for (id, row) in early.take() {
+        on_id(&id, row);
     }
-    Ok(info)
+    // After the header: the id field alone.
+    scan_records(path, budget, &mut |person_row, record, info| {
+        if person_row > rest_from
+            && let Some(field) = record.get(col)
+            && let Some(text) = cell_text(field, info)
+        {
+            let id = text.capped_str();
+            on_id(id.trim(), person_row);
+        }
+        Ok(Flow::More)
+    })?;
+    Ok(())
 }
 
 /// Skips the first `n` bytes of a reader (the BOM).

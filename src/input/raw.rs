@@ -243,6 +243,21 @@ impl<'s> SheetReader<'s> {
         }
     }
 
+    /// The 0-based sheet column holding the spec column `name`, once the header is known
+    /// and usable (`None` before, or when the header is refused).
+    pub fn column_of(&self, name: &str) -> Option<usize> {
+        if self.fatal.is_some() || !matches!(self.state, State::Data(_)) {
+            return None;
+        }
+        let pos = self.spec.columns.iter().position(|c| c.name == name)?;
+        self.slots.iter().position(|s| *s == Some(pos))
+    }
+
+    /// Whether the header was refused (the next [`Self::push`] or [`Self::finish`] fails).
+    pub fn is_fatal(&self) -> bool {
+        self.fatal.is_some()
+    }
+
     /// Feeds the next row (rows arrive in ascending order; absent rows are blank).
     pub fn push(&mut self, row: RawRow) -> Result<(), InputError> {
         if let Some(f) = &self.fatal {
