@@ -126,24 +126,30 @@ pub fn new_wall_group(d: Dir, added_m2: f64, s: &Settings) -> WallSpec {
     }
 }
 
-/// Strengths used for capacity: mean / CF for existing members (EN 1998-3 §3.5), as given
-/// for new walls.
-fn capacity_strengths(w: &WallSpec, s: &Settings) -> (f64, f64) {
-    if w.existing {
+/// Capacity of one wall under the selected model (method §8), from its mean concrete
+/// strength `fc_mean` (MPa; the sampling stage of §13 passes F·fc) and its axial load
+/// ratio `nu` (§2). Existing members take fc/CF and fy/CF (EN 1998-3 §3.5) and ν × CF inside
+/// (A.1) and the ASCE 41 Q (method §8, confidence factor scope); new walls take their
+/// properties as given. The ASCE 41 wall-shear share β_i takes the mean fc. Returns the
+/// EN 1998-3 member capacity (θy, θum) and the levels of the selected model.
+pub fn wall_capacity_levels(
+    w: &WallSpec,
+    fc_mean: f64,
+    nu: f64,
+    lv: f64,
+    se_g: f64,
+    cy: f64,
+    s: &Settings,
+) -> (capacity::MemberCapacity, Levels) {
+    let (fc, fy) = if w.existing {
         (
-            w.fc_mpa / s.confidence_factor,
+            fc_mean / s.confidence_factor,
             w.fy_mpa / s.confidence_factor,
         )
     } else {
-        (w.fc_mpa, w.fy_mpa)
-    }
-}
-
-/// Capacity of one wall under the selected model (method §8).
-fn wall_result(w: &WallSpec, lv: f64, se_g: f64, cy: f64, s: &Settings) -> WallResult {
-    let (fc, fy) = capacity_strengths(w, s);
-    // Method §8, confidence factor scope: ν × CF inside (A.1) and the ASCE 41 Q.
-    let nu_cap = capacity::capacity_axial_ratio(w.nu, w.existing, s);
+        (fc_mean, w.fy_mpa)
+    };
+    let nu_cap = capacity::capacity_axial_ratio(nu, w.existing, s);
     let ec = capacity::wall_capacity(
         nu_cap,
         fc,
@@ -160,7 +166,7 @@ fn wall_result(w: &WallSpec, lv: f64, se_g: f64, cy: f64, s: &Settings) -> WallR
         let v_mn = asce41::wall_shear_mn(
             se_g,
             cy,
-            strength::beta(w.fc_mpa, s.fc_reference_mpa),
+            strength::beta(fc_mean, s.fc_reference_mpa),
             s.tau_wall_mpa,
             area_i,
         );
@@ -179,6 +185,12 @@ fn wall_result(w: &WallSpec, lv: f64, se_g: f64, cy: f64, s: &Settings) -> WallR
             }
         }
     };
+    (ec, cap)
+}
+
+/// Capacity of one wall under the selected model (method §8), as the Walls sheet reports it.
+fn wall_result(w: &WallSpec, lv: f64, se_g: f64, cy: f64, s: &Settings) -> WallResult {
+    let (ec, cap) = wall_capacity_levels(w, w.fc_mpa, w.nu, lv, se_g, cy, s);
     WallResult {
         wall_id: w.id.clone(),
         direction: Some(w.dir),

@@ -243,8 +243,9 @@ mod tests {
 
     #[test]
     fn as241_coefficients_match_the_published_hash_sums() {
-        // Source: Wichura (1988) AS 241 prints, for checking transcription, the sums of the
-        // mantissas of the coefficients: AB 55.8831928806149014439, CD 49.33206503301610289036,
+        // Source: M. J. Wichura, "Algorithm AS 241: the percentage points of the normal
+        // distribution", Applied Statistics 37(3), 1988, pp. 477-484. The paper gives, for
+        // checking transcription, the sums of the mantissas of the coefficients: AB 55.8831928806149014439, CD 49.33206503301610289036,
         // EF 47.52583317549289671629 (B0, D0, F0 = 1 excluded). Tolerance 1e-12: sums of
         // 15 doubles.
         fn mantissa(v: f64) -> f64 {

@@ -16,11 +16,11 @@ and the sampler cannot drift apart unnoticed.
 
 use crate::engine::building::{self, DemandSpectrum, Prepared};
 use crate::engine::resolve::{Hazard, StoreyAreas, WallSpec};
-use crate::engine::{BuildingInput, asce41, capacity, dcr, demand, flags, n2, rank, strength};
+use crate::engine::{BuildingInput, capacity, dcr, demand, flags, n2, rank, strength};
 use crate::engine::{indices, resolve};
 use crate::model::{Dir, PerDir, YesNo};
 use crate::results::Levels;
-use crate::settings::{CapacityModel, Settings};
+use crate::settings::Settings;
 
 /// The random factors of one building in one sample (method §13), each lognormal with
 /// median 1.
@@ -259,7 +259,8 @@ impl Evaluator {
             // §8: the wall group's per-level minimum, Cw on the final levels.
             let mut wall_cap: Option<Levels> = None;
             for w in &b.walls {
-                let l = wall_levels(w, f.f, nu, self.lv_wall, se, cy, s);
+                let (_, l) =
+                    building::wall_capacity_levels(w, w.fc_mpa * f.f, nu, self.lv_wall, se, cy, s);
                 wall_cap = Some(match wall_cap {
                     None => l,
                     Some(a) => Levels {
@@ -334,56 +335,5 @@ fn scale_levels(l: &Levels, k: f64) -> Levels {
         io: l.io * k,
         ls: l.ls * k,
         cp: l.cp * k,
-    }
-}
-
-/// Capacity levels of one existing wall with its fc multiplied by F and the sample's ν,
-/// under the selected capacity model (the engine's wall capacity of method §8).
-fn wall_levels(w: &WallSpec, f: f64, nu: f64, lv: f64, se_g: f64, cy: f64, s: &Settings) -> Levels {
-    let fc_mean = w.fc_mpa * f;
-    let (fc, fy) = if w.existing {
-        (
-            fc_mean / s.confidence_factor,
-            w.fy_mpa / s.confidence_factor,
-        )
-    } else {
-        (fc_mean, w.fy_mpa)
-    };
-    // ν × CF inside the capacity formulas for existing members (method §8).
-    let nu_cap = capacity::capacity_axial_ratio(nu, w.existing, s);
-    let ec = capacity::wall_capacity(
-        nu_cap,
-        fc,
-        fy,
-        w.lw,
-        lv,
-        w.boundary,
-        w.boundary_steel_pct,
-        w.db_m,
-        s,
-    );
-    let asce = || {
-        let area_i = (w.lw * w.tw).min(w.area_m2());
-        let v_mn = asce41::wall_shear_mn(
-            se_g,
-            cy,
-            strength::beta(fc_mean, s.fc_reference_mpa),
-            s.tau_wall_mpa,
-            area_i,
-        );
-        let v = asce41::shear_stress_psi(v_mn, w.tw, w.lw, fc);
-        asce41::wall_levels(ec.theta_y, nu_cap, v, w.boundary)
-    };
-    match s.capacity_model {
-        CapacityModel::Eurocode => ec.levels,
-        CapacityModel::Asce41 => asce(),
-        CapacityModel::LowerOfBoth => {
-            let a = asce();
-            Levels {
-                io: a.io.min(ec.levels.io),
-                ls: a.ls.min(ec.levels.ls),
-                cp: a.cp.min(ec.levels.cp),
-            }
-        }
     }
 }
