@@ -1,5 +1,5 @@
 /*!
-The whole job, from an inventory path to a [`Report`]: read, settle the settings, place the
+The whole job, from an inventory path to a [`Screening`]: read, settle the settings, place the
 buildings, screen, size retrofits, plan the budget. Writing the report is left to
 [`crate::report`]; this module does no terminal or file output.
 */
@@ -13,7 +13,7 @@ use crate::engine;
 use crate::geography::{GeoError, Geography};
 use crate::input::{self, InputError, ReadOptions};
 use crate::model::{Inventory, Problem, Severity, SiteInfo};
-use crate::results::{Counts, InputInfo, Report};
+use crate::results::{Counts, InputInfo, Screening};
 use crate::retrofit;
 use crate::settings::{Level, Settings, SettingsError};
 
@@ -289,7 +289,7 @@ pub fn unresolved(loaded: &Loaded) -> Vec<crate::model::NotScreened> {
 }
 
 /// Screens a loaded inventory: engine, retrofit sizing, budget plan, counts.
-pub fn screen(loaded: &Loaded) -> Report {
+pub fn screen(loaded: &Loaded) -> Screening {
     let inputs = engine::building_inputs(&loaded.inventory, &loaded.sites);
     let screening = engine::screen_all(&inputs, &loaded.settings);
     let mut buildings = screening.buildings;
@@ -321,7 +321,7 @@ pub fn screen(loaded: &Loaded) -> Report {
             severity: Severity::Warning,
         });
     }
-    Report {
+    Screening {
         tool: "seistriage",
         version: env!("CARGO_PKG_VERSION"),
         input: loaded.input.clone(),

@@ -496,7 +496,7 @@ pub struct InputInfo {
 
 /// A whole screening run: the JSON document of `interface.md`.
 #[derive(Debug, Clone, PartialEq, Serialize)]
-pub struct Report {
+pub struct Screening {
     /// Always "seistriage".
     pub tool: &'static str,
     /// Crate version.

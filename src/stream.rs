@@ -40,11 +40,11 @@ use crate::pipeline::{self, PipelineError, RunOptions};
 use crate::report::ReportError;
 use crate::report::atomic::TempFile;
 use crate::report::json::{self, Placed, Spill};
-use crate::report::workbook::tables::{self, RowCounts, Table, Target};
+use crate::report::workbook::tables::{self, RowCounts, TableId, Target};
 use crate::report::workbook::{self, LARGE_PRIORITY_ROWS, Layout};
 use crate::results::{
     BuildingDetail, BuildingResult, Counts, DirectionResult, Flag, FlagCode, FlagDetail, Governing,
-    InputInfo, Levels, Report, Retrofit,
+    InputInfo, Levels, Retrofit, Screening,
 };
 use crate::retrofit::{self, Fundable};
 
@@ -285,14 +285,14 @@ impl Fundable for Compact {
 
 /// A per-row CSV file written chunk by chunk under a temporary name.
 struct RowFile {
-    table: Table,
+    table: TableId,
     path: PathBuf,
     tmp: TempFile,
     w: BufWriter<File>,
 }
 
 impl RowFile {
-    fn create(out: &Path, table: Table) -> Result<Self, StreamError> {
+    fn create(out: &Path, table: TableId) -> Result<Self, StreamError> {
         let path = workbook::csv_path(out, table);
         let (tmp, f) = TempFile::create(&path).map_err(|e| write_err(&path)(ReportError::Io(e)))?;
         let mut w = BufWriter::new(f);
@@ -330,8 +330,8 @@ impl RowFile {
 /// stock (for the terminal summary), and the files written.
 #[derive(Debug)]
 pub struct Streamed {
-    /// Report with the top buildings only (its counts cover the whole stock).
-    pub report: Report,
+    /// Screening with the top buildings only (its counts cover the whole stock).
+    pub report: Screening,
     /// Files written, with a label.
     pub written: Vec<(String, PathBuf)>,
 }
@@ -406,7 +406,7 @@ pub fn screen_to_files(
 
     // 2. Chunks.
     let mut files = Vec::new();
-    for t in [Table::Directions, Table::Walls, Table::Flags] {
+    for t in [TableId::Directions, TableId::Walls, TableId::Flags] {
         files.push(RowFile::create(out, t)?);
     }
     let mut spill = match extras.json {
@@ -428,7 +428,7 @@ pub fn screen_to_files(
         problems: 0,
     };
     let mut failure: Option<StreamError> = None;
-    let mut part = Report {
+    let mut part = Screening {
         tool: "seistriage",
         version: env!("CARGO_PKG_VERSION"),
         input: InputInfo {
@@ -534,8 +534,8 @@ pub fn screen_to_files(
 
     let mut written = Vec::new();
     // Priority and Retrofit plan in rank order.
-    let priority_path = workbook::csv_path(out, Table::Priority);
-    let retrofit_path = workbook::csv_path(out, Table::Retrofit);
+    let priority_path = workbook::csv_path(out, TableId::Priority);
+    let retrofit_path = workbook::csv_path(out, TableId::Retrofit);
     write_ranked(&ranked, &priority_path, &retrofit_path, &mut counts)?;
     let mut moved = Vec::new();
     for f in files {
@@ -545,7 +545,7 @@ pub fn screen_to_files(
     counts.not_screened = not_screened.len();
     counts.problems = all_problems.len();
 
-    let mut report = Report {
+    let mut report = Screening {
         tool: "seistriage",
         version: env!("CARGO_PKG_VERSION"),
         input: InputInfo {
@@ -589,11 +589,11 @@ pub fn screen_to_files(
         out,
         &layout,
         &[
-            Table::Priority,
-            Table::Retrofit,
-            Table::Directions,
-            Table::Walls,
-            Table::Flags,
+            TableId::Priority,
+            TableId::Retrofit,
+            TableId::Directions,
+            TableId::Walls,
+            TableId::Flags,
         ],
         &|_| {},
     )
@@ -651,10 +651,10 @@ fn write_ranked(
     let mut num = String::new();
     crate::report::atomic::write_atomic(priority_path, |w| {
         let mut w = ::csv::Writer::from_writer(w);
-        write_header(Table::Priority, &mut w)?;
+        write_header(TableId::Priority, &mut w)?;
         for c in ranked {
             let b = c.result();
-            let mut cells = Vec::with_capacity(Table::Priority.columns().len());
+            let mut cells = Vec::with_capacity(TableId::Priority.columns().len());
             tables::priority_row(&b, Target::Csv, &mut cells);
             write_cells(&cells, false, &mut num, &mut w)?;
         }
@@ -665,7 +665,7 @@ fn write_ranked(
     let mut n = 0usize;
     crate::report::atomic::write_atomic(retrofit_path, |w| {
         let mut w = ::csv::Writer::from_writer(w);
-        write_header(Table::Retrofit, &mut w)?;
+        write_header(TableId::Retrofit, &mut w)?;
         // The running total as in the whole-stock Retrofit plan table.
         let mut cumulative = 0.0;
         let mut cum_known = true;
@@ -677,7 +677,7 @@ fn write_ranked(
                 _ => cum_known = false,
             }
             let cum = (cum_known && cost.is_some()).then_some(cumulative);
-            let mut cells = Vec::with_capacity(Table::Retrofit.columns().len());
+            let mut cells = Vec::with_capacity(TableId::Retrofit.columns().len());
             tables::retrofit_row(&b, cum, Target::Csv, &mut cells);
             write_cells(&cells, false, &mut num, &mut w)?;
             n += 1;

@@ -13,7 +13,7 @@ use rust_xlsxwriter::{
 };
 
 use crate::input::HEADER_RULE_HELP;
-use crate::input::columns::{Column, Kind, SHEETS, SheetSpec};
+use crate::input::columns::{Column, SHEETS, SheetSpec, ValueKind};
 use crate::model::Use;
 use crate::settings::{KEYS, Settings};
 
@@ -35,12 +35,12 @@ pub enum TemplateError {
 const LAST_ROW: u32 = 1_048_575;
 
 /// The allowed values of a closed-set column, if it is one.
-pub fn allowed_values(kind: Kind) -> Option<Vec<&'static str>> {
+pub fn allowed_values(kind: ValueKind) -> Option<Vec<&'static str>> {
     match kind {
-        Kind::Use => Some(Use::ALL.iter().map(|u| u.code()).collect()),
-        Kind::YesNo => Some(vec!["yes", "no", "unknown"]),
-        Kind::Ground => Some(vec!["A", "B", "C", "D", "E"]),
-        Kind::Direction => Some(vec!["X", "Y"]),
+        ValueKind::Use => Some(Use::ALL.iter().map(|u| u.code()).collect()),
+        ValueKind::YesNo => Some(vec!["yes", "no", "unknown"]),
+        ValueKind::Ground => Some(vec!["A", "B", "C", "D", "E"]),
+        ValueKind::Direction => Some(vec!["X", "Y"]),
         _ => None,
     }
 }
@@ -235,7 +235,7 @@ mod tests {
             for c in spec.columns {
                 let closed = matches!(
                     c.kind,
-                    Kind::Use | Kind::YesNo | Kind::Ground | Kind::Direction
+                    ValueKind::Use | ValueKind::YesNo | ValueKind::Ground | ValueKind::Direction
                 );
                 assert_eq!(allowed_values(c.kind).is_some(), closed, "{}", c.name);
             }

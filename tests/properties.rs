@@ -196,7 +196,7 @@ proptest! {
     fn sizing_shortcut_equals_full_rescreening(
         b in building(), area in 0.0f64..40.0, m in 0usize..3, sp in 0usize..2, dy in any::<bool>()
     ) {
-        use seistriage::retrofit::{Prepared, sizing::{Rescreen, walls_in}};
+        use seistriage::retrofit::{Rescreener, sizing::{Rescreen, walls_in}};
         let s = settings_for(m, sp);
         let inp = input(&b);
         let d = if dy { Dir::Y } else { Dir::X };
@@ -207,7 +207,7 @@ proptest! {
             .dcr
             .ls;
         let prepared = seistriage::engine::building::prepare(&inp, &s).unwrap();
-        let quick = Prepared { prepared, settings: &s }.dcr_ls(d, area).unwrap();
+        let quick = Rescreener { prepared, settings: &s }.dcr_ls(d, area).unwrap();
         prop_assert_eq!(full.to_bits(), quick.to_bits(), "full {} quick {}", full, quick);
     }
 
@@ -220,14 +220,14 @@ proptest! {
     ) {
         use seistriage::engine::NewWalls;
         use seistriage::model::PerDir;
-        use seistriage::retrofit::{Prepared, sizing::Rescreen};
+        use seistriage::retrofit::{Rescreener, sizing::Rescreen};
         let s = settings_for(m, sp);
         let inp = input(&b);
         let new = NewWalls { area_m2: PerDir { x: ax, y: ay } };
         let full = |n: &NewWalls| seistriage::engine::screen_building_with(&inp, &s, n);
         let (dcr_full, codes_full) = full.after(&new).unwrap();
         let prepared = seistriage::engine::building::prepare(&inp, &s).unwrap();
-        let (dcr_quick, codes_quick) = Prepared { prepared, settings: &s }.after(&new).unwrap();
+        let (dcr_quick, codes_quick) = Rescreener { prepared, settings: &s }.after(&new).unwrap();
         prop_assert_eq!(dcr_full.x.to_bits(), dcr_quick.x.to_bits());
         prop_assert_eq!(dcr_full.y.to_bits(), dcr_quick.y.to_bits());
         prop_assert_eq!(codes_full, codes_quick);

@@ -8,7 +8,7 @@ use proptest::prelude::*;
 use seistriage::engine::{self, BuildingInput, screen_building};
 use seistriage::model::{BuildingRecord, Dir, GroundType, Use, YesNo};
 use seistriage::pipeline::{self, Loaded, RunOptions};
-use seistriage::results::{BuildingResult, Levels, Report};
+use seistriage::results::{BuildingResult, Levels, Screening};
 use seistriage::settings::{CapacityModel, Settings, Spectrum};
 use seistriage::uncertainty::{BuildingSamples, Evaluator, Factors, Sample};
 
@@ -361,7 +361,7 @@ fn asce41_walls_see_the_factors_through_shear_and_axial_load() {
     assert_sample_is_engine_on(&r3, &smp, &s);
 }
 
-fn screen_with(loaded: &Loaded) -> Report {
+fn screen_with(loaded: &Loaded) -> Screening {
     pipeline::screen(loaded)
 }
 
@@ -411,7 +411,7 @@ fn results_do_not_depend_on_thread_count_or_run() {
     let one = run(1);
     let two = run(2);
     let again = run(2);
-    let u = |r: &Report| -> Vec<_> {
+    let u = |r: &Screening| -> Vec<_> {
         r.buildings
             .iter()
             .map(|b| (b.id.clone(), b.uncertainty.clone()))

@@ -6,7 +6,7 @@ use std::process::ExitCode;
 use anyhow::{Context, bail};
 use seistriage::pipeline::{self, RunOptions};
 use seistriage::report;
-use seistriage::report::terminal::Progress;
+use seistriage::report::terminal::ProgressLine;
 use std::io::Write;
 
 /// Options of `screen` (and of `demo`, which calls it).
@@ -156,7 +156,7 @@ fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitC
             );
         }
         if i == 0
-            && report::workbook::tables::Table::ALL
+            && report::workbook::tables::TableId::ALL
                 .iter()
                 .any(|t| same_file(&report::workbook::csv_path(p, *t), &o.inventory))
         {
@@ -198,7 +198,7 @@ fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitC
                 .with_context(|| format!("reading the previous run {}", p.display()))
         })
         .transpose()?;
-    let progress = Progress::spinner(o.quiet, "reading the inventory");
+    let progress = ProgressLine::spinner(o.quiet, "reading the inventory");
     let loaded = pipeline::load(&o.inventory, &o.run);
     progress.finish();
     let loaded = loaded?;
@@ -233,7 +233,7 @@ fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitC
             seistriage::uncertainty::MAX_STORE_BYTES >> 30
         );
     }
-    let progress = Progress::spinner(o.quiet, "screening");
+    let progress = ProgressLine::spinner(o.quiet, "screening");
     let report = pipeline::screen(&loaded);
     // The report holds everything the writers need: free the inventory before writing.
     drop(loaded);
@@ -246,7 +246,7 @@ fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitC
         std::fs::create_dir_all(parent)
             .with_context(|| format!("creating {}", parent.display()))?;
     }
-    let progress = Progress::spinner(o.quiet, "writing the workbook");
+    let progress = ProgressLine::spinner(o.quiet, "writing the workbook");
     let total = report::workbook::tables::RowCounts::of(&report);
     progress.rows(
         (total.priority
@@ -387,7 +387,7 @@ fn run_streamed(
                 .with_context(|| format!("creating {}", parent.display()))?;
         }
     }
-    let progress = Progress::spinner(o.quiet, "screening in chunks");
+    let progress = ProgressLine::spinner(o.quiet, "screening in chunks");
     let streamed = seistriage::stream::screen_to_files(
         &o.inventory,
         &o.run,
@@ -415,7 +415,10 @@ fn run_streamed(
 
 /// Says why no building could be screened (the first reasons, then how many more rows) and
 /// gives exit code 1; the same on the whole-stock and the streaming path.
-fn nothing_screened(report: &seistriage::results::Report, inventory: &std::path::Path) -> ExitCode {
+fn nothing_screened(
+    report: &seistriage::results::Screening,
+    inventory: &std::path::Path,
+) -> ExitCode {
     const SHOWN: usize = 20;
     for n in report.not_screened.iter().take(SHOWN) {
         eprintln!(

@@ -209,7 +209,7 @@ pub fn district_polygons() -> Vec<Polygon<f64>> {
 
 /// Kinds of invented building.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Kind {
+pub enum BuildingType {
     /// Apartment block.
     Apartments,
     /// School.
@@ -229,12 +229,12 @@ pub fn invent_building(
     dice: &mut Dice,
     id: String,
     name: String,
-    kind: Kind,
+    kind: BuildingType,
     year: i32,
     site: (f64, f64),
 ) -> BuildingRecord {
     let (storeys, plan_area, aspect, use_) = match kind {
-        Kind::Apartments => {
+        BuildingType::Apartments => {
             let n = match year {
                 ..1970 => dice.int(3, 5),
                 1970..1990 => dice.int(4, 7),
@@ -248,25 +248,25 @@ pub fn invent_building(
                 Use::Residential,
             )
         }
-        Kind::School => (
+        BuildingType::School => (
             dice.int(2, 4),
             dice.range(650.0, 1450.0),
             dice.range(2.8, 4.5),
             Use::School,
         ),
-        Kind::Health => (
+        BuildingType::Health => (
             3,
             dice.range(900.0, 1300.0),
             dice.range(2.0, 3.0),
             Use::Hospital,
         ),
-        Kind::Office => (
+        BuildingType::Office => (
             dice.int(4, 8),
             dice.range(400.0, 800.0),
             dice.range(1.2, 2.0),
             Use::Office,
         ),
-        Kind::Hall => (
+        BuildingType::Hall => (
             2,
             dice.range(350.0, 600.0),
             dice.range(1.3, 1.8),
@@ -293,7 +293,7 @@ pub fn invent_building(
         _ => YesNo::Unknown,
     };
     let short_columns = match (kind, year) {
-        (Kind::School, ..1990) if dice.chance(0.5) => YesNo::Yes,
+        (BuildingType::School, ..1990) if dice.chance(0.5) => YesNo::Yes,
         _ if dice.chance(0.15) => YesNo::Unknown,
         _ => YesNo::No,
     };
@@ -304,11 +304,11 @@ pub fn invent_building(
         _ => (dice.range(24.0, 32.0), 420.0),
     };
     let occupants = match kind {
-        Kind::Apartments => (n * dice.range(8.0, 14.0)).round(),
-        Kind::School => dice.range(220.0, 900.0).round(),
-        Kind::Health => dice.range(120.0, 260.0).round(),
-        Kind::Office => (plan_area * n / dice.range(12.0, 20.0)).round(),
-        Kind::Hall => dice.range(80.0, 300.0).round(),
+        BuildingType::Apartments => (n * dice.range(8.0, 14.0)).round(),
+        BuildingType::School => dice.range(220.0, 900.0).round(),
+        BuildingType::Health => dice.range(120.0, 260.0).round(),
+        BuildingType::Office => (plan_area * n / dice.range(12.0, 20.0)).round(),
+        BuildingType::Hall => dice.range(80.0, 300.0).round(),
     };
     BuildingRecord {
         row: 0,
@@ -512,16 +512,16 @@ pub fn invent_storeys(dice: &mut Dice, b: &BuildingRecord, soft: bool) -> Vec<St
 }
 
 /// Building names for the demo: invented, by kind and a running number.
-pub fn invented_name(kind: Kind, district: &str, k: usize) -> String {
+pub fn invented_name(kind: BuildingType, district: &str, k: usize) -> String {
     match kind {
-        Kind::Apartments => format!("{district} apartment block {k}"),
-        Kind::School => {
+        BuildingType::Apartments => format!("{district} apartment block {k}"),
+        BuildingType::School => {
             let level = ["Primary", "Secondary", "Vocational"];
             let l = level.get(k % level.len()).copied().unwrap_or("Primary");
             format!("{district} {l} School No. {k}")
         }
-        Kind::Health => format!("{district} Health Centre"),
-        Kind::Office => format!("Karsavel municipal offices, annex {k}"),
-        Kind::Hall => format!("{district} community hall"),
+        BuildingType::Health => format!("{district} Health Centre"),
+        BuildingType::Office => format!("Karsavel municipal offices, annex {k}"),
+        BuildingType::Hall => format!("{district} community hall"),
     }
 }

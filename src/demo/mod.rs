@@ -25,7 +25,7 @@ use std::path::{Path, PathBuf};
 use rust_xlsxwriter::{DocProperties, ExcelDateTime, Format, Workbook, Worksheet};
 
 use crate::model::{BuildingRecord, FootprintVertex, StoreyRecord, WallRecord, YesNo};
-use invent::{DISTRICTS, Dice, FAULTS, Kind, Layout};
+use invent::{BuildingType, DISTRICTS, Dice, FAULTS, Layout};
 
 /// Failures while writing demo files.
 #[derive(Debug, thiserror::Error)]
@@ -293,7 +293,7 @@ fn footprint_cells(v: &FootprintVertex) -> Vec<Cell> {
 
 /// One sheet of invented data: name, header and rows (an empty row is a blank row).
 #[derive(Debug, Clone, PartialEq)]
-pub struct Table {
+pub struct InventedSheet {
     /// Sheet name.
     pub sheet: &'static str,
     /// Header (canonical column names).
@@ -319,7 +319,7 @@ enum Role {
 }
 
 /// The demo town's buildings: kind, year and role (before the deterministic shuffle).
-fn demo_plan() -> Vec<(Kind, i32, Role)> {
+fn demo_plan() -> Vec<(BuildingType, i32, Role)> {
     let mut plan = Vec::new();
     let school_years = [
         1962, 1968, 1971, 1975, 1979, 1983, 1988, 1993, 1997, 2001, 2005, 2009, 2013, 2016,
@@ -331,7 +331,7 @@ fn demo_plan() -> Vec<(Kind, i32, Role)> {
             2009 => Role::Walls(Layout::Balanced, false),
             _ => Role::Plain,
         };
-        plan.push((Kind::School, y, role));
+        plan.push((BuildingType::School, y, role));
     }
     for k in 0..46_i32 {
         let year = 1960 + k * 59 / 45;
@@ -353,12 +353,12 @@ fn demo_plan() -> Vec<(Kind, i32, Role)> {
             40 => Role::AnalysedPeriod,
             _ => Role::Plain,
         };
-        plan.push((Kind::Apartments, year, role));
+        plan.push((BuildingType::Apartments, year, role));
     }
-    plan.push((Kind::Health, 1985, Role::Plain));
-    plan.push((Kind::Office, 1978, Role::Plain));
-    plan.push((Kind::Office, 2004, Role::Plain));
-    plan.push((Kind::Hall, 1966, Role::Plain));
+    plan.push((BuildingType::Health, 1985, Role::Plain));
+    plan.push((BuildingType::Office, 1978, Role::Plain));
+    plan.push((BuildingType::Office, 2004, Role::Plain));
+    plan.push((BuildingType::Hall, 1966, Role::Plain));
     plan
 }
 
@@ -366,7 +366,7 @@ fn demo_plan() -> Vec<(Kind, i32, Role)> {
 const BLANK_AFTER: usize = 30;
 
 /// The demo inventory's four sheets, as cells.
-pub fn demo_tables() -> [Table; 4] {
+pub fn demo_tables() -> [InventedSheet; 4] {
     let mut dice = Dice::new(DEMO_SEED);
     let polygons = invent::district_polygons();
     let mut plan = demo_plan();
@@ -386,11 +386,11 @@ pub fn demo_tables() -> [Table; 4] {
         let (d, lat, lon) = invent::invented_site(&mut dice, &polygons);
         let district = DISTRICTS.get(d).map_or("Karsavel", |x| x.name);
         let slot = match kind {
-            Kind::Apartments => 0,
-            Kind::School => 1,
-            Kind::Health => 2,
-            Kind::Office => 3,
-            Kind::Hall => 4,
+            BuildingType::Apartments => 0,
+            BuildingType::School => 1,
+            BuildingType::Health => 2,
+            BuildingType::Office => 3,
+            BuildingType::Hall => 4,
         };
         if let Some(c) = counters.get_mut(slot) {
             *c += 1;
@@ -460,22 +460,22 @@ pub fn demo_tables() -> [Table; 4] {
         buildings.insert(BLANK_AFTER, Vec::new());
     }
     [
-        Table {
+        InventedSheet {
             sheet: "buildings",
             columns: &BUILDING_COLUMNS,
             rows: buildings,
         },
-        Table {
+        InventedSheet {
             sheet: "walls",
             columns: &WALL_COLUMNS,
             rows: walls.iter().map(wall_cells).collect(),
         },
-        Table {
+        InventedSheet {
             sheet: "storeys",
             columns: &STOREY_COLUMNS,
             rows: storeys.iter().map(storey_cells).collect(),
         },
-        Table {
+        InventedSheet {
             sheet: "footprints",
             columns: &FOOTPRINT_COLUMNS,
             rows: footprints.iter().map(footprint_cells).collect(),
@@ -505,7 +505,11 @@ fn write_cell(ws: &mut Worksheet, row: u32, col: u16, cell: &Cell) -> Result<(),
     Ok(())
 }
 
-fn write_table(ws: &mut Worksheet, table: &Table, header: &Format) -> Result<(), DemoError> {
+fn write_table(
+    ws: &mut Worksheet,
+    table: &InventedSheet,
+    header: &Format,
+) -> Result<(), DemoError> {
     ws.set_name(table.sheet)?;
     for (c, name) in table.columns.iter().enumerate() {
         let c = u16::try_from(c).unwrap_or(u16::MAX);
@@ -550,7 +554,7 @@ const SETTINGS_COLUMNS: [&str; 2] = ["key", "value"];
 /// The demo's `eras` and `settings` sheets, from the bundled settings file
 /// (`inventories/demo-settings.toml`: its `[[era]]` rows and its scalar keys), so that
 /// `seistriage screen inventories/demo.xlsx` needs no option to screen the demo.
-pub fn demo_settings_tables() -> Result<(Table, Table), DemoError> {
+pub fn demo_settings_tables() -> Result<(InventedSheet, InventedSheet), DemoError> {
     let text = String::from_utf8_lossy(BUNDLED_SETTINGS);
     let table: toml::Table = toml::from_str(&text)
         .map_err(|e| DemoError::Io(std::io::Error::other(format!("demo settings: {e}"))))?;
@@ -573,12 +577,12 @@ pub fn demo_settings_tables() -> Result<(Table, Table), DemoError> {
         }
     }
     Ok((
-        Table {
+        InventedSheet {
             sheet: "eras",
             columns: &ERA_COLUMNS,
             rows: eras,
         },
-        Table {
+        InventedSheet {
             sheet: "settings",
             columns: &SETTINGS_COLUMNS,
             rows: settings,
@@ -655,17 +659,17 @@ fn generated_building(dice: &mut Dice, polygons: &[geo::Polygon<f64>], i: usize)
     let (d, lat, lon) = invent::invented_site(dice, polygons);
     let district = DISTRICTS.get(d).map_or("Karsavel", |x| x.name);
     let kind = match dice.int(0, 99) {
-        0..=17 => Kind::School,
-        18..=19 => Kind::Office,
-        20 => Kind::Health,
-        21 => Kind::Hall,
-        _ => Kind::Apartments,
+        0..=17 => BuildingType::School,
+        18..=19 => BuildingType::Office,
+        20 => BuildingType::Health,
+        21 => BuildingType::Hall,
+        _ => BuildingType::Apartments,
     };
     let year = i32::try_from(dice.int(1955, 2020)).unwrap_or(1980);
     let id = format!("G{:07}", i + 1);
     let name = invent::invented_name(kind, district, i + 1);
     let mut b = invent::invent_building(dice, id, name, kind, year, (lat, lon));
-    if kind == Kind::Apartments && dice.chance(0.1) {
+    if kind == BuildingType::Apartments && dice.chance(0.1) {
         invent::make_soft_ground_storey(dice, &mut b);
     }
     b

@@ -227,7 +227,7 @@ fn min_levels<'a>(it: impl Iterator<Item = &'a Levels>) -> Option<Levels> {
 /// shape, shear spans, column capacity, column strength). Retrofit sizing prepares a
 /// building once and re-runs only [`direction`] for each trial wall area.
 #[derive(Debug, Clone)]
-pub struct Prepared<'a> {
+pub struct PreparedBuilding<'a> {
     /// The building's input.
     pub input: &'a BuildingInput<'a>,
     /// Resolved inputs (§0).
@@ -285,7 +285,7 @@ pub struct DemandChain {
 }
 
 /// Method §5–§6 for a prepared building with strength coefficient `cy` and period `t` (s).
-pub fn demand_chain(p: &Prepared<'_>, cy: f64, t: f64) -> DemandChain {
+pub fn demand_chain(p: &PreparedBuilding<'_>, cy: f64, t: f64) -> DemandChain {
     let res = &p.res;
     let se = p.spec.se_g(t);
     let sde = spectrum::sde_m(se, t);
@@ -349,7 +349,7 @@ pub fn frame_kappa(soft_or_weak_surveyed: bool, s: &Settings) -> f64 {
 /// C_c, the frame period ([`frame_period_s`]), κ ([`frame_kappa`]), the building's own
 /// column capacities; DCR_frame,L = κ·δ_r,frame/θ_c,L at LS and CP. `None` without columns.
 fn frame_alone_bound(
-    p: &Prepared<'_>,
+    p: &PreparedBuilding<'_>,
     s: &Settings,
     d: Dir,
     soft_or_weak_surveyed: bool,
@@ -388,11 +388,11 @@ fn frame_alone_bound(
     })
 }
 
-/// Resolves a building and computes its building-wide terms (see [`Prepared`]).
+/// Resolves a building and computes its building-wide terms (see [`PreparedBuilding`]).
 pub fn prepare<'a>(
     input: &'a BuildingInput<'a>,
     s: &Settings,
-) -> Result<Prepared<'a>, Vec<String>> {
+) -> Result<PreparedBuilding<'a>, Vec<String>> {
     let res = resolve::resolve(input, s)?;
     let nu = res.walls.first().map_or_else(
         || {
@@ -429,7 +429,7 @@ pub fn prepare<'a>(
         x: flags::storey_state(&res, Dir::X, beta, beta_new, 0.0, s),
         y: flags::storey_state(&res, Dir::Y, beta, beta_new, 0.0, s),
     };
-    let mut p = Prepared {
+    let mut p = PreparedBuilding {
         input,
         res,
         nu,
@@ -458,7 +458,7 @@ pub fn prepare<'a>(
 /// soft/weak storey state after the new walls. A direction depends on its own new walls
 /// only, so re-screening with walls in one direction changes that direction alone.
 pub fn direction(
-    p: &Prepared<'_>,
+    p: &PreparedBuilding<'_>,
     s: &Settings,
     d: Dir,
     added: f64,
@@ -612,7 +612,7 @@ pub fn screen(
     new: &NewWalls,
 ) -> Result<BuildingResult, Vec<String>> {
     let p = prepare(input, s)?;
-    let Prepared {
+    let PreparedBuilding {
         res,
         nu,
         beta,

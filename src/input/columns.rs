@@ -5,7 +5,7 @@ kind of value and extra aliases. The reader, the template and `--help` all read 
 
 /// What kind of value a column holds (decides how a cell is read).
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Kind {
+pub enum ValueKind {
     /// An identifier kept as text exactly ("0100" stays "0100"; a numeric cell 100.0 → "100").
     Id,
     /// Free text.
@@ -39,8 +39,8 @@ pub struct Column {
     pub default: &'static str,
     /// Required column.
     pub required: bool,
-    /// Kind of value.
-    pub kind: Kind,
+    /// ValueKind of value.
+    pub kind: ValueKind,
     /// Extra accepted names (matched with the same normalisation rule).
     pub aliases: &'static [&'static str],
 }
@@ -76,7 +76,7 @@ impl SheetSpec {
 const fn col(
     name: &'static str,
     unit: &'static str,
-    kind: Kind,
+    kind: ValueKind,
     required: bool,
     default: &'static str,
     meaning: &'static str,
@@ -97,7 +97,7 @@ const fn alias(mut c: Column, aliases: &'static [&'static str]) -> Column {
     c
 }
 
-use Kind::*;
+use ValueKind::*;
 
 /// Sheet `buildings` (required): one row per building.
 pub const BUILDINGS: SheetSpec = SheetSpec {

@@ -75,7 +75,7 @@ pub fn read_csv(
     path: &Path,
     budget: &Budget,
     counter: &mut CellCounter,
-    sink: &mut super::xlsx::Sink<'_>,
+    sink: &mut super::spreadsheet::RowSink<'_>,
 ) -> Result<CsvInfo, InputError> {
     let mut truncated = Vec::new();
     scan_records(path, budget, &mut |person_row, record, info| {

@@ -19,9 +19,9 @@ pub mod guard;
 pub mod header;
 pub mod parse;
 pub mod raw;
+pub mod spreadsheet;
 pub mod validate;
 pub mod xls_scan;
-pub mod xlsx;
 
 use std::cell::RefCell;
 use std::path::Path;
@@ -31,8 +31,8 @@ use columns::{BUILDINGS, ERAS, FOOTPRINTS, SETTINGS, STOREYS, SheetSpec, WALLS};
 pub use parse::Limits;
 pub use raw::Budget;
 use raw::{CellCounter, DataRow, RawRow, SheetReader, column_letters};
+use spreadsheet::{Workbook, WorkbookKind};
 use validate::Collected;
-use xlsx::{Workbook, WorkbookKind};
 
 /// Options of the reading layer.
 #[derive(Debug, Clone, Default)]
@@ -255,17 +255,17 @@ pub fn read_inventory_settled(
         .extension()
         .map(|e| e.to_string_lossy().to_ascii_lowercase())
         .unwrap_or_default();
-    let head = xlsx::sniff(path).map_err(|e| unreadable(&p, e))?;
+    let head = spreadsheet::sniff(path).map_err(|e| unreadable(&p, e))?;
     let kind = match head {
         Some(h) if h.starts_with(&ZIP_MAGIC) => {
             let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
             let kind = guarded_read(&p, || {
-                xlsx::check_zip(std::io::BufReader::new(f), &p, &opts.budget)
+                spreadsheet::check_zip(std::io::BufReader::new(f), &p, &opts.budget)
             })?;
             if kind == WorkbookKind::Ods {
                 let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
                 guarded_read(&p, || {
-                    xlsx::check_ods_extent(std::io::BufReader::new(f), &p, &opts.budget)
+                    spreadsheet::check_ods_extent(std::io::BufReader::new(f), &p, &opts.budget)
                 })?;
             }
             Some(kind)
@@ -418,7 +418,7 @@ fn read_workbook(
     };
     if kind == WorkbookKind::Xlsx {
         let f = std::fs::File::open(path).map_err(|e| unreadable(&p, e))?;
-        wb.set_recalc(xlsx::asks_recalc(std::io::BufReader::new(f)));
+        wb.set_recalc(spreadsheet::asks_recalc(std::io::BufReader::new(f)));
     }
     let names = wb.sheet_names();
     let find = |spec: &SheetSpec| {

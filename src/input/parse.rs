@@ -6,7 +6,7 @@ defaults of the method are applied: a blank optional cell stays `None`.
 
 use super::columns::{BUILDINGS, ERAS, FOOTPRINTS, STOREYS, SheetSpec, WALLS};
 use super::raw::{DataRow, RawCell, format_number};
-use super::xlsx::year_of_serial;
+use super::spreadsheet::year_of_serial;
 use crate::model::{
     BuildingRecord, Dir, FootprintVertex, GroundType, Problem, Severity, StoreyRecord, Use,
     WallRecord, YesNo,

@@ -13,7 +13,7 @@ use std::path::Path;
 use serde::Deserialize;
 
 use super::ReportError;
-use crate::results::Report;
+use crate::results::Screening;
 
 #[derive(Debug, Deserialize)]
 struct OldDoc {
@@ -209,7 +209,7 @@ fn yes_no(b: Option<bool>) -> &'static str {
 }
 
 /// Compares this run with a previous one.
-pub fn compare(previous: Previous, report: &Report) -> Changes {
+pub fn compare(previous: Previous, report: &Screening) -> Changes {
     // Validated as not negative; a fraction of a place rounds down.
     let threshold = report.settings.changes_rank_threshold.max(0.0).floor() as usize;
     let old: HashMap<&str, &PreviousBuilding> = previous

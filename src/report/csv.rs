@@ -15,8 +15,8 @@ use rayon::prelude::*;
 
 use super::ReportError;
 use super::atomic::write_atomic;
-use super::workbook::tables::{Cell, Table, Target};
-use crate::results::{BuildingResult, Report};
+use super::workbook::tables::{Cell, TableId, Target};
+use crate::results::{BuildingResult, Screening};
 
 /// The formula-injection guard: prefixes `'` to text that a spreadsheet would run as a
 /// formula (leading `=`, `+`, `-`, `@`, tab or carriage return).
@@ -66,20 +66,20 @@ pub fn sample_cells(b: &BuildingResult) -> [Cell<'static>; 3] {
 
 /// The Priority table with the columns of [`SAMPLE_COLUMNS`] appended (a run with samples).
 fn write_priority_with_samples<W: Write>(
-    report: &Report,
+    report: &Screening,
     limit: usize,
     out: W,
 ) -> Result<(), ReportError> {
     let mut w = ::csv::Writer::from_writer(out);
     w.write_record(
-        Table::Priority
+        TableId::Priority
             .columns()
             .iter()
             .map(|c| c.key)
             .chain(SAMPLE_COLUMNS),
     )?;
     let mut num = String::new();
-    let mut buf = Vec::with_capacity(Table::Priority.columns().len() + SAMPLE_COLUMNS.len());
+    let mut buf = Vec::with_capacity(TableId::Priority.columns().len() + SAMPLE_COLUMNS.len());
     for b in report.buildings.iter().take(limit) {
         super::workbook::tables::priority_row(b, Target::Csv, &mut buf);
         buf.extend(sample_cells(b));
@@ -91,12 +91,12 @@ fn write_priority_with_samples<W: Write>(
 
 /// Writes one table as CSV (header = the columns' machine names) to a writer.
 pub fn write_table<W: Write>(
-    report: &Report,
-    table: Table,
+    report: &Screening,
+    table: TableId,
     limit: usize,
     out: W,
 ) -> Result<(), ReportError> {
-    if table == Table::Priority && report.uncertainty.is_some() {
+    if table == TableId::Priority && report.uncertainty.is_some() {
         return write_priority_with_samples(report, limit, out);
     }
     let mut out = out;
@@ -110,7 +110,7 @@ pub fn write_table<W: Write>(
 }
 
 /// Writes the header record of a table (the columns' machine names).
-pub fn write_header<W: Write>(table: Table, w: &mut ::csv::Writer<W>) -> Result<(), ReportError> {
+pub fn write_header<W: Write>(table: TableId, w: &mut ::csv::Writer<W>) -> Result<(), ReportError> {
     w.write_record(table.columns().iter().map(|c| c.key))?;
     Ok(())
 }
@@ -120,8 +120,8 @@ pub fn write_header<W: Write>(table: Table, w: &mut ::csv::Writer<W>) -> Result<
 /// stock writes Directions, Walls and Flags in file order, chunk by chunk, before the ranks
 /// are known.
 pub fn write_rows<W: Write>(
-    report: &Report,
-    table: Table,
+    report: &Screening,
+    table: TableId,
     limit: usize,
     blank_rank: bool,
     out: &mut W,
@@ -150,7 +150,7 @@ const TASKS_PER_THREAD: usize = 4;
 /// numbers and text is most of the cost of a large stock's CSV files.
 pub fn write_building_rows<W: Write>(
     buildings: &[BuildingResult],
-    table: Table,
+    table: TableId,
     blank_rank: bool,
     out: &mut W,
 ) -> Result<(), ReportError> {
@@ -203,13 +203,17 @@ pub fn write_cells<W: Write>(
 }
 
 /// Writes one table as a CSV file, through a temporary file renamed when complete.
-pub fn write_table_file(report: &Report, table: Table, path: &Path) -> Result<(), ReportError> {
+pub fn write_table_file(
+    report: &Screening,
+    table: TableId,
+    path: &Path,
+) -> Result<(), ReportError> {
     write_atomic(path, |w| write_table(report, table, usize::MAX, w))
 }
 
 /// Writes the Priority table as CSV (`--csv FILE`).
-pub fn write_priority(report: &Report, path: &Path) -> Result<(), ReportError> {
-    write_table_file(report, Table::Priority, path)
+pub fn write_priority(report: &Screening, path: &Path) -> Result<(), ReportError> {
+    write_table_file(report, TableId::Priority, path)
 }
 
 #[cfg(test)]

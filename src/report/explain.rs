@@ -1,7 +1,7 @@
 /*!
 `explain`: every step of the method for one building, as text an engineer can redo by hand.
 
-The numbers are those of the command's own screening run (the ranked [`Report`] it computed
+The numbers are those of the command's own screening run (the ranked [`Screening`] it computed
 once, with `crate::pipeline::screen`, passed in; this module runs no pipeline): the building
 is looked up in it, so class, rank and every intermediate number are exactly what `screen`
 writes. The inputs are listed from the engine's own resolution, each default marked.
@@ -12,7 +12,7 @@ use std::fmt::Write as _;
 use crate::engine::{self, resolve};
 use crate::model::Dir;
 use crate::pipeline::Loaded;
-use crate::results::{BuildingResult, Levels, Report};
+use crate::results::{BuildingResult, Levels, Screening};
 
 /// How `explain` prints its numbers (`interface.md`): 4 significant digits for people by
 /// default, full precision (shortest round-trip text, for hand checks) with `--full`.
@@ -44,14 +44,14 @@ fn list(v: &[f64], p: Precision) -> String {
 
 /// The explanation of one building of `loaded` as `report` (the screening of `loaded`) found
 /// it, at 4 significant digits, or `None` when the id is not in the inventory.
-pub fn explain(loaded: &Loaded, report: &Report, id: &str) -> Option<String> {
+pub fn explain(loaded: &Loaded, report: &Screening, id: &str) -> Option<String> {
     explain_with(loaded, report, id, Precision::People)
 }
 
 /// [`explain`] at a chosen precision (`explain --full`: [`Precision::Full`]).
 pub fn explain_with(
     loaded: &Loaded,
-    report: &Report,
+    report: &Screening,
     id: &str,
     precision: Precision,
 ) -> Option<String> {

@@ -14,7 +14,7 @@ use geojson::{Feature, FeatureWriter, Geometry, JsonObject, JsonValue};
 use super::ReportError;
 use super::atomic::write_atomic;
 use super::workbook::tables::{Cell, PRIORITY, Target, priority_row};
-use crate::results::{BuildingResult, Report};
+use crate::results::{BuildingResult, Screening};
 
 /// Properties that are whole numbers in the JSON (written without a decimal point).
 const WHOLE: &[&str] = &["rank", "class", "occupants", "rank_p05", "rank_p95"];
@@ -68,7 +68,7 @@ pub fn feature(b: &BuildingResult) -> Option<Feature> {
 }
 
 /// Writes the buildings with coordinates as GeoJSON points.
-pub fn write(report: &Report, path: &Path) -> Result<(), ReportError> {
+pub fn write(report: &Screening, path: &Path) -> Result<(), ReportError> {
     write_buildings(&report.buildings, path)
 }
 

@@ -21,7 +21,7 @@ use std::path::Path;
 
 use super::ReportError;
 use super::atomic::{TempFile, write_atomic};
-use crate::results::{BuildingResult, Report};
+use crate::results::{BuildingResult, Screening};
 
 /// From this many buildings (exclusive) the JSON is written compact.
 pub const COMPACT_FROM: usize = 100_000;
@@ -32,7 +32,7 @@ pub fn is_compact(buildings: usize) -> bool {
 }
 
 /// Writes the report as JSON (full precision; never NaN: non-finite numbers become null).
-pub fn write(report: &Report, path: &Path) -> Result<(), ReportError> {
+pub fn write(report: &Screening, path: &Path) -> Result<(), ReportError> {
     let compact = is_compact(report.buildings.len());
     write_atomic(path, |w| {
         if compact {
@@ -228,7 +228,7 @@ impl Spill {
     /// same bytes as [`write`] of the whole report.
     pub fn write_document<I>(
         mut self,
-        head: &Report,
+        head: &Screening,
         order: I,
         compact: bool,
         path: &Path,

@@ -13,7 +13,7 @@ use std::time::Duration;
 use indicatif::{ProgressBar, ProgressDrawTarget, ProgressStyle};
 
 use super::workbook::tables::class_name;
-use crate::results::{Group, Report};
+use crate::results::{Group, Screening};
 
 /// Inventory text made safe for a terminal: control characters (escape sequences included)
 /// are shown as `?`, and long text is cut to `max` characters with `…`.
@@ -31,7 +31,7 @@ pub fn clean(text: &str, max: usize) -> String {
 }
 
 /// The summary text: counts per class, the top ten, not-screened count, outputs, caution.
-pub fn summary(report: &Report, written: &[(String, PathBuf)]) -> String {
+pub fn summary(report: &Screening, written: &[(String, PathBuf)]) -> String {
     let c = &report.counts;
     let mut s = String::new();
     let _ = writeln!(
@@ -150,11 +150,11 @@ pub fn uncertainty_lines(u: &crate::results::StockUncertainty) -> String {
 
 /// A progress indicator on stderr; draws nothing when stderr is not a terminal or when quiet.
 #[derive(Debug)]
-pub struct Progress {
+pub struct ProgressLine {
     bar: ProgressBar,
 }
 
-impl Progress {
+impl ProgressLine {
     /// A spinner with a message (for phases without a known length).
     pub fn spinner(quiet: bool, message: &str) -> Self {
         let bar = if quiet || !std::io::stderr().is_terminal() {
@@ -166,7 +166,7 @@ impl Progress {
             b
         };
         bar.set_message(message.to_string());
-        Progress { bar }
+        ProgressLine { bar }
     }
 
     /// Switches to a bar of `total` rows with a message, showing rows per second.

@@ -52,14 +52,14 @@ pub fn size_all(results: &mut [BuildingResult], inputs: &[BuildingInput<'_>], se
 /// with both directions' walls takes the storey codes from the directions' storey states
 /// ([`engine::flags::storey_codes`]) instead of raising every flag (tested against the full
 /// re-screening's flags).
-pub struct Prepared<'a> {
+pub struct Rescreener<'a> {
     /// The prepared building.
-    pub prepared: engine::building::Prepared<'a>,
+    pub prepared: engine::building::PreparedBuilding<'a>,
     /// Settings.
     pub settings: &'a Settings,
 }
 
-impl sizing::Rescreen for Prepared<'_> {
+impl sizing::Rescreen for Rescreener<'_> {
     fn screen(&self, new: &NewWalls) -> Result<BuildingResult, Vec<String>> {
         engine::screen_building_with(self.prepared.input, self.settings, new)
     }
@@ -93,7 +93,7 @@ fn size_one(
 ) -> Option<crate::results::Retrofit> {
     let prepared = input.and_then(|i| engine::building::prepare(i, settings).ok());
     let mut rf = match prepared {
-        Some(prepared) => sizing::size_building(r, settings, Prepared { prepared, settings }),
+        Some(prepared) => sizing::size_building(r, settings, Rescreener { prepared, settings }),
         None => sizing::size_building(r, settings, |new: &NewWalls| match input {
             Some(i) => engine::screen_building_with(i, settings, new),
             None => Err(vec![format!("no input found for building {}", r.id)]),

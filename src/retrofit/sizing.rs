@@ -108,7 +108,7 @@ pub fn needs_retrofit(base: &BuildingResult, settings: &Settings) -> bool {
 /// How sizing re-screens a building with new walls: the whole building (for `flags_after`),
 /// and the DCR_LS of one direction with new walls in it alone (each bisection step). A
 /// closure `Fn(&NewWalls) -> Result<BuildingResult, _>` is one, re-screening the whole
-/// building for both; the engine's own ([`super::Prepared`]) re-runs only the direction.
+/// building for both; the engine's own ([`super::Rescreener`]) re-runs only the direction.
 pub trait Rescreen {
     /// The building re-screened with `new` walls (or why it could not be).
     fn screen(&self, new: &NewWalls) -> Result<BuildingResult, Vec<String>>;

@@ -14,7 +14,7 @@ reproduces the deterministic DCRs, class and score bit for bit (tested), so that
 and the sampler cannot drift apart unnoticed.
 */
 
-use crate::engine::building::{self, DemandSpectrum, Prepared};
+use crate::engine::building::{self, DemandSpectrum, PreparedBuilding};
 use crate::engine::resolve::{Hazard, StoreyAreas, WallSpec};
 use crate::engine::{BuildingInput, capacity, dcr, demand, flags, n2, rank, strength};
 use crate::engine::{indices, resolve};
@@ -137,7 +137,7 @@ impl Evaluator {
     }
 
     /// From the engine's preparation of the building.
-    pub fn from_prepared(p: &Prepared<'_>, s: &Settings) -> Self {
+    pub fn from_prepared(p: &PreparedBuilding<'_>, s: &Settings) -> Self {
         let res = &p.res;
         let dir = |d: Dir| {
             let (r, _, _) = building::direction(p, s, d, 0.0);

@@ -201,9 +201,9 @@ fn terminal_summary_does_not_pass_escape_sequences_through() {
 
 #[test]
 fn every_table_row_has_one_cell_per_column() {
-    use seistriage::report::workbook::tables::Table;
+    use seistriage::report::workbook::tables::TableId;
     let report = sample::report(24);
-    for t in Table::ALL {
+    for t in TableId::ALL {
         let mut buf = Vec::new();
         report::csv::write_table(&report, t, usize::MAX, &mut buf).unwrap();
         let mut r = csv::Reader::from_reader(buf.as_slice());
@@ -224,13 +224,13 @@ fn every_table_row_has_one_cell_per_column() {
 /// buildings for several runs and several batches).
 #[test]
 fn per_building_csv_rows_in_parallel_equal_the_sequential_rows() {
-    use seistriage::report::workbook::tables::{Table, Target};
+    use seistriage::report::workbook::tables::{TableId, Target};
     let report = sample::report(9_000);
     for table in [
-        Table::Priority,
-        Table::Directions,
-        Table::Walls,
-        Table::Flags,
+        TableId::Priority,
+        TableId::Directions,
+        TableId::Walls,
+        TableId::Flags,
     ] {
         let mut sequential = Vec::new();
         {

@@ -6,7 +6,7 @@ use seistriage::model::{Dir, FaultDistance, NotScreened, PerDir, Problem, Severi
 use seistriage::results::{
     BudgetPlan, BuildingDetail, BuildingResult, Counts, DefaultValue, DirectionDetail,
     DirectionResult, Excluded, Flag, FlagCode, FlagDetail, FundingPlan, Governing, Group, Groups,
-    InputInfo, Levels, Report, Retrofit, SoftStorey, SpectrumShape, StoreyData, WallResult,
+    InputInfo, Levels, Retrofit, Screening, SoftStorey, SpectrumShape, StoreyData, WallResult,
 };
 use seistriage::settings::{GroundType, Level, Settings};
 
@@ -237,7 +237,7 @@ pub fn building(i: usize, class: u8) -> BuildingResult {
 }
 
 /// A report of `n` buildings spread over the four classes in rank order.
-pub fn report(n: usize) -> Report {
+pub fn report(n: usize) -> Screening {
     let buildings: Vec<BuildingResult> = (0..n)
         .map(|i| {
             let class = match i * 4 / n.max(1) {
@@ -284,7 +284,7 @@ pub fn report(n: usize) -> Report {
         severity: Severity::Warning,
     }];
     let counts = Counts::tally(n + 2, 1, not_screened.len(), &buildings);
-    Report {
+    Screening {
         tool: "seistriage",
         version: env!("CARGO_PKG_VERSION"),
         input: InputInfo {

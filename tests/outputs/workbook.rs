@@ -5,7 +5,7 @@ use std::path::Path;
 
 use calamine::{Data, Range, Reader, Xlsx, open_workbook};
 use seistriage::report::workbook::{
-    self, CELL_TEXT_LIMIT, LARGE_PRIORITY_ROWS, Layout, tables::Table,
+    self, CELL_TEXT_LIMIT, LARGE_PRIORITY_ROWS, Layout, tables::TableId,
 };
 use seistriage::settings::KEYS;
 
@@ -69,7 +69,7 @@ pub fn package(path: &Path) -> Vec<(String, String)> {
         .collect()
 }
 
-fn write(report: &seistriage::results::Report) -> (tempfile::TempDir, std::path::PathBuf) {
+fn write(report: &seistriage::results::Screening) -> (tempfile::TempDir, std::path::PathBuf) {
     let dir = tempfile::tempdir().unwrap();
     let out = dir.path().join("results.xlsx");
     let extra = workbook::write(report, &out).unwrap();
@@ -427,7 +427,7 @@ fn large_stock_layout_writes_the_per_row_tables_as_csv_beside_the_workbook() {
     );
     let s = sheet(&out, "Summary");
     assert!(s.cells().any(|(_, _, c)| matches!(c, Data::String(t) if t.contains("Large stock") && t.contains("big.directions.csv"))));
-    let _ = Table::ALL;
+    let _ = TableId::ALL;
 }
 
 #[test]

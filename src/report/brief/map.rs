@@ -21,7 +21,7 @@ use super::html::esc;
 use crate::geography::Geography;
 use crate::report::workbook::style::CLASS_CHART_FILL;
 use crate::report::workbook::tables::class_name;
-use crate::results::Report;
+use crate::results::Screening;
 
 /// Mean Earth radius (km), IUGG.
 const EARTH_RADIUS_KM: f64 = 6_371.008_8;
@@ -255,7 +255,7 @@ fn path_of(f: &Frame, pts: &[(f64, f64)], close: bool) -> String {
 }
 
 /// The map section's SVG, or `None` when no building has coordinates.
-pub fn svg(report: &Report, layers: Option<&MapLayers>) -> Option<String> {
+pub fn svg(report: &Screening, layers: Option<&MapLayers>) -> Option<String> {
     let located: Vec<(&crate::results::BuildingResult, (f64, f64))> = report
         .buildings
         .iter()

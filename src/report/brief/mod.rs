@@ -4,7 +4,7 @@ and SVG, no script, no network) that a mayor's office or a ministry directorate 
 five minutes and print (A4 or Letter; print stylesheet, a page per major section; readable
 in greyscale: every class is told by shape, shade and words).
 
-A sink fed from the same [`Report`] as the other writers, plus the map layers (district
+A sink fed from the same [`Screening`] as the other writers, plus the map layers (district
 polygons and fault traces, when given) and, with `--previous`, the comparison with an
 earlier run. Contents, in the order of issue 16:
 1. the screening caution, the date, the inventory and its checksum (small print);
@@ -37,7 +37,7 @@ use super::atomic::write_atomic;
 use super::changes::{ChangeKind, Changes};
 use super::people::{count, sig4_grouped};
 use super::workbook::tables::{class_name, funding_cost};
-use crate::results::{BuildingResult, Report};
+use crate::results::{BuildingResult, Screening};
 use html::esc;
 pub use map::MapLayers;
 
@@ -56,7 +56,7 @@ pub const CHANGES_LISTED: usize = 30;
 #[derive(Debug, Clone, Copy)]
 pub struct Brief<'a> {
     /// The screening run.
-    pub report: &'a Report,
+    pub report: &'a Screening,
     /// District polygons and fault traces (`None`: none given).
     pub layers: Option<&'a MapLayers>,
     /// Comparison with a previous run (`--previous`).
@@ -68,7 +68,7 @@ pub struct Brief<'a> {
 }
 
 /// Whether `screen` writes a brief by default: the stock has coordinates or a budget plan.
-pub fn wanted_by_default(report: &Report) -> bool {
+pub fn wanted_by_default(report: &Screening) -> bool {
     report.budget_plan.is_some()
         || report
             .buildings
@@ -216,7 +216,7 @@ pub fn render(brief: &Brief<'_>) -> String {
 }
 
 /// The three to five sentences of the summary (HTML, escaped).
-fn sentences(r: &Report) -> Vec<String> {
+fn sentences(r: &Screening) -> Vec<String> {
     let mut out = Vec::new();
     let c = &r.counts;
     let mut first = format!(
@@ -397,7 +397,7 @@ fn yes(b: bool) -> &'static str {
     }
 }
 
-fn plans_section(o: &mut String, r: &Report) {
+fn plans_section(o: &mut String, r: &Screening) {
     o.push_str("<section id=\"plans\" class=\"page\">\n<h2>What the budget buys</h2>\n");
     let Some(p) = &r.budget_plan else {
         let _ = writeln!(o, "<p>{}</p>", esc(&super::workbook::budget_line(r)));
@@ -496,7 +496,7 @@ fn plans_section(o: &mut String, r: &Report) {
 }
 
 /// One sentence on why the two plans differ (HTML, escaped).
-fn why_plans_differ(r: &Report) -> String {
+fn why_plans_differ(r: &Screening) -> String {
     let Some(p) = &r.budget_plan else {
         return String::new();
     };
@@ -540,7 +540,7 @@ fn why_plans_differ(r: &Report) -> String {
     )
 }
 
-fn districts_section(o: &mut String, r: &Report) {
+fn districts_section(o: &mut String, r: &Screening) {
     o.push_str(
         "<section id=\"districts\" class=\"keep\">\n<h2>Per district</h2>\n<table>\
          <thead><tr><th>District</th><th class=\"n\">Buildings</th>",
@@ -639,12 +639,12 @@ pub struct TopColumn {
     /// Share of the table width (%), 0 = automatic.
     pub width: u8,
     /// Whether the column applies to a run (e.g. only with `--samples`).
-    pub shown: fn(&Report) -> bool,
+    pub shown: fn(&Screening) -> bool,
     /// The cell of one building.
-    pub cell: fn(&BuildingResult, &Report) -> String,
+    pub cell: fn(&BuildingResult, &Screening) -> String,
 }
 
-fn plan_cell(b: &BuildingResult, r: &Report, best: bool) -> String {
+fn plan_cell(b: &BuildingResult, r: &Screening, best: bool) -> String {
     if r.budget_plan.is_none() {
         return "no plan".into();
     }
@@ -782,7 +782,7 @@ pub const TOP_COLUMNS: &[TopColumn] = &[
     },
 ];
 
-fn top_section(o: &mut String, r: &Report) {
+fn top_section(o: &mut String, r: &Screening) {
     let _ = write!(
         o,
         "<section id=\"top\" class=\"page\">\n<h2>The {} highest priorities</h2>\n<table><thead><tr>",

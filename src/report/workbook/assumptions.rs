@@ -7,7 +7,7 @@ use rust_xlsxwriter::Worksheet;
 
 use super::style::Styles;
 use super::{ReportError, cut};
-use crate::results::Report;
+use crate::results::Screening;
 use crate::settings::KEYS;
 
 /// The simplifications of `method.md`, in plain words.
@@ -65,7 +65,7 @@ pub const METHOD_CORRECTIONS: &[&str] = &[
 ];
 
 /// Writes the Assumptions sheet.
-pub fn write(ws: &mut Worksheet, report: &Report, styles: &Styles) -> Result<(), ReportError> {
+pub fn write(ws: &mut Worksheet, report: &Screening, styles: &Styles) -> Result<(), ReportError> {
     ws.set_name("Assumptions")?;
     for (c, w) in [30.0, 18.0, 44.0, 90.0].iter().enumerate() {
         ws.set_column_width(c as u16, *w)?;

@@ -7,10 +7,10 @@ changed — with the values before and now. Two lines above the table say what w
 use rust_xlsxwriter::Worksheet;
 
 use super::style::{self, Print, Styles};
-use super::tables::Kind;
+use super::tables::CellKind;
 use super::{ReportError, cut};
 use crate::report::changes::Changes;
-use crate::results::Report;
+use crate::results::Screening;
 
 /// Column headers and widths.
 const COLUMNS: &[(&str, f64)] = &[
@@ -44,7 +44,7 @@ fn plan_text(v: Option<bool>) -> &'static str {
 /// Writes the Changes sheet.
 pub fn write(
     ws: &mut Worksheet,
-    report: &Report,
+    report: &Screening,
     changes: &Changes,
     styles: &Styles,
 ) -> Result<(), ReportError> {
@@ -106,12 +106,12 @@ pub fn write(
         }
         for (col, v) in [(5u16, c.rank.0), (6, c.rank.1)] {
             if let Some(v) = v {
-                ws.write_number_with_format(r, col, v as f64, styles.kind(Kind::Int))?;
+                ws.write_number_with_format(r, col, v as f64, styles.kind(CellKind::Int))?;
             }
         }
         for (col, v) in [(7u16, c.score.0), (8, c.score.1)] {
             if let Some(v) = v.filter(|v| v.is_finite()) {
-                ws.write_number_with_format(r, col, v, styles.kind(Kind::Dcr))?;
+                ws.write_number_with_format(r, col, v, styles.kind(CellKind::Dcr))?;
             }
         }
         for (col, v) in [

@@ -14,9 +14,9 @@ use rust_xlsxwriter::{
 };
 
 use super::style::{CLASS_CHART_FILL, Styles};
-use super::tables::{Cell, Kind};
+use super::tables::{Cell, CellKind};
 use super::{ReportError, cut, put};
-use crate::results::{BuildingResult, Report};
+use crate::results::{BuildingResult, Screening};
 
 /// Sheet name (interface.md).
 pub const SHEET: &str = "Confidence";
@@ -26,29 +26,34 @@ pub const CHART_BUILDINGS: usize = 30;
 pub const FILE_TAG: &str = "confidence";
 
 /// One column of the table: header (workbook), machine name (CSV), kind, width.
-struct Col(&'static str, &'static str, Kind, f64);
+struct Col(&'static str, &'static str, CellKind, f64);
 
 const COLUMNS: &[Col] = &[
-    Col("Rank", "rank", Kind::Int, 7.0),
-    Col("Id", "id", Kind::Text, 12.0),
-    Col("Name", "name", Kind::Text, 26.0),
-    Col("Occupants", "occupants", Kind::Thousands, 10.0),
-    Col("Class", "class", Kind::Class, 24.0),
-    Col("Score (governing DCR)", "score", Kind::Dcr, 10.0),
-    Col("P(class 1)", "p_class_1", Kind::Ratio, 9.0),
-    Col("P(class 2)", "p_class_2", Kind::Ratio, 9.0),
-    Col("P(class 3)", "p_class_3", Kind::Ratio, 9.0),
-    Col("P(class 4)", "p_class_4", Kind::Ratio, 9.0),
-    Col("P(deficit) (class 1-2)", "p_deficit", Kind::Ratio, 10.0),
-    Col("Score p05", "score_p05", Kind::Dcr, 9.0),
-    Col("Score p50", "score_p50", Kind::Dcr, 9.0),
-    Col("Score p95", "score_p95", Kind::Dcr, 9.0),
-    Col("Rank p05", "rank_p05", Kind::Int, 8.0),
-    Col("Rank p50", "rank_p50", Kind::Int, 8.0),
-    Col("Rank p95", "rank_p95", Kind::Int, 8.0),
-    Col("P(rank <= k)", "p_top_k", Kind::Ratio, 9.0),
-    Col("Survey value (occupants)", "survey_value", Kind::Dec2, 10.0),
-    Col("Defaults used", "defaults_used", Kind::Text, 34.0),
+    Col("Rank", "rank", CellKind::Int, 7.0),
+    Col("Id", "id", CellKind::Text, 12.0),
+    Col("Name", "name", CellKind::Text, 26.0),
+    Col("Occupants", "occupants", CellKind::Thousands, 10.0),
+    Col("Class", "class", CellKind::Class, 24.0),
+    Col("Score (governing DCR)", "score", CellKind::Dcr, 10.0),
+    Col("P(class 1)", "p_class_1", CellKind::Ratio, 9.0),
+    Col("P(class 2)", "p_class_2", CellKind::Ratio, 9.0),
+    Col("P(class 3)", "p_class_3", CellKind::Ratio, 9.0),
+    Col("P(class 4)", "p_class_4", CellKind::Ratio, 9.0),
+    Col("P(deficit) (class 1-2)", "p_deficit", CellKind::Ratio, 10.0),
+    Col("Score p05", "score_p05", CellKind::Dcr, 9.0),
+    Col("Score p50", "score_p50", CellKind::Dcr, 9.0),
+    Col("Score p95", "score_p95", CellKind::Dcr, 9.0),
+    Col("Rank p05", "rank_p05", CellKind::Int, 8.0),
+    Col("Rank p50", "rank_p50", CellKind::Int, 8.0),
+    Col("Rank p95", "rank_p95", CellKind::Int, 8.0),
+    Col("P(rank <= k)", "p_top_k", CellKind::Ratio, 9.0),
+    Col(
+        "Survey value (occupants)",
+        "survey_value",
+        CellKind::Dec2,
+        10.0,
+    ),
+    Col("Defaults used", "defaults_used", CellKind::Text, 34.0),
 ];
 
 fn row(b: &BuildingResult) -> Vec<Cell<'_>> {
@@ -90,7 +95,7 @@ pub fn csv_path(out: &Path) -> PathBuf {
 }
 
 /// Writes every Confidence row as CSV (the large-stock layout).
-pub fn write_csv(report: &Report, path: &Path) -> Result<(), ReportError> {
+pub fn write_csv(report: &Screening, path: &Path) -> Result<(), ReportError> {
     crate::report::atomic::write_atomic(path, |w| {
         let mut cw = ::csv::Writer::from_writer(w);
         cw.write_record(COLUMNS.iter().map(|c| c.1))?;
@@ -106,7 +111,7 @@ pub fn write_csv(report: &Report, path: &Path) -> Result<(), ReportError> {
 /// Fills the Confidence sheet with at most `rows` building rows.
 pub fn write(
     ws: &mut Worksheet,
-    report: &Report,
+    report: &Screening,
     rows: usize,
     styles: &Styles,
 ) -> Result<(), ReportError> {
@@ -228,16 +233,16 @@ pub fn write(
             r,
             c0 + 3,
             u.map_or(0.0, |u| u.survey_value),
-            styles.kind(Kind::Dec2),
+            styles.kind(CellKind::Dec2),
         )?;
         ws.write_number_with_format(
             r,
             c0 + 4,
             u.map_or(0.0, |u| u.p_deficit),
-            styles.kind(Kind::Ratio),
+            styles.kind(CellKind::Ratio),
         )?;
         if let Some(o) = b.occupants {
-            ws.write_number_with_format(r, c0 + 5, o as f64, styles.kind(Kind::Thousands))?;
+            ws.write_number_with_format(r, c0 + 5, o as f64, styles.kind(CellKind::Thousands))?;
         }
         let defaults = if b.defaults_used.is_empty() {
             "none (every key input given)".to_string()

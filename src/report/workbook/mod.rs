@@ -33,9 +33,9 @@ use rust_xlsxwriter::{DocProperties, ExcelDateTime, Workbook, Worksheet};
 use super::ReportError;
 use super::atomic::write_atomic;
 use super::changes::Changes;
-use crate::results::Report;
+use crate::results::Screening;
 use style::{Print, Styles};
-use tables::{Cell, Kind, RowCounts, Table, Target};
+use tables::{Cell, CellKind, RowCounts, TableId, Target};
 
 /// Rows of a worksheet, header included (Excel and LibreOffice limit).
 pub const SHEET_ROWS: usize = 1_048_576;
@@ -74,7 +74,7 @@ pub struct Layout {
     /// Row counts of every table.
     pub counts: RowCounts,
     /// Tables written as CSV files beside the workbook.
-    pub csv: Vec<Table>,
+    pub csv: Vec<TableId>,
     /// Per-row sheets streamed in constant-memory mode.
     pub constant_memory: bool,
     /// Zip64 extensions on: some sheet may pass 4 GiB uncompressed.
@@ -86,7 +86,7 @@ pub struct Layout {
 
 impl Layout {
     /// Decides the layout for a report.
-    pub fn of(report: &Report) -> Self {
+    pub fn of(report: &Screening) -> Self {
         Self::plan(RowCounts::of(report), report.buildings.len())
     }
 
@@ -95,7 +95,7 @@ impl Layout {
     /// limit (the Retrofit plan goes with the per-row tables), and any other table too long
     /// for a sheet to CSV as well.
     pub fn plan(counts: RowCounts, buildings: usize) -> Self {
-        let fits = |t: Table| t.rows(&counts) < SHEET_ROWS;
+        let fits = |t: TableId| t.rows(&counts) < SHEET_ROWS;
         let mut layout = Layout {
             counts,
             csv: Vec::new(),
@@ -103,15 +103,15 @@ impl Layout {
             zip64: false,
             streamed: false,
         };
-        if !fits(Table::Directions) {
+        if !fits(TableId::Directions) {
             layout = layout.large_stock();
         }
-        for t in Table::ALL {
+        for t in TableId::ALL {
             if !fits(t) && !layout.csv.contains(&t) {
                 layout.csv.push(t);
             }
         }
-        layout.zip64 = Table::ALL.iter().any(|t| {
+        layout.zip64 = TableId::ALL.iter().any(|t| {
             let rows = layout.sheet_rows(*t).unwrap_or(0) as f64;
             rows * t.columns().len() as f64 * BYTES_PER_CELL > ZIP64_FROM_BYTES
         });
@@ -120,7 +120,7 @@ impl Layout {
 
     /// The same layout with the large-stock rule applied (per-row tables to CSV).
     pub fn large_stock(mut self) -> Self {
-        for t in Table::ALL.into_iter().filter(|t| t.per_row()) {
+        for t in TableId::ALL.into_iter().filter(|t| t.per_row()) {
             if !self.csv.contains(&t) {
                 self.csv.push(t);
             }
@@ -130,12 +130,12 @@ impl Layout {
 
     /// True when the per-row tables were moved to CSV files (the large-stock rule).
     pub fn large(&self) -> bool {
-        self.csv.contains(&Table::Directions)
+        self.csv.contains(&TableId::Directions)
     }
 
     /// Rows of a table written in the workbook (`None`: the sheet is left out).
-    pub fn sheet_rows(&self, t: Table) -> Option<usize> {
-        if t == Table::Priority && self.large() {
+    pub fn sheet_rows(&self, t: TableId) -> Option<usize> {
+        if t == TableId::Priority && self.large() {
             return Some(self.counts.priority.min(LARGE_PRIORITY_ROWS));
         }
         if self.csv.contains(&t) {
@@ -147,7 +147,7 @@ impl Layout {
 }
 
 /// The path of a table's CSV file beside the workbook: `<out stem>.<sheet>.csv`.
-pub fn csv_path(out: &Path, t: Table) -> PathBuf {
+pub fn csv_path(out: &Path, t: TableId) -> PathBuf {
     let stem = out
         .file_stem()
         .map(|s| s.to_string_lossy().into_owned())
@@ -176,8 +176,8 @@ pub fn cut(text: &str) -> &str {
 /// a format in such a column takes the column's format; this saves rust_xlsxwriter hashing
 /// the whole `Format` on every cell (measured an eighth of the whole run at 100,000
 /// buildings).
-fn column_formatted(kind: Kind) -> bool {
-    !matches!(kind, Kind::Text | Kind::Class)
+fn column_formatted(kind: CellKind) -> bool {
+    !matches!(kind, CellKind::Text | CellKind::Class)
 }
 
 /// Writes one cell; non-finite numbers and blanks leave the cell empty.
@@ -186,7 +186,7 @@ fn put(
     row: u32,
     col: u16,
     cell: &Cell<'_>,
-    kind: Kind,
+    kind: CellKind,
     styles: &Styles,
 ) -> Result<(), ReportError> {
     match cell {
@@ -196,7 +196,7 @@ fn put(
             ws.write_number(row, col, *v)?;
         }
         Cell::Num(v) => {
-            let f = if kind == Kind::Class {
+            let f = if kind == CellKind::Class {
                 styles.class_format(*v)
             } else {
                 styles.kind(kind)
@@ -240,7 +240,7 @@ pub(crate) fn wrapped_lines(text: &str, width: f64) -> usize {
 }
 
 /// The inventory's file name (without its folder), for page headers.
-fn input_file_name(report: &Report) -> String {
+fn input_file_name(report: &Screening) -> String {
     Path::new(&report.input.file)
         .file_name()
         .map(|n| n.to_string_lossy().into_owned())
@@ -256,8 +256,8 @@ const PROGRESS_EVERY: u64 = 4096;
 
 fn write_table_sheet(
     ws: &mut Worksheet,
-    report: &Report,
-    table: Table,
+    report: &Screening,
+    table: TableId,
     rows: usize,
     styles: &Styles,
     fit_rows: bool,
@@ -269,19 +269,19 @@ fn write_table_sheet(
         ws.set_column_width(i as u16, c.width)?;
         if column_formatted(c.kind) {
             ws.set_column_format(i as u16, styles.kind(c.kind))?;
-        } else if c.kind == Kind::Text && c.width >= WRAP_FROM_WIDTH {
+        } else if c.kind == CellKind::Text && c.width >= WRAP_FROM_WIDTH {
             // Long text (names, flags, notes, reasons) wraps instead of running on.
             ws.set_column_format(i as u16, &styles.wrap)?;
-        } else if c.kind == Kind::Text {
-            ws.set_column_format(i as u16, styles.kind(Kind::Text))?;
+        } else if c.kind == CellKind::Text {
+            ws.set_column_format(i as u16, styles.kind(CellKind::Text))?;
         }
-        if table == Table::Priority && tables::PRIORITY_HIDDEN.contains(&c.key) {
+        if table == TableId::Priority && tables::PRIORITY_HIDDEN.contains(&c.key) {
             ws.set_column_hidden(i as u16)?;
         }
     }
     ws.set_row_height(0, 45)?;
     let freeze_cols = match table {
-        Table::Priority | Table::Directions | Table::Retrofit => 2,
+        TableId::Priority | TableId::Directions | TableId::Retrofit => 2,
         _ => 0,
     };
     ws.set_freeze_panes(1, freeze_cols)?;
@@ -292,9 +292,9 @@ fn write_table_sheet(
         &input_file_name(report),
         Print {
             repeat_rows: Some((0, 0)),
-            repeat_cols: (freeze_cols > 0 || table == Table::Walls || table == Table::Flags)
+            repeat_cols: (freeze_cols > 0 || table == TableId::Walls || table == TableId::Flags)
                 .then_some((0, 1)),
-            on_request: matches!(table, Table::Directions | Table::Walls | Table::Flags)
+            on_request: matches!(table, TableId::Directions | TableId::Walls | TableId::Flags)
                 .then_some(last_col),
         },
     )?;
@@ -303,7 +303,7 @@ fn write_table_sheet(
         ws.write_string_with_format(0, i as u16, c.header, &styles.header)?;
     }
     let mut r: u32 = 1;
-    let wrapped = |c: &tables::Column| c.kind == Kind::Text && c.width >= WRAP_FROM_WIDTH;
+    let wrapped = |c: &tables::Column| c.kind == CellKind::Text && c.width >= WRAP_FROM_WIDTH;
     let any_wrapped = fit_rows && cols.iter().any(wrapped);
     table.for_each_row(report, Target::Sheet, rows, |cells| {
         if any_wrapped {
@@ -338,13 +338,13 @@ fn write_table_sheet(
 
 /// Writes the results workbook; returns any extra files written (large-stock CSVs), each
 /// with a label for the terminal summary.
-pub fn write(report: &Report, path: &Path) -> Result<Vec<(String, PathBuf)>, ReportError> {
+pub fn write(report: &Screening, path: &Path) -> Result<Vec<(String, PathBuf)>, ReportError> {
     write_with_progress(report, path, &|_| {})
 }
 
 /// [`write`] with a progress callback (rows written).
 pub fn write_with_progress(
-    report: &Report,
+    report: &Screening,
     path: &Path,
     progress: Progress<'_>,
 ) -> Result<Vec<(String, PathBuf)>, ReportError> {
@@ -354,7 +354,7 @@ pub fn write_with_progress(
 /// [`write`] with a given layout (tests and benchmarks force the large-stock layout or
 /// constant-memory mode with this).
 pub fn write_with_layout(
-    report: &Report,
+    report: &Screening,
     path: &Path,
     layout: &Layout,
     progress: Progress<'_>,
@@ -366,10 +366,10 @@ pub fn write_with_layout(
 /// (the streaming path writes Directions, Walls and Flags chunk by chunk): they are listed on
 /// Summary but not written again.
 pub fn write_with_layout_except(
-    report: &Report,
+    report: &Screening,
     path: &Path,
     layout: &Layout,
-    written: &[Table],
+    written: &[TableId],
     progress: Progress<'_>,
 ) -> Result<Vec<(String, PathBuf)>, ReportError> {
     write_inner(report, path, layout, written, None, progress)
@@ -378,7 +378,7 @@ pub fn write_with_layout_except(
 /// [`write_with_progress`] with the comparison with a previous run (`--previous`): the
 /// `Changes` sheet after Priority.
 pub fn write_with_changes(
-    report: &Report,
+    report: &Screening,
     path: &Path,
     changes: Option<&Changes>,
     progress: Progress<'_>,
@@ -387,10 +387,10 @@ pub fn write_with_changes(
 }
 
 fn write_inner(
-    report: &Report,
+    report: &Screening,
     path: &Path,
     layout: &Layout,
-    written: &[Table],
+    written: &[TableId],
     changes: Option<&Changes>,
     progress: Progress<'_>,
 ) -> Result<Vec<(String, PathBuf)>, ReportError> {
@@ -445,7 +445,7 @@ fn now_timestamp() -> i64 {
 }
 
 fn build_and_save(
-    report: &Report,
+    report: &Screening,
     path: &Path,
     out: &mut BufWriter<File>,
     layout: &Layout,
@@ -488,8 +488,8 @@ fn build_and_save(
     // The table sheets are standalone worksheets filled in parallel, then added in the
     // contract's order. Constant-memory sheets created by the workbook share its format
     // table, so their cell styles are right whichever thread writes them.
-    let mut sheets: Vec<(Table, usize, Worksheet)> = Vec::new();
-    for t in Table::ALL {
+    let mut sheets: Vec<(TableId, usize, Worksheet)> = Vec::new();
+    for t in TableId::ALL {
         let Some(rows) = layout.sheet_rows(t) else {
             continue;
         };
@@ -509,7 +509,7 @@ fn build_and_save(
         .map(|(t, rows, _)| *rows as u64 * t.columns().len() as u64)
         .collect();
     let threads = rayon::current_num_threads().max(1);
-    let mut bins: Vec<Vec<&mut (Table, usize, Worksheet)>> =
+    let mut bins: Vec<Vec<&mut (TableId, usize, Worksheet)>> =
         (0..threads).map(|_| Vec::new()).collect();
     for (sheet, bin) in sheets.iter_mut().zip(balance(&weights, threads)) {
         if let Some(b) = bins.get_mut(bin) {
@@ -524,13 +524,13 @@ fn build_and_save(
     for (t, _, ws) in sheets {
         wb.push_worksheet(ws);
         // Method §13: the Confidence sheet follows Priority (only with samples).
-        if t == Table::Priority && report.uncertainty.is_some() {
+        if t == TableId::Priority && report.uncertainty.is_some() {
             let rows = layout
-                .sheet_rows(Table::Priority)
+                .sheet_rows(TableId::Priority)
                 .unwrap_or(report.buildings.len());
             confidence::write(wb.add_worksheet(), report, rows, &styles)?;
         }
-        if t == Table::Priority
+        if t == TableId::Priority
             && let Some(c) = changes
         {
             changes_sheet::write(wb.add_worksheet(), report, c, &styles)?;
@@ -618,31 +618,31 @@ mod tests {
         let l = Layout::plan(counts(524_287, 0), 524_287);
         assert!(!l.large());
         assert!(l.constant_memory);
-        assert_eq!(l.sheet_rows(Table::Directions), Some(1_048_574));
+        assert_eq!(l.sheet_rows(TableId::Directions), Some(1_048_574));
         // A full Directions sheet may pass 4 GiB uncompressed: Zip64 is on.
         assert!(l.zip64);
         // One more building passes the limit: the per-row tables go to CSV.
         let l = Layout::plan(counts(524_288, 0), 524_288);
         assert!(l.large());
-        assert_eq!(l.sheet_rows(Table::Priority), Some(LARGE_PRIORITY_ROWS));
+        assert_eq!(l.sheet_rows(TableId::Priority), Some(LARGE_PRIORITY_ROWS));
         for t in [
-            Table::Directions,
-            Table::Walls,
-            Table::Flags,
-            Table::Retrofit,
+            TableId::Directions,
+            TableId::Walls,
+            TableId::Flags,
+            TableId::Retrofit,
         ] {
             assert_eq!(l.sheet_rows(t), None, "{t:?}");
         }
-        assert_eq!(l.sheet_rows(Table::NotScreened), Some(3));
-        assert_eq!(l.sheet_rows(Table::Problems), Some(5));
+        assert_eq!(l.sheet_rows(TableId::NotScreened), Some(3));
+        assert_eq!(l.sheet_rows(TableId::Problems), Some(5));
     }
 
     #[test]
     fn a_long_walls_table_alone_goes_to_csv() {
         let l = Layout::plan(counts(1_000, SHEET_ROWS), 1_000);
         assert!(!l.large());
-        assert_eq!(l.csv, vec![Table::Walls]);
-        assert_eq!(l.sheet_rows(Table::Priority), Some(1_000));
+        assert_eq!(l.csv, vec![TableId::Walls]);
+        assert_eq!(l.sheet_rows(TableId::Priority), Some(1_000));
         assert!(!l.constant_memory);
         assert!(!l.zip64);
     }
@@ -650,7 +650,7 @@ mod tests {
     #[test]
     fn csv_path_sits_beside_the_workbook() {
         assert_eq!(
-            csv_path(Path::new("out/a-screening.xlsx"), Table::Directions),
+            csv_path(Path::new("out/a-screening.xlsx"), TableId::Directions),
             PathBuf::from("out/a-screening.directions.csv")
         );
     }

@@ -10,7 +10,7 @@ colour alone.
 
 use rust_xlsxwriter::{Color, Format, FormatAlign, FormatBorder};
 
-use super::tables::{CLASS_NAMES, Kind};
+use super::tables::{CLASS_NAMES, CellKind};
 
 /// Fill colours of classes 1–4 (most to least severe): one violet hue, dark to pale.
 /// Relative luminance about 0.03, 0.14, 0.45, 0.84, so greyscale keeps the order.
@@ -52,19 +52,19 @@ pub struct Styles {
     pub indent: Format,
 }
 
-fn kind_index(k: Kind) -> usize {
+fn kind_index(k: CellKind) -> usize {
     match k {
-        Kind::Text => 0,
-        Kind::Int => 1,
-        Kind::Thousands => 2,
-        Kind::Dcr => 3,
-        Kind::Ratio => 4,
-        Kind::Pct => 5,
-        Kind::Dec2 => 6,
-        Kind::Dec3 => 7,
-        Kind::Dec4 => 8,
-        Kind::Coord => 9,
-        Kind::Class => 10,
+        CellKind::Text => 0,
+        CellKind::Int => 1,
+        CellKind::Thousands => 2,
+        CellKind::Dcr => 3,
+        CellKind::Ratio => 4,
+        CellKind::Pct => 5,
+        CellKind::Dec2 => 6,
+        CellKind::Dec3 => 7,
+        CellKind::Dec4 => 8,
+        CellKind::Coord => 9,
+        CellKind::Class => 10,
     }
 }
 
@@ -131,7 +131,7 @@ impl Styles {
     }
 
     /// The number format of a column kind.
-    pub fn kind(&self, k: Kind) -> &Format {
+    pub fn kind(&self, k: CellKind) -> &Format {
         // kind_index is always within the array.
         &self.kinds[kind_index(k)]
     }
@@ -140,7 +140,7 @@ impl Styles {
     pub fn class_format(&self, class: f64) -> &Format {
         match class as i64 {
             1..=4 => &self.class[(class as usize) - 1],
-            _ => self.kind(Kind::Int),
+            _ => self.kind(CellKind::Int),
         }
     }
 }

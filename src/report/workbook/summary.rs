@@ -12,9 +12,9 @@ use rust_xlsxwriter::{
 };
 
 use super::style::{CLASS_CHART_FILL, CLASS_FILL, Styles};
-use super::tables::{CLASS_NAMES, Kind, Table, class_name, funding_cost};
+use super::tables::{CLASS_NAMES, CellKind, TableId, class_name, funding_cost};
 use super::{Layout, ReportError, cut};
-use crate::results::Report;
+use crate::results::Screening;
 
 /// Name of the hidden sheet holding the chart series.
 pub const CHART_DATA: &str = "Chart data";
@@ -48,7 +48,10 @@ fn num(ws: &mut Worksheet, r: u32, c: u16, v: f64) -> Result<(), ReportError> {
 }
 
 /// Writes the chart series to the (hidden) chart-data sheet.
-pub fn write_chart_data(ws: &mut Worksheet, report: &Report) -> Result<ChartRanges, ReportError> {
+pub fn write_chart_data(
+    ws: &mut Worksheet,
+    report: &Screening,
+) -> Result<ChartRanges, ReportError> {
     ws.set_name(CHART_DATA)?;
     ws.set_hidden(true);
     let mut ranges = ChartRanges::default();
@@ -212,7 +215,7 @@ fn scatter_chart(ranges: &ChartRanges) -> Option<Chart> {
     Some(chart)
 }
 
-fn bar_chart(report: &Report, ranges: &ChartRanges) -> Option<Chart> {
+fn bar_chart(report: &Screening, ranges: &ChartRanges) -> Option<Chart> {
     if ranges.bars == 0 {
         return None;
     }
@@ -338,7 +341,7 @@ impl Rows<'_> {
         &mut self,
         label: &str,
         value: f64,
-        kind: Kind,
+        kind: CellKind,
         styles: &Styles,
     ) -> Result<(), ReportError> {
         self.ws
@@ -403,7 +406,7 @@ fn money(v: f64) -> String {
 }
 
 /// The budget line of the Summary (and of the terminal summary).
-pub fn budget_line(report: &Report) -> String {
+pub fn budget_line(report: &Screening) -> String {
     match &report.budget_plan {
         Some(p) => {
             let walk = &p.priority_walk;
@@ -466,7 +469,11 @@ pub fn budget_line(report: &Report) -> String {
 /// The block an official decides on: counts, people, costs, the two plans by their plain
 /// names (`interface.md`: Plan A "in priority order" = the priority walk, Plan B "most people
 /// protected" = the max-occupants plan).
-fn decision_block(w: &mut Rows<'_>, report: &Report, styles: &Styles) -> Result<(), ReportError> {
+fn decision_block(
+    w: &mut Rows<'_>,
+    report: &Screening,
+    styles: &Styles,
+) -> Result<(), ReportError> {
     w.section("For the decision", styles)?;
     let c = &report.counts;
     let (mut people, mut people_unknown, mut cost, mut cost_unknown) = (0u64, 0usize, 0.0, 0usize);
@@ -483,25 +490,25 @@ fn decision_block(w: &mut Rows<'_>, report: &Report, styles: &Styles) -> Result<
     w.label_num(
         "Buildings screened",
         c.screened as f64,
-        Kind::Thousands,
+        CellKind::Thousands,
         styles,
     )?;
     w.label_num(
         &format!("Class 1 {}", class_name(1)),
         c.by_class.c1 as f64,
-        Kind::Thousands,
+        CellKind::Thousands,
         styles,
     )?;
     w.label_num(
         &format!("Class 2 {}", class_name(2)),
         c.by_class.c2 as f64,
-        Kind::Thousands,
+        CellKind::Thousands,
         styles,
     )?;
     w.label_num(
         "People in class 1–2 buildings",
         people as f64,
-        Kind::Thousands,
+        CellKind::Thousands,
         styles,
     )?;
     if people_unknown > 0 {
@@ -526,7 +533,7 @@ fn decision_block(w: &mut Rows<'_>, report: &Report, styles: &Styles) -> Result<
         w.label_num(
             "Cost to fix all class 1–2 buildings",
             cost,
-            Kind::Thousands,
+            CellKind::Thousands,
             styles,
         )?;
         if cost_unknown > 0 {
@@ -542,7 +549,7 @@ fn decision_block(w: &mut Rows<'_>, report: &Report, styles: &Styles) -> Result<
     }
     match &report.budget_plan {
         Some(p) => {
-            w.label_num("Budget", p.budget, Kind::Thousands, styles)?;
+            w.label_num("Budget", p.budget, CellKind::Thousands, styles)?;
             for (name, plan) in [
                 ("Plan A: in priority order", &p.priority_walk),
                 ("Plan B: most people protected", &p.max_occupants),
@@ -562,7 +569,7 @@ fn decision_block(w: &mut Rows<'_>, report: &Report, styles: &Styles) -> Result<
                 w.label_num(
                     "Gap (class 1–2 cost beyond budget)",
                     (cost - p.budget).max(0.0),
-                    Kind::Thousands,
+                    CellKind::Thousands,
                     styles,
                 )?;
             }
@@ -582,7 +589,7 @@ fn decision_block(w: &mut Rows<'_>, report: &Report, styles: &Styles) -> Result<
 /// Writes the Summary sheet and inserts the charts.
 pub fn write(
     ws: &mut Worksheet,
-    report: &Report,
+    report: &Screening,
     layout: &Layout,
     extra: &[(String, PathBuf)],
     styles: &Styles,
@@ -621,31 +628,31 @@ pub fn write(
     w.label_num(
         "Rows in the buildings sheet",
         c.rows as f64,
-        Kind::Thousands,
+        CellKind::Thousands,
         styles,
     )?;
     w.label_num(
         "Buildings screened",
         c.screened as f64,
-        Kind::Thousands,
+        CellKind::Thousands,
         styles,
     )?;
     w.label_num(
         "Rows not screened (see Not screened)",
         c.not_screened as f64,
-        Kind::Thousands,
+        CellKind::Thousands,
         styles,
     )?;
     w.label_num(
         "Blank rows skipped",
         c.blank_rows as f64,
-        Kind::Thousands,
+        CellKind::Thousands,
         styles,
     )?;
     w.label_num(
         "Input problems (see Input problems)",
         report.problems.len() as f64,
-        Kind::Thousands,
+        CellKind::Thousands,
         styles,
     )?;
     if !layout.csv.is_empty() {
@@ -694,13 +701,13 @@ pub fn write(
     for (k, n) in by.iter().enumerate() {
         let class = (k + 1) as f64;
         w.ws.write_number_with_format(w.r, 0, class, styles.class_format(class))?;
-        w.ws.write_number_with_format(w.r, 1, *n as f64, styles.kind(Kind::Thousands))?;
+        w.ws.write_number_with_format(w.r, 1, *n as f64, styles.kind(CellKind::Thousands))?;
         if c.screened > 0 {
             w.ws.write_number_with_format(
                 w.r,
                 2,
                 100.0 * *n as f64 / c.screened as f64,
-                styles.kind(Kind::Dec2),
+                styles.kind(CellKind::Dec2),
             )?;
         }
         w.r += 1;
@@ -729,7 +736,7 @@ pub fn write(
         let class = f64::from(b.class);
         w.ws.write_number_with_format(r, 4, class, styles.class_format(class))?;
         if b.score.is_finite() {
-            w.ws.write_number_with_format(r, 5, b.score, styles.kind(Kind::Dcr))?;
+            w.ws.write_number_with_format(r, 5, b.score, styles.kind(CellKind::Dcr))?;
         }
         w.ws.write_string_with_format(
             r,
@@ -746,13 +753,13 @@ pub fn write(
             &styles.indent,
         )?;
         if let Some(o) = b.occupants {
-            w.ws.write_number_with_format(r, 7, o as f64, styles.kind(Kind::Thousands))?;
+            w.ws.write_number_with_format(r, 7, o as f64, styles.kind(CellKind::Thousands))?;
         }
         w.r += 1;
     }
     w.label(
         "Full list",
-        &format!("see the {} sheet", Table::Priority.sheet_name()),
+        &format!("see the {} sheet", TableId::Priority.sheet_name()),
         styles,
     )?;
 
@@ -776,8 +783,8 @@ pub fn write(
     }
     for (code, (n, severe)) in flags {
         w.ws.write_string(w.r, 0, cut(code))?;
-        w.ws.write_number_with_format(w.r, 1, n as f64, styles.kind(Kind::Thousands))?;
-        w.ws.write_number_with_format(w.r, 2, severe as f64, styles.kind(Kind::Thousands))?;
+        w.ws.write_number_with_format(w.r, 1, n as f64, styles.kind(CellKind::Thousands))?;
+        w.ws.write_number_with_format(w.r, 2, severe as f64, styles.kind(CellKind::Thousands))?;
         w.r += 1;
     }
     w.label("Reasons", "see the Flags sheet", styles)?;
@@ -821,14 +828,14 @@ pub fn write(
             r,
             1,
             n.iter().sum::<usize>() as f64,
-            styles.kind(Kind::Thousands),
+            styles.kind(CellKind::Thousands),
         )?;
         for (k, v) in n.iter().enumerate() {
             w.ws.write_number_with_format(
                 r,
                 2 + k as u16,
                 *v as f64,
-                styles.kind(Kind::Thousands),
+                styles.kind(CellKind::Thousands),
             )?;
         }
         w.r += 1;

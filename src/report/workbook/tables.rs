@@ -8,12 +8,12 @@ with the same columns.
 use std::borrow::Cow;
 
 use crate::model::{Dir, NotScreened, Problem, Severity};
-use crate::results::{BuildingResult, Report, WallResult};
+use crate::results::{BuildingResult, Screening, WallResult};
 use crate::settings::Level;
 
 /// How a column is shown in the workbook (number format and alignment).
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
-pub enum Kind {
+pub enum CellKind {
     /// Free text.
     Text,
     /// Whole number (`0`).
@@ -46,12 +46,12 @@ pub struct Column {
     /// Machine name (CSV header).
     pub key: &'static str,
     /// Display kind.
-    pub kind: Kind,
+    pub kind: CellKind,
     /// Column width in characters.
     pub width: f64,
 }
 
-const fn col(header: &'static str, key: &'static str, kind: Kind, width: f64) -> Column {
+const fn col(header: &'static str, key: &'static str, kind: CellKind, width: f64) -> Column {
     Column {
         header,
         key,
@@ -121,52 +121,52 @@ fn group_code(g: crate::results::Group) -> &'static str {
 
 /// Columns of the Priority table; the keys are the `--csv` column names of `interface.md`.
 pub const PRIORITY: &[Column] = &[
-    col("Rank", "rank", Kind::Int, 7.0),
-    col("Id", "id", Kind::Text, 12.0),
-    col("Name", "name", Kind::Text, 28.0),
-    col("District", "district", Kind::Text, 16.0),
-    col("Use", "use", Kind::Text, 12.0),
-    col("Occupants", "occupants", Kind::Thousands, 11.0),
-    col("Class", "class", Kind::Class, 26.0),
-    col("Score (governing DCR)", "score", Kind::Dcr, 12.0),
+    col("Rank", "rank", CellKind::Int, 7.0),
+    col("Id", "id", CellKind::Text, 12.0),
+    col("Name", "name", CellKind::Text, 28.0),
+    col("District", "district", CellKind::Text, 16.0),
+    col("Use", "use", CellKind::Text, 12.0),
+    col("Occupants", "occupants", CellKind::Thousands, 11.0),
+    col("Class", "class", CellKind::Class, 26.0),
+    col("Score (governing DCR)", "score", CellKind::Dcr, 12.0),
     col(
         "Governing direction",
         "governing_direction",
-        Kind::Text,
+        CellKind::Text,
         11.0,
     ),
-    col("Governing group", "governing_group", Kind::Text, 11.0),
-    col("DCR IO (max of x, y)", "dcr_io", Kind::Dcr, 10.0),
-    col("DCR LS (max of x, y)", "dcr_ls", Kind::Dcr, 10.0),
-    col("DCR CP (max of x, y)", "dcr_cp", Kind::Dcr, 10.0),
+    col("Governing group", "governing_group", CellKind::Text, 11.0),
+    col("DCR IO (max of x, y)", "dcr_io", CellKind::Dcr, 10.0),
+    col("DCR LS (max of x, y)", "dcr_ls", CellKind::Dcr, 10.0),
+    col("DCR CP (max of x, y)", "dcr_cp", CellKind::Dcr, 10.0),
     col(
         "Priority index, weaker direction (%)",
         "priority_index_min_pct",
-        Kind::Pct,
+        CellKind::Pct,
         13.0,
     ),
-    col("Flags (codes)", "flags", Kind::Text, 36.0),
-    col("Retrofit cost", "retrofit_cost", Kind::Thousands, 14.0),
+    col("Flags (codes)", "flags", CellKind::Text, 36.0),
+    col("Retrofit cost", "retrofit_cost", CellKind::Thousands, 14.0),
     // `funded` = Plan A, kept for compatibility; the sheet hides it (PRIORITY_HIDDEN).
-    col("Funded (= Plan A)", "funded", Kind::Text, 10.0),
-    col("Latitude (deg)", "latitude", Kind::Coord, 12.0),
-    col("Longitude (deg)", "longitude", Kind::Coord, 12.0),
+    col("Funded (= Plan A)", "funded", CellKind::Text, 10.0),
+    col("Latitude (deg)", "latitude", CellKind::Coord, 12.0),
+    col("Longitude (deg)", "longitude", CellKind::Coord, 12.0),
     col(
         "Nearest fault (m)",
         "fault_distance_m",
-        Kind::Thousands,
+        CellKind::Thousands,
         12.0,
     ),
     col(
         "Funded by Plan A: in priority order",
         "funded_plan_a",
-        Kind::Text,
+        CellKind::Text,
         15.0,
     ),
     col(
         "Funded by Plan B: most people protected",
         "funded_plan_b",
-        Kind::Text,
+        CellKind::Text,
         15.0,
     ),
 ];
@@ -210,67 +210,72 @@ pub fn priority_row<'a>(b: &'a BuildingResult, target: Target, out: &mut Vec<Cel
 
 /// Columns of the Retrofit plan table.
 pub const RETROFIT: &[Column] = &[
-    col("Rank", "rank", Kind::Int, 7.0),
-    col("Id", "id", Kind::Text, 12.0),
-    col("Name", "name", Kind::Text, 28.0),
-    col("District", "district", Kind::Text, 16.0),
-    col("Class", "class", Kind::Class, 26.0),
-    col("Score (governing DCR)", "score", Kind::Dcr, 12.0),
-    col("Occupants", "occupants", Kind::Thousands, 11.0),
-    col("Floor area (m²)", "floor_area_m2", Kind::Thousands, 11.0),
+    col("Rank", "rank", CellKind::Int, 7.0),
+    col("Id", "id", CellKind::Text, 12.0),
+    col("Name", "name", CellKind::Text, 28.0),
+    col("District", "district", CellKind::Text, 16.0),
+    col("Class", "class", CellKind::Class, 26.0),
+    col("Score (governing DCR)", "score", CellKind::Dcr, 12.0),
+    col("Occupants", "occupants", CellKind::Thousands, 11.0),
+    col(
+        "Floor area (m²)",
+        "floor_area_m2",
+        CellKind::Thousands,
+        11.0,
+    ),
     col(
         "Added wall area X (m²)",
         "added_wall_area_x_m2",
-        Kind::Dec2,
+        CellKind::Dec2,
         12.0,
     ),
     col(
         "Added wall area Y (m²)",
         "added_wall_area_y_m2",
-        Kind::Dec2,
+        CellKind::Dec2,
         12.0,
     ),
-    col("Column remedy", "column_remedy", Kind::Text, 9.0),
-    col("Retrofit cost", "cost", Kind::Thousands, 14.0),
+    col("Column remedy", "column_remedy", CellKind::Text, 9.0),
+    col("Retrofit cost", "cost", CellKind::Thousands, 14.0),
     col(
         "Replacement cost",
         "replacement_cost",
-        Kind::Thousands,
+        CellKind::Thousands,
         14.0,
     ),
-    col("Replace", "replace", Kind::Text, 9.0),
+    col("Replace", "replace", CellKind::Text, 9.0),
     col(
         "Cost used for funding",
         "funding_cost",
-        Kind::Thousands,
+        CellKind::Thousands,
         14.0,
     ),
     col(
         "Cumulative cost, rank order",
         "cumulative_cost",
-        Kind::Thousands,
+        CellKind::Thousands,
         15.0,
     ),
-    col("Flags after retrofit", "flags_after", Kind::Text, 24.0),
+    col("Flags after retrofit", "flags_after", CellKind::Text, 24.0),
     col(
         "Funded by Plan A: in priority order",
         "funded",
-        Kind::Text,
+        CellKind::Text,
         15.0,
     ),
     col(
         "Funded by Plan B: most people protected",
         "funded_max_occupants",
-        Kind::Text,
+        CellKind::Text,
         15.0,
     ),
     col(
         "Excluded from the budget plans (reason)",
         "excluded",
-        Kind::Text,
+        CellKind::Text,
         44.0,
     ),
-    col("Note", "note", Kind::Text, 48.0),
+    col("Note", "note", CellKind::Text, 48.0),
 ];
 
 /// The cost a building takes from the budget (method §12), computed by
@@ -330,223 +335,263 @@ pub fn retrofit_row<'a>(
 
 /// Columns of the Directions table: every intermediate number of method.md, in method order.
 pub const DIRECTIONS: &[Column] = &[
-    col("Rank", "rank", Kind::Int, 7.0),
-    col("Id", "id", Kind::Text, 12.0),
-    col("Name", "name", Kind::Text, 24.0),
-    col("Class", "class", Kind::Class, 26.0),
-    col("Direction", "direction", Kind::Text, 9.0),
-    col("Governs", "governs", Kind::Text, 8.0),
+    col("Rank", "rank", CellKind::Int, 7.0),
+    col("Id", "id", CellKind::Text, 12.0),
+    col("Name", "name", CellKind::Text, 24.0),
+    col("Class", "class", CellKind::Class, 26.0),
+    col("Direction", "direction", CellKind::Text, 9.0),
+    col("Governs", "governs", CellKind::Text, 8.0),
     // §0 building quantities
-    col("Storeys", "storeys", Kind::Int, 8.0),
-    col("Height H (m)", "height_m", Kind::Dec2, 9.0),
-    col("Floor area A_fl (m²)", "floor_area_m2", Kind::Dec2, 11.0),
-    col("Seismic weight W (kN)", "weight_kn", Kind::Thousands, 11.0),
-    col("fc used (MPa)", "fc_mpa", Kind::Dec2, 9.0),
-    col("fy used (MPa)", "fy_mpa", Kind::Dec2, 9.0),
-    col("Column area A_col (m²)", "column_area_m2", Kind::Dec3, 10.0),
+    col("Storeys", "storeys", CellKind::Int, 8.0),
+    col("Height H (m)", "height_m", CellKind::Dec2, 9.0),
+    col(
+        "Floor area A_fl (m²)",
+        "floor_area_m2",
+        CellKind::Dec2,
+        11.0,
+    ),
+    col(
+        "Seismic weight W (kN)",
+        "weight_kn",
+        CellKind::Thousands,
+        11.0,
+    ),
+    col("fc used (MPa)", "fc_mpa", CellKind::Dec2, 9.0),
+    col("fy used (MPa)", "fy_mpa", CellKind::Dec2, 9.0),
+    col(
+        "Column area A_col (m²)",
+        "column_area_m2",
+        CellKind::Dec3,
+        10.0,
+    ),
     col(
         "Boundary elements (effective)",
         "boundary_elements",
-        Kind::Text,
+        CellKind::Text,
         10.0,
     ),
     col(
         "Columns detailed (effective)",
         "columns_detailed",
-        Kind::Text,
+        CellKind::Text,
         10.0,
     ),
     // §1
     col(
         "RC wall area A_cw (m²)",
         "rc_wall_area_m2",
-        Kind::Dec3,
+        CellKind::Dec3,
         10.0,
     ),
-    col("Infill area A_mw (m²)", "infill_area_m2", Kind::Dec3, 10.0),
+    col(
+        "Infill area A_mw (m²)",
+        "infill_area_m2",
+        CellKind::Dec3,
+        10.0,
+    ),
     col(
         "RC wall index WIrc (%)",
         "rc_wall_index_pct",
-        Kind::Pct,
+        CellKind::Pct,
         10.0,
     ),
-    col("Wall index WI (%)", "wall_index_pct", Kind::Pct, 10.0),
-    col("Column index CI (%)", "column_index_pct", Kind::Pct, 10.0),
+    col("Wall index WI (%)", "wall_index_pct", CellKind::Pct, 10.0),
+    col(
+        "Column index CI (%)",
+        "column_index_pct",
+        CellKind::Pct,
+        10.0,
+    ),
     col(
         "Priority index PI (%)",
         "priority_index_pct",
-        Kind::Pct,
+        CellKind::Pct,
         10.0,
     ),
     // §2
     col(
         "Axial load ratio ν (-)",
         "axial_load_ratio",
-        Kind::Dec3,
+        CellKind::Dec3,
         10.0,
     ),
     // §3
-    col("Strength factor β (-)", "beta", Kind::Dec3, 9.0),
-    col("Wall strength C_w (-)", "strength_walls", Kind::Dec3, 10.0),
+    col("Strength factor β (-)", "beta", CellKind::Dec3, 9.0),
+    col(
+        "Wall strength C_w (-)",
+        "strength_walls",
+        CellKind::Dec3,
+        10.0,
+    ),
     col(
         "Column strength C_c (-)",
         "strength_columns",
-        Kind::Dec3,
+        CellKind::Dec3,
         10.0,
     ),
-    col("α1 (-)", "alpha1", Kind::Dec2, 7.0),
+    col("α1 (-)", "alpha1", CellKind::Dec2, 7.0),
     col(
         "Strength coefficient C_y (-)",
         "strength_coefficient",
-        Kind::Dec3,
+        CellKind::Dec3,
         11.0,
     ),
     // §4
     col(
         "Period, frame formula (s)",
         "period_frame_s",
-        Kind::Dec3,
+        CellKind::Dec3,
         10.0,
     ),
-    col("Ac (m²)", "ac_m2", Kind::Dec3, 9.0),
+    col("Ac (m²)", "ac_m2", CellKind::Dec3, 9.0),
     col(
         "Period, wall formula (s)",
         "period_wall_s",
-        Kind::Dec3,
+        CellKind::Dec3,
         10.0,
     ),
     col(
         "Formula period before factor (s)",
         "period_formula_s",
-        Kind::Dec3,
+        CellKind::Dec3,
         11.0,
     ),
-    col("Period source", "period_source", Kind::Text, 10.0),
-    col("Period used T (s)", "period_s", Kind::Dec3, 9.0),
+    col("Period source", "period_source", CellKind::Text, 10.0),
+    col("Period used T (s)", "period_s", CellKind::Dec3, 9.0),
     // §5
-    col("agR (g)", "agr_g", Kind::Dec3, 8.0),
-    col("agR from", "agr_source", Kind::Text, 10.0),
-    col("Ground type", "ground_type", Kind::Text, 8.0),
-    col("Importance γI (-)", "gamma_i", Kind::Dec2, 9.0),
-    col("ag = γI·agR (g)", "ag_g", Kind::Dec3, 9.0),
-    col("Spectrum parameters", "spectrum", Kind::Text, 30.0),
-    col("Factor on spectrum (-)", "spectrum_factor", Kind::Dec2, 9.0),
-    col("η (-)", "eta", Kind::Dec3, 7.0),
-    col("Corner period TC (s)", "tc_s", Kind::Dec3, 9.0),
-    col("Se(T) (g)", "se_g", Kind::Dec3, 9.0),
-    col("SDe(T) (m)", "sde_m", Kind::Dec4, 9.0),
+    col("agR (g)", "agr_g", CellKind::Dec3, 8.0),
+    col("agR from", "agr_source", CellKind::Text, 10.0),
+    col("Ground type", "ground_type", CellKind::Text, 8.0),
+    col("Importance γI (-)", "gamma_i", CellKind::Dec2, 9.0),
+    col("ag = γI·agR (g)", "ag_g", CellKind::Dec3, 9.0),
+    col("Spectrum parameters", "spectrum", CellKind::Text, 30.0),
+    col(
+        "Factor on spectrum (-)",
+        "spectrum_factor",
+        CellKind::Dec2,
+        9.0,
+    ),
+    col("η (-)", "eta", CellKind::Dec3, 7.0),
+    col("Corner period TC (s)", "tc_s", CellKind::Dec3, 9.0),
+    col("Se(T) (g)", "se_g", CellKind::Dec3, 9.0),
+    col("SDe(T) (m)", "sde_m", CellKind::Dec4, 9.0),
     // §6
-    col("Γ (-)", "gamma", Kind::Dec3, 8.0),
-    col("S_ay (g)", "say_g", Kind::Dec3, 8.0),
-    col("qu (-)", "qu", Kind::Dec3, 8.0),
-    col("N2 branch", "n2_branch", Kind::Text, 18.0),
-    col("dt* (m)", "dt_star_m", Kind::Dec4, 9.0),
+    col("Γ (-)", "gamma", CellKind::Dec3, 8.0),
+    col("S_ay (g)", "say_g", CellKind::Dec3, 8.0),
+    col("qu (-)", "qu", CellKind::Dec3, 8.0),
+    col("N2 branch", "n2_branch", CellKind::Text, 18.0),
+    col("dt* (m)", "dt_star_m", CellKind::Dec4, 9.0),
     col(
         "Roof displacement d_t (m)",
         "roof_displacement_m",
-        Kind::Dec4,
+        CellKind::Dec4,
         11.0,
     ),
-    col("Roof drift δ_r (%)", "roof_drift_demand", Kind::Ratio, 10.0),
+    col(
+        "Roof drift δ_r (%)",
+        "roof_drift_demand",
+        CellKind::Ratio,
+        10.0,
+    ),
     // §7
-    col("Soft or weak storey", "soft_or_weak", Kind::Text, 9.0),
-    col("κ (-)", "kappa", Kind::Dec2, 7.0),
+    col("Soft or weak storey", "soft_or_weak", CellKind::Text, 9.0),
+    col("κ (-)", "kappa", CellKind::Dec2, 7.0),
     col(
         "Drift demand, walls (%)",
         "drift_demand_walls",
-        Kind::Ratio,
+        CellKind::Ratio,
         10.0,
     ),
     col(
         "Drift demand, columns (%)",
         "drift_demand_columns",
-        Kind::Ratio,
+        CellKind::Ratio,
         10.0,
     ),
     // §8
     col(
         "Wall shear span Lv (m)",
         "wall_shear_span_m",
-        Kind::Dec2,
+        CellKind::Dec2,
         10.0,
     ),
     col(
         "Column shear span Lv (m)",
         "column_shear_span_m",
-        Kind::Dec2,
+        CellKind::Dec2,
         10.0,
     ),
-    col("Column θy (%)", "column_theta_y", Kind::Ratio, 9.0),
-    col("Column θum (%)", "column_theta_um", Kind::Ratio, 9.0),
+    col("Column θy (%)", "column_theta_y", CellKind::Ratio, 9.0),
+    col("Column θum (%)", "column_theta_um", CellKind::Ratio, 9.0),
     col(
         "Wall capacity IO (%)",
         "capacity_walls_io",
-        Kind::Ratio,
+        CellKind::Ratio,
         10.0,
     ),
     col(
         "Wall capacity LS (%)",
         "capacity_walls_ls",
-        Kind::Ratio,
+        CellKind::Ratio,
         10.0,
     ),
     col(
         "Wall capacity CP (%)",
         "capacity_walls_cp",
-        Kind::Ratio,
+        CellKind::Ratio,
         10.0,
     ),
     col(
         "Column capacity IO (%)",
         "capacity_columns_io",
-        Kind::Ratio,
+        CellKind::Ratio,
         10.0,
     ),
     col(
         "Column capacity LS (%)",
         "capacity_columns_ls",
-        Kind::Ratio,
+        CellKind::Ratio,
         10.0,
     ),
     col(
         "Column capacity CP (%)",
         "capacity_columns_cp",
-        Kind::Ratio,
+        CellKind::Ratio,
         10.0,
     ),
     // §9
-    col("DCR IO (-)", "dcr_io", Kind::Dcr, 8.0),
-    col("DCR LS (-)", "dcr_ls", Kind::Dcr, 8.0),
-    col("DCR CP (-)", "dcr_cp", Kind::Dcr, 8.0),
+    col("DCR IO (-)", "dcr_io", CellKind::Dcr, 8.0),
+    col("DCR LS (-)", "dcr_ls", CellKind::Dcr, 8.0),
+    col("DCR CP (-)", "dcr_cp", CellKind::Dcr, 8.0),
     // §9 frame-alone bound (RC walls of the direction removed)
     col(
         "Frame alone: period (s)",
         "frame_alone_period_s",
-        Kind::Dec3,
+        CellKind::Dec3,
         10.0,
     ),
     col(
         "Frame alone: roof drift (%)",
         "frame_alone_roof_drift_demand",
-        Kind::Ratio,
+        CellKind::Ratio,
         10.0,
     ),
     col(
         "Frame alone: DCR LS (-)",
         "frame_alone_dcr_ls",
-        Kind::Dcr,
+        CellKind::Dcr,
         9.0,
     ),
     col(
         "Frame alone: DCR CP (-)",
         "frame_alone_dcr_cp",
-        Kind::Dcr,
+        CellKind::Dcr,
         9.0,
     ),
     col(
         "Frame alone governs at",
         "frame_alone_governs",
-        Kind::Text,
+        CellKind::Text,
         10.0,
     ),
 ];
@@ -648,27 +693,37 @@ pub fn direction_row<'a>(b: &'a BuildingResult, d: Dir, out: &mut Vec<Cell<'a>>)
 
 /// Columns of the Walls table.
 pub const WALLS: &[Column] = &[
-    col("Rank", "rank", Kind::Int, 7.0),
-    col("Building id", "building_id", Kind::Text, 12.0),
-    col("Wall id", "wall_id", Kind::Text, 14.0),
-    col("Direction", "direction", Kind::Text, 9.0),
-    col("Representative", "representative", Kind::Text, 10.0),
-    col("Walls represented", "count", Kind::Dec2, 10.0),
-    col("Length lw (m)", "length_m", Kind::Dec2, 9.0),
-    col("Thickness tw (m)", "thickness_m", Kind::Dec3, 9.0),
-    col("Boundary elements", "boundary_elements", Kind::Text, 10.0),
+    col("Rank", "rank", CellKind::Int, 7.0),
+    col("Building id", "building_id", CellKind::Text, 12.0),
+    col("Wall id", "wall_id", CellKind::Text, 14.0),
+    col("Direction", "direction", CellKind::Text, 9.0),
+    col("Representative", "representative", CellKind::Text, 10.0),
+    col("Walls represented", "count", CellKind::Dec2, 10.0),
+    col("Length lw (m)", "length_m", CellKind::Dec2, 9.0),
+    col("Thickness tw (m)", "thickness_m", CellKind::Dec3, 9.0),
+    col(
+        "Boundary elements",
+        "boundary_elements",
+        CellKind::Text,
+        10.0,
+    ),
     col(
         "Axial load ratio ν (-)",
         "axial_load_ratio",
-        Kind::Dec3,
+        CellKind::Dec3,
         10.0,
     ),
-    col("Shear span Lv (m)", "shear_span_m", Kind::Dec2, 9.0),
-    col("Yield rotation θy (%)", "theta_y", Kind::Ratio, 10.0),
-    col("Ultimate rotation θum (%)", "theta_um", Kind::Ratio, 11.0),
-    col("Capacity IO (%)", "capacity_io", Kind::Ratio, 10.0),
-    col("Capacity LS (%)", "capacity_ls", Kind::Ratio, 10.0),
-    col("Capacity CP (%)", "capacity_cp", Kind::Ratio, 10.0),
+    col("Shear span Lv (m)", "shear_span_m", CellKind::Dec2, 9.0),
+    col("Yield rotation θy (%)", "theta_y", CellKind::Ratio, 10.0),
+    col(
+        "Ultimate rotation θum (%)",
+        "theta_um",
+        CellKind::Ratio,
+        11.0,
+    ),
+    col("Capacity IO (%)", "capacity_io", CellKind::Ratio, 10.0),
+    col("Capacity LS (%)", "capacity_ls", CellKind::Ratio, 10.0),
+    col("Capacity CP (%)", "capacity_cp", CellKind::Ratio, 10.0),
 ];
 
 /// One Walls row.
@@ -699,13 +754,13 @@ pub fn wall_row<'a>(b: &'a BuildingResult, w: &'a WallResult, out: &mut Vec<Cell
 
 /// Columns of the Flags table.
 pub const FLAGS: &[Column] = &[
-    col("Rank", "rank", Kind::Int, 7.0),
-    col("Id", "id", Kind::Text, 12.0),
-    col("Name", "name", Kind::Text, 24.0),
-    col("Class", "class", Kind::Class, 26.0),
-    col("Flag", "code", Kind::Text, 20.0),
-    col("Direction", "direction", Kind::Text, 9.0),
-    col("Reason", "detail", Kind::Text, 90.0),
+    col("Rank", "rank", CellKind::Int, 7.0),
+    col("Id", "id", CellKind::Text, 12.0),
+    col("Name", "name", CellKind::Text, 24.0),
+    col("Class", "class", CellKind::Class, 26.0),
+    col("Flag", "code", CellKind::Text, 20.0),
+    col("Direction", "direction", CellKind::Text, 9.0),
+    col("Reason", "detail", CellKind::Text, 90.0),
 ];
 
 /// One Flags row.
@@ -727,10 +782,10 @@ pub fn flag_row<'a>(b: &'a BuildingResult, f: &'a crate::results::Flag, out: &mu
 
 /// Columns of the Not screened table.
 pub const NOT_SCREENED: &[Column] = &[
-    col("Sheet", "sheet", Kind::Text, 12.0),
-    col("Row", "row", Kind::Int, 8.0),
-    col("Id", "id", Kind::Text, 14.0),
-    col("Reasons", "reasons", Kind::Text, 100.0),
+    col("Sheet", "sheet", CellKind::Text, 12.0),
+    col("Row", "row", CellKind::Int, 8.0),
+    col("Id", "id", CellKind::Text, 14.0),
+    col("Reasons", "reasons", CellKind::Text, 100.0),
 ];
 
 /// One Not screened row.
@@ -746,11 +801,11 @@ pub fn not_screened_row<'a>(n: &'a NotScreened, out: &mut Vec<Cell<'a>>) {
 
 /// Columns of the Input problems table.
 pub const PROBLEMS: &[Column] = &[
-    col("Severity", "severity", Kind::Text, 10.0),
-    col("Sheet", "sheet", Kind::Text, 12.0),
-    col("Row", "row", Kind::Int, 8.0),
-    col("Column", "column", Kind::Text, 22.0),
-    col("Problem", "message", Kind::Text, 100.0),
+    col("Severity", "severity", CellKind::Text, 10.0),
+    col("Sheet", "sheet", CellKind::Text, 12.0),
+    col("Row", "row", CellKind::Int, 8.0),
+    col("Column", "column", CellKind::Text, 22.0),
+    col("Problem", "message", CellKind::Text, 100.0),
 ];
 
 /// One Input problems row.
@@ -789,7 +844,7 @@ pub struct RowCounts {
 
 impl RowCounts {
     /// Counts the rows of every table of a report.
-    pub fn of(report: &Report) -> Self {
+    pub fn of(report: &Screening) -> Self {
         RowCounts {
             priority: report.buildings.len(),
             retrofit: report
@@ -808,7 +863,7 @@ impl RowCounts {
 
 /// The per-row tables, in sheet order.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
-pub enum Table {
+pub enum TableId {
     /// Priority.
     Priority,
     /// Retrofit plan.
@@ -825,39 +880,39 @@ pub enum Table {
     Problems,
 }
 
-impl Table {
+impl TableId {
     /// Every table in sheet order.
-    pub const ALL: [Table; 7] = [
-        Table::Priority,
-        Table::Retrofit,
-        Table::Directions,
-        Table::Walls,
-        Table::Flags,
-        Table::NotScreened,
-        Table::Problems,
+    pub const ALL: [TableId; 7] = [
+        TableId::Priority,
+        TableId::Retrofit,
+        TableId::Directions,
+        TableId::Walls,
+        TableId::Flags,
+        TableId::NotScreened,
+        TableId::Problems,
     ];
     /// Its columns.
     pub fn columns(self) -> &'static [Column] {
         match self {
-            Table::Priority => PRIORITY,
-            Table::Retrofit => RETROFIT,
-            Table::Directions => DIRECTIONS,
-            Table::Walls => WALLS,
-            Table::Flags => FLAGS,
-            Table::NotScreened => NOT_SCREENED,
-            Table::Problems => PROBLEMS,
+            TableId::Priority => PRIORITY,
+            TableId::Retrofit => RETROFIT,
+            TableId::Directions => DIRECTIONS,
+            TableId::Walls => WALLS,
+            TableId::Flags => FLAGS,
+            TableId::NotScreened => NOT_SCREENED,
+            TableId::Problems => PROBLEMS,
         }
     }
     /// Its sheet name (interface.md).
     pub fn sheet_name(self) -> &'static str {
         match self {
-            Table::Priority => "Priority",
-            Table::Retrofit => "Retrofit plan",
-            Table::Directions => "Directions",
-            Table::Walls => "Walls",
-            Table::Flags => "Flags",
-            Table::NotScreened => "Not screened",
-            Table::Problems => "Input problems",
+            TableId::Priority => "Priority",
+            TableId::Retrofit => "Retrofit plan",
+            TableId::Directions => "Directions",
+            TableId::Walls => "Walls",
+            TableId::Flags => "Flags",
+            TableId::NotScreened => "Not screened",
+            TableId::Problems => "Input problems",
         }
     }
 
@@ -866,7 +921,11 @@ impl Table {
     pub fn per_row(self) -> bool {
         matches!(
             self,
-            Table::Priority | Table::Retrofit | Table::Directions | Table::Walls | Table::Flags
+            TableId::Priority
+                | TableId::Retrofit
+                | TableId::Directions
+                | TableId::Walls
+                | TableId::Flags
         )
     }
 
@@ -876,7 +935,7 @@ impl Table {
     pub fn per_building(self) -> bool {
         matches!(
             self,
-            Table::Priority | Table::Directions | Table::Walls | Table::Flags
+            TableId::Priority | TableId::Directions | TableId::Walls | TableId::Flags
         )
     }
 
@@ -890,29 +949,29 @@ impl Table {
         mut emit: impl FnMut(&[Cell<'a>]) -> Result<(), E>,
     ) -> Result<(), E> {
         match self {
-            Table::Priority => {
+            TableId::Priority => {
                 priority_row(b, target, buf);
                 emit(buf)?;
             }
-            Table::Directions => {
+            TableId::Directions => {
                 for d in Dir::BOTH {
                     direction_row(b, d, buf);
                     emit(buf)?;
                 }
             }
-            Table::Walls => {
+            TableId::Walls => {
                 for w in &b.walls {
                     wall_row(b, w, buf);
                     emit(buf)?;
                 }
             }
-            Table::Flags => {
+            TableId::Flags => {
                 for f in &b.flags {
                     flag_row(b, f, buf);
                     emit(buf)?;
                 }
             }
-            Table::Retrofit | Table::NotScreened | Table::Problems => {}
+            TableId::Retrofit | TableId::NotScreened | TableId::Problems => {}
         }
         Ok(())
     }
@@ -920,32 +979,32 @@ impl Table {
     /// The `<sheet>` part of `<out stem>.<sheet>.csv`.
     pub fn file_tag(self) -> &'static str {
         match self {
-            Table::Priority => "priority",
-            Table::Retrofit => "retrofit-plan",
-            Table::Directions => "directions",
-            Table::Walls => "walls",
-            Table::Flags => "flags",
-            Table::NotScreened => "not-screened",
-            Table::Problems => "input-problems",
+            TableId::Priority => "priority",
+            TableId::Retrofit => "retrofit-plan",
+            TableId::Directions => "directions",
+            TableId::Walls => "walls",
+            TableId::Flags => "flags",
+            TableId::NotScreened => "not-screened",
+            TableId::Problems => "input-problems",
         }
     }
     /// Its number of data rows.
     pub fn rows(self, c: &RowCounts) -> usize {
         match self {
-            Table::Priority => c.priority,
-            Table::Retrofit => c.retrofit,
-            Table::Directions => c.directions,
-            Table::Walls => c.walls,
-            Table::Flags => c.flags,
-            Table::NotScreened => c.not_screened,
-            Table::Problems => c.problems,
+            TableId::Priority => c.priority,
+            TableId::Retrofit => c.retrofit,
+            TableId::Directions => c.directions,
+            TableId::Walls => c.walls,
+            TableId::Flags => c.flags,
+            TableId::NotScreened => c.not_screened,
+            TableId::Problems => c.problems,
         }
     }
 
     /// Calls `emit` with each row of the table (at most `limit` rows), in order.
     pub fn for_each_row<E>(
         self,
-        report: &Report,
+        report: &Screening,
         target: Target,
         limit: usize,
         mut emit: impl FnMut(&[Cell<'_>]) -> Result<(), E>,
@@ -962,7 +1021,7 @@ impl Table {
             }};
         }
         match self {
-            Table::Priority | Table::Directions | Table::Walls | Table::Flags => {
+            TableId::Priority | TableId::Directions | TableId::Walls | TableId::Flags => {
                 for b in &report.buildings {
                     let mut full = false;
                     self.for_each_building_row(b, target, &mut buf, |cells| {
@@ -979,7 +1038,7 @@ impl Table {
                     }
                 }
             }
-            Table::Retrofit => {
+            TableId::Retrofit => {
                 let mut cumulative = 0.0;
                 let mut cum_known = true;
                 for b in report.buildings.iter().filter(|b| b.retrofit.is_some()) {
@@ -992,13 +1051,13 @@ impl Table {
                     push!();
                 }
             }
-            Table::NotScreened => {
+            TableId::NotScreened => {
                 for ns in &report.not_screened {
                     not_screened_row(ns, &mut buf);
                     push!();
                 }
             }
-            Table::Problems => {
+            TableId::Problems => {
                 for p in &report.problems {
                     problem_row(p, &mut buf);
                     push!();

@@ -278,7 +278,7 @@ pub enum Workbook<R: Read + Seek> {
 }
 
 /// Rows of a sheet are handed to `sink`; cut cells are reported as (row, col) in `truncated`.
-pub type Sink<'a> = dyn FnMut(RawRow, &[usize]) -> Result<(), InputError> + 'a;
+pub type RowSink<'a> = dyn FnMut(RawRow, &[usize]) -> Result<(), InputError> + 'a;
 
 impl<R: Read + Seek> Workbook<R> {
     /// Marks an .xlsx whose `workbook.xml` asks for a full recalculation on opening.
@@ -329,7 +329,7 @@ impl<R: Read + Seek> Workbook<R> {
         path: &str,
         budget: &Budget,
         counter: &mut CellCounter,
-        sink: &mut Sink<'_>,
+        sink: &mut RowSink<'_>,
     ) -> Result<(), InputError> {
         match self {
             Workbook::Xlsx(w, recalc) => stream_xlsx(w, *recalc, name, path, counter, sink),
@@ -368,7 +368,7 @@ fn stream_xlsx<R: Read + Seek>(
     name: &str,
     path: &str,
     counter: &mut CellCounter,
-    sink: &mut Sink<'_>,
+    sink: &mut RowSink<'_>,
 ) -> Result<(), InputError> {
     let is_1904 = wb.has_1904_epoch();
     let mut reader = wb
@@ -434,7 +434,7 @@ fn dense(
     path: &str,
     budget: &Budget,
     counter: &mut CellCounter,
-    sink: &mut Sink<'_>,
+    sink: &mut RowSink<'_>,
 ) -> Result<(), InputError> {
     let (h, w) = values.get_size();
     let cells = (h as u64).saturating_mul(w as u64);
