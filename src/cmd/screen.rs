@@ -44,12 +44,6 @@ fn same_file(a: &Path, b: &Path) -> bool {
     }
 }
 
-/// The outputs written (kind, path) as the summary names them.
-type Written = Vec<(String, PathBuf)>;
-/// Maps the outputs written to what the summary shows (the stdout scratch file → "standard
-/// output").
-type Shown<'a> = dyn Fn(&[(String, PathBuf)]) -> Written + 'a;
-
 /// Whether an output path is `-` (standard output).
 fn is_stdout(p: &Path) -> bool {
     p.as_os_str() == "-"
@@ -117,18 +111,6 @@ pub fn run(o: &Options) -> anyhow::Result<ExitCode> {
 /// standard output (the summary then goes to stderr and names it "standard output").
 fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitCode> {
     let summary_to_stderr = stdout_scratch.is_some();
-    let shown = |written: &[(String, PathBuf)]| -> Written {
-        written
-            .iter()
-            .map(|(k, p)| {
-                if Some(p.as_path()) == stdout_scratch {
-                    (k.clone(), PathBuf::from("standard output"))
-                } else {
-                    (k.clone(), p.clone())
-                }
-            })
-            .collect()
-    };
     let stem = o
         .inventory
         .file_stem()
@@ -179,60 +161,81 @@ fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitC
             .num_threads(n)
             .build_global();
     }
+    // A large CSV stock is read in chunks (bounded memory; per-row tables as CSV files
+    // beside the workbook): the same flow with the large-stock sink variants.
     let from = seistriage::stream::threshold();
-    if seistriage::stream::applies(&o.inventory, from) {
+    let chunked = seistriage::stream::applies(&o.inventory, from);
+    let mut previous = None;
+    let source = if chunked {
         if o.brief.is_some() || o.previous.is_some() {
             eprintln!(
                 "seistriage: warning: --brief and --previous are not available for a stock \
                  screened in chunks (a CSV of more than {from} lines); they are left out"
             );
         }
-        return run_streamed(o, &out, summary_to_stderr, &shown);
-    }
-    // Read the previous run first: a wrong file is found before the screening runs.
-    let previous = o
-        .previous
-        .as_ref()
-        .map(|p| {
-            report::changes::read_previous(p)
-                .with_context(|| format!("reading the previous run {}", p.display()))
-        })
-        .transpose()?;
-    let progress = ProgressLine::spinner(o.quiet, "reading the inventory");
-    let loaded = pipeline::load(&o.inventory, &o.run);
-    progress.finish();
-    let loaded = loaded?;
-    if loaded.inventory.buildings.is_empty() {
-        const SHOWN: usize = 20;
-        for p in loaded.inventory.problems.iter().take(SHOWN) {
-            eprintln!("{p}");
-        }
-        if loaded.inventory.problems.len() > SHOWN {
-            eprintln!(
-                "… and {} more problems (`seistriage check` lists them all)",
-                loaded.inventory.problems.len() - SHOWN
+        // Method §13 on a streamed stock needs per-sample ranks over the whole stock, about
+        // 13·B·N bytes in memory (README, Performance): not offered on this path.
+        let settings = pipeline::settle_settings(&[], &mut Vec::new(), &o.run)?;
+        if settings.samples > 0 {
+            bail!(
+                "{}: --samples (method §13) is not available for a stock this large (more than {} CSV lines, screened in chunks): \
+                 the per-sample ranks of the whole stock would not fit in bounded memory; \
+                 run without --samples (or samples = 0), or screen the stock in parts",
+                o.inventory.display(),
+                from
             );
         }
-        eprintln!(
-            "seistriage: {}: no valid building row; nothing to screen",
-            o.inventory.display()
-        );
-        return Ok(ExitCode::from(1));
-    }
-    let store = seistriage::uncertainty::store_bytes(
-        loaded.inventory.buildings.len(),
-        loaded.settings.samples,
-    );
-    if store > seistriage::uncertainty::MAX_STORE_BYTES {
-        bail!(
-            "{}: --samples {} on {} buildings would hold about {:.1} GiB of samples (13 bytes per building and sample; at most {} GiB): use fewer samples or screen the stock in parts",
-            o.inventory.display(),
-            loaded.settings.samples,
+        pipeline::Source::CsvChunks {
+            path: &o.inventory,
+            rows: seistriage::stream::chunk_rows(),
+        }
+    } else {
+        // Read the previous run first: a wrong file is found before the screening runs.
+        previous = o
+            .previous
+            .as_ref()
+            .map(|p| {
+                report::changes::read_previous(p)
+                    .with_context(|| format!("reading the previous run {}", p.display()))
+            })
+            .transpose()?;
+        let progress = ProgressLine::spinner(o.quiet, "reading the inventory");
+        let loaded = pipeline::load(&o.inventory, &o.run);
+        progress.finish();
+        let loaded = loaded?;
+        if loaded.inventory.buildings.is_empty() {
+            const SHOWN: usize = 20;
+            for p in loaded.inventory.problems.iter().take(SHOWN) {
+                eprintln!("{p}");
+            }
+            if loaded.inventory.problems.len() > SHOWN {
+                eprintln!(
+                    "… and {} more problems (`seistriage check` lists them all)",
+                    loaded.inventory.problems.len() - SHOWN
+                );
+            }
+            eprintln!(
+                "seistriage: {}: no valid building row; nothing to screen",
+                o.inventory.display()
+            );
+            return Ok(ExitCode::from(1));
+        }
+        let store = seistriage::uncertainty::store_bytes(
             loaded.inventory.buildings.len(),
-            store as f64 / f64::from(1u32 << 30),
-            seistriage::uncertainty::MAX_STORE_BYTES >> 30
+            loaded.settings.samples,
         );
-    }
+        if store > seistriage::uncertainty::MAX_STORE_BYTES {
+            bail!(
+                "{}: --samples {} on {} buildings would hold about {:.1} GiB of samples (13 bytes per building and sample; at most {} GiB): use fewer samples or screen the stock in parts",
+                o.inventory.display(),
+                loaded.settings.samples,
+                loaded.inventory.buildings.len(),
+                store as f64 / f64::from(1u32 << 30),
+                seistriage::uncertainty::MAX_STORE_BYTES >> 30
+            );
+        }
+        pipeline::Source::Loaded(std::borrow::Cow::Owned(loaded))
+    };
     for p in [
         Some(&out),
         o.json.as_ref(),
@@ -247,49 +250,84 @@ fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitC
                 .with_context(|| format!("creating {}", parent.display()))?;
         }
     }
-    // The whole inventory is one chunk; the sinks write at the end, in this order.
+    // The sinks, in the order they finish. A whole file is one chunk and its sinks write at
+    // the end from every result; a chunked stock takes the large-stock variants, which write
+    // the per-row tables (and the JSON spill) as the chunks come.
     let changes = std::cell::OnceCell::new();
-    let mut progress = sinks::ProgressSink::new(o.quiet, "screening");
+    let top = std::cell::OnceCell::new();
+    let rows = sinks::StockRows::default();
+    let mut progress = sinks::ProgressSink::new(
+        o.quiet,
+        if chunked {
+            "screening in chunks"
+        } else {
+            "screening"
+        },
+    );
     let mut compare = previous.map(|p| sinks::ChangesSink::new(p, &changes));
     let with_changes = compare.as_ref().map(|_| &changes);
-    let mut workbook = sinks::WorkbookSink::new(&out, with_changes, o.quiet);
-    let mut json = o.json.as_deref().map(sinks::JsonSink::new);
-    let mut csv = o.csv.as_deref().map(sinks::PriorityCsvSink::new);
-    let mut geojson = o.geojson.as_deref().map(sinks::GeoJsonSink::new);
-    let mut brief = sinks::BriefSink {
-        path: o.brief.clone(),
-        workbook: out.clone(),
-        always: o.brief_always,
-        inventory: o.inventory.clone(),
-        districts: o.run.districts.clone(),
-        faults: o.run.faults.clone(),
-        changes: with_changes,
-    };
+    let mut keep_rows = chunked.then(|| sinks::StockRowsSink { rows: &rows });
+    let mut workbook = None;
+    let mut large_workbook = None;
+    let mut json = None;
+    let mut spilled_json = None;
+    let mut csv = None;
+    let mut copied_csv = None;
+    let mut geojson = None;
+    let mut stock_geojson = None;
+    let mut brief = None;
+    if chunked {
+        large_workbook = Some(sinks::LargeWorkbookSink::new(&out, &rows, &top)?);
+        if let Some(p) = o.json.as_deref() {
+            spilled_json = Some(sinks::SpilledJsonSink::new(p)?);
+        }
+        copied_csv = o.csv.clone().map(|path| sinks::CopiedPriorityCsvSink {
+            from: report::workbook::csv_path(&out, report::workbook::tables::TableId::Priority),
+            path,
+        });
+        stock_geojson = o
+            .geojson
+            .clone()
+            .map(|path| sinks::StockGeoJsonSink { path, rows: &rows });
+    } else {
+        workbook = Some(sinks::WorkbookSink::new(&out, with_changes, o.quiet));
+        json = o.json.as_deref().map(sinks::JsonSink::new);
+        csv = o.csv.as_deref().map(sinks::PriorityCsvSink::new);
+        geojson = o.geojson.as_deref().map(sinks::GeoJsonSink::new);
+        brief = Some(sinks::BriefSink {
+            path: o.brief.clone(),
+            workbook: out.clone(),
+            always: o.brief_always,
+            inventory: o.inventory.clone(),
+            districts: o.run.districts.clone(),
+            faults: o.run.faults.clone(),
+            changes: with_changes,
+        });
+    }
     let mut terminal = sinks::TerminalSink {
         stdout_scratch: stdout_scratch.map(Path::to_path_buf),
+        top: Some(&top),
         text: None,
     };
     let mut all: Vec<&mut dyn Sink> = vec![&mut progress];
-    if let Some(s) = compare.as_mut() {
-        all.push(s);
+    fn add<'s, 'a, S: Sink + 'a>(all: &mut Vec<&'s mut (dyn Sink + 'a)>, s: &'s mut Option<S>) {
+        if let Some(s) = s.as_mut() {
+            all.push(s);
+        }
     }
-    all.push(&mut workbook);
-    if let Some(s) = json.as_mut() {
-        all.push(s);
-    }
-    if let Some(s) = csv.as_mut() {
-        all.push(s);
-    }
-    if let Some(s) = geojson.as_mut() {
-        all.push(s);
-    }
-    all.push(&mut brief);
+    add(&mut all, &mut compare);
+    add(&mut all, &mut keep_rows);
+    add(&mut all, &mut workbook);
+    add(&mut all, &mut large_workbook);
+    add(&mut all, &mut json);
+    add(&mut all, &mut spilled_json);
+    add(&mut all, &mut csv);
+    add(&mut all, &mut copied_csv);
+    add(&mut all, &mut geojson);
+    add(&mut all, &mut stock_geojson);
+    add(&mut all, &mut brief);
     all.push(&mut terminal);
-    let outcome = pipeline::run(
-        pipeline::Source::Loaded(std::borrow::Cow::Owned(loaded)),
-        &o.run,
-        &mut all,
-    )?;
+    let outcome = pipeline::run(source, &o.run, &mut all)?;
     drop(all);
     if outcome.screening.counts.screened == 0 {
         return Ok(nothing_screened(&outcome.screening, &o.inventory));
@@ -315,66 +353,6 @@ fn print_summary(text: &str, to_stderr: bool) -> anyhow::Result<()> {
             .and_then(|()| stdout.flush())
             .context("writing the summary to stdout")
     }
-}
-
-/// `screen` on the streaming path (a CSV stock above the threshold; see
-/// `seistriage::stream`): bounded memory, per-row tables as CSV files beside the workbook.
-fn run_streamed(
-    o: &Options,
-    out: &Path,
-    summary_to_stderr: bool,
-    shown: &Shown<'_>,
-) -> anyhow::Result<ExitCode> {
-    // Method §13 on a streamed stock needs per-sample ranks over the whole stock, about
-    // 13·B·N bytes in memory (README, Performance): not offered on this path.
-    let settings = pipeline::settle_settings(&[], &mut Vec::new(), &o.run)?;
-    if settings.samples > 0 {
-        bail!(
-            "{}: --samples (method §13) is not available for a stock this large (more than {} CSV lines, screened in chunks): \
-             the per-sample ranks of the whole stock would not fit in bounded memory; \
-             run without --samples (or samples = 0), or screen the stock in parts",
-            o.inventory.display(),
-            seistriage::stream::threshold()
-        );
-    }
-    for p in [
-        Some(out),
-        o.json.as_deref(),
-        o.csv.as_deref(),
-        o.geojson.as_deref(),
-    ]
-    .into_iter()
-    .flatten()
-    {
-        if let Some(parent) = p.parent().filter(|p| !p.as_os_str().is_empty()) {
-            std::fs::create_dir_all(parent)
-                .with_context(|| format!("creating {}", parent.display()))?;
-        }
-    }
-    let progress = ProgressLine::spinner(o.quiet, "screening in chunks");
-    let streamed = seistriage::stream::screen_to_files(
-        &o.inventory,
-        &o.run,
-        out,
-        seistriage::stream::Extras {
-            priority_csv: o.csv.as_deref(),
-            json: o.json.as_deref(),
-            geojson: o.geojson.as_deref(),
-        },
-        seistriage::stream::chunk_rows(),
-        &|n| progress.set(n),
-    );
-    progress.finish();
-    let streamed = streamed?;
-    let report = &streamed.report;
-    if report.counts.screened == 0 {
-        return Ok(nothing_screened(report, &o.inventory));
-    }
-    if !o.quiet {
-        let text = report::terminal::summary(report, &shown(&streamed.written));
-        print_summary(&text, summary_to_stderr)?;
-    }
-    Ok(ExitCode::SUCCESS)
 }
 
 /// Says why no building could be screened (the first reasons, then how many more rows) and

@@ -15,7 +15,11 @@ come (per-row CSV files, the JSON spill).
 use std::borrow::Cow;
 use std::path::{Path, PathBuf};
 
+use std::collections::HashMap;
+
 use crate::engine::{self, BuildingInput, rank};
+use crate::geography::{self, Geography};
+use crate::input::{self, InputError};
 use crate::model::{Inventory, NotScreened, Problem, Severity};
 use crate::report::ReportError;
 use crate::results::{BuildingResult, Counts, InputInfo, Retrofit, Screening};
@@ -196,12 +200,29 @@ pub enum Source<'a> {
     /// A whole inventory read, settled and placed by [`super::load`]: one chunk; its full
     /// results are kept (whole-stock outputs, the §13 stage).
     Loaded(Cow<'a, Loaded>),
+    /// A large CSV stock (no sibling sheet files, no settings sheet) read in chunks of
+    /// `rows` rows ([`input::read_csv_chunks`], one chunk read ahead on a thread of its
+    /// own), after a first pass that finds the ids on more than one row
+    /// ([`crate::stream::repeated_ids`]); only the compact rows are kept.
+    CsvChunks {
+        /// The CSV file.
+        path: &'a Path,
+        /// Rows per chunk.
+        rows: usize,
+    },
 }
+
+/// What the driver does with each chunk a source reads (its inventory part and inputs).
+type ChunkFn<'f> = dyn FnMut(&Inventory, &[BuildingInput<'_>]) -> Result<(), SinkError> + 'f;
 
 /// What a source settled before its chunks: the settings and the input file.
 struct Settled {
     settings: Settings,
     input: InputInfo,
+    /// Problems of the settings and the geography files (chunked sources).
+    problems: Vec<Problem>,
+    /// The geography (chunked sources place each chunk).
+    geography: Option<Geography>,
 }
 
 /// What a source knows after its last chunk.
@@ -218,15 +239,37 @@ impl Source<'_> {
     pub fn keeps_results(&self) -> bool {
         match self {
             Source::Loaded(_) => true,
+            Source::CsvChunks { .. } => false,
         }
     }
 
-    fn settle(&self) -> Settled {
+    /// Settles the settings and loads the geography, once.
+    fn settle(&self, opts: &RunOptions) -> Result<Settled, PipelineError> {
         match self {
-            Source::Loaded(l) => Settled {
+            // Settled and placed by `load` (which `check` and `explain` share).
+            Source::Loaded(l) => Ok(Settled {
                 settings: l.settings.clone(),
                 input: l.input.clone(),
-            },
+                problems: Vec::new(),
+                geography: None,
+            }),
+            Source::CsvChunks { path, .. } => {
+                let mut problems = Vec::new();
+                // No settings sheet on this path (a CSV with sibling files is read whole).
+                let settings = super::settle_settings(&[], &mut problems, opts)?;
+                let (geo, geo_problems) =
+                    Geography::load(opts.districts.as_deref(), opts.faults.as_deref())?;
+                problems.extend(geo_problems);
+                Ok(Settled {
+                    settings,
+                    input: InputInfo {
+                        file: path.display().to_string(),
+                        sha256: super::sha256_hex(path),
+                    },
+                    problems,
+                    geography: Some(geo),
+                })
+            }
         }
     }
 
@@ -234,18 +277,58 @@ impl Source<'_> {
     /// with its inputs.
     fn read(
         self,
-        settings: &Settings,
-        each: &mut dyn FnMut(&Inventory, &[BuildingInput<'_>]) -> Result<(), SinkError>,
+        opts: &RunOptions,
+        settled: &mut Settled,
+        each: &mut ChunkFn<'_>,
     ) -> Result<Rest, RunError> {
         match self {
             Source::Loaded(l) => {
                 let inputs = engine::building_inputs(&l.inventory, &l.sites);
-                let _ = settings;
                 each(&l.inventory, &inputs)?;
                 Ok(Rest {
                     rows: l.inventory.rows,
                     blank_rows: l.inventory.blank_rows,
                     problems: l.inventory.problems.clone(),
+                })
+            }
+            Source::CsvChunks { path, rows } => {
+                let settings = &settled.settings;
+                let geo = settled.geography.take().unwrap_or_default();
+                // The rows are checked against the limits of the effective settings, as in
+                // `load`.
+                let read = input::ReadOptions {
+                    limits: input::Limits::from_settings(settings),
+                    ..opts.read.clone()
+                };
+                let duplicates =
+                    crate::stream::repeated_ids(path, &read).map_err(PipelineError::from)?;
+                let mut row_problems = Vec::new();
+                let mut site_problems = Vec::new();
+                let mut failure: Option<SinkError> = None;
+                let rest = read_chunks_ahead(path, &read, rows, &duplicates, &mut |mut inv| {
+                    if failure.is_some() {
+                        return;
+                    }
+                    let (sites, sp) = geography::locate(&inv.buildings, &geo, settings);
+                    site_problems.extend(sp);
+                    row_problems.append(&mut inv.problems);
+                    let inputs = engine::building_inputs(&inv, &sites);
+                    if let Err(e) = each(&inv, &inputs) {
+                        failure = Some(e);
+                    }
+                })
+                .map_err(PipelineError::from)?;
+                if let Some(e) = failure {
+                    return Err(e.into());
+                }
+                let mut problems = rest.problems;
+                problems.extend(row_problems);
+                problems.append(&mut settled.problems);
+                problems.extend(site_problems);
+                Ok(Rest {
+                    rows: rest.rows,
+                    blank_rows: rest.blank_rows,
+                    problems,
                 })
             }
         }
@@ -279,17 +362,18 @@ pub struct Outcome {
 /// sink. When no building could be screened no sink is finished (nothing is written).
 pub fn run(
     source: Source<'_>,
-    _opts: &RunOptions,
+    opts: &RunOptions,
     sinks: &mut [&mut dyn Sink],
 ) -> Result<Outcome, RunError> {
-    let Settled { settings, input } = source.settle();
+    let mut settled = source.settle(opts)?;
+    let settings = settled.settings.clone();
     let keep = source.keeps_results();
     let mut kept: Vec<BuildingResult> = Vec::new();
     let mut order: Vec<RankedBuilding> = Vec::new();
     let mut not_screened: Vec<NotScreened> = Vec::new();
     let mut uncertainty = None;
     let mut plan_done = None;
-    let rest = source.read(&settings, &mut |inv, inputs| {
+    let rest = source.read(opts, &mut settled, &mut |inv, inputs| {
         let screening = engine::screen_all(inputs, &settings);
         let mut buildings = screening.buildings;
         retrofit::size_all(&mut buildings, inputs, &settings);
@@ -346,7 +430,7 @@ pub fn run(
     let screening = Screening {
         tool: "seistriage",
         version: env!("CARGO_PKG_VERSION"),
-        input,
+        input: settled.input,
         settings,
         counts,
         buildings: kept,
@@ -405,4 +489,132 @@ fn tally(rows: usize, blank_rows: usize, not_screened: usize, order: &[RankedBui
         }
     }
     counts
+}
+
+/// [`input::read_csv_chunks`] on a thread of its own, one chunk ahead: while `on_chunk`
+/// screens and writes a chunk on this thread, the next one is read (at most one read chunk
+/// waits, so memory stays bounded). Chunks arrive in file order, as from the reader itself.
+fn read_chunks_ahead(
+    path: &Path,
+    read: &input::ReadOptions,
+    chunk_rows: usize,
+    duplicates: &HashMap<String, Vec<usize>>,
+    on_chunk: &mut dyn FnMut(Inventory),
+) -> Result<Inventory, InputError> {
+    std::thread::scope(|scope| {
+        let (tx, rx) = std::sync::mpsc::sync_channel(1);
+        let reader = scope.spawn(move || {
+            input::read_csv_chunks(path, read, chunk_rows, duplicates, &mut |inv| {
+                // A closed channel means the screening side has gone: nothing to deliver to.
+                let _ = tx.send(inv);
+            })
+        });
+        for inv in rx {
+            on_chunk(inv);
+        }
+        reader
+            .join()
+            .unwrap_or_else(|panic| std::panic::resume_unwind(panic))
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    #![allow(clippy::unwrap_used, clippy::expect_used)]
+
+    use super::*;
+
+    /// Records what the driver gives a sink.
+    #[derive(Default)]
+    struct Recorder {
+        chunks: Vec<(usize, usize, Vec<usize>)>,
+        finished: Option<(Vec<(Box<str>, usize, usize)>, bool, usize)>,
+    }
+
+    impl Sink for Recorder {
+        fn on_chunk(&mut self, chunk: &Chunk<'_>) -> Result<(), SinkError> {
+            let rows: Vec<usize> = chunk.buildings.iter().map(|b| b.row).collect();
+            // Every screened building has its input in the chunk.
+            for b in chunk.buildings {
+                assert!(chunk.inputs.iter().any(|i| i.record.row == b.row));
+            }
+            self.chunks
+                .push((chunk.first_slot, chunk.buildings.len(), rows));
+            Ok(())
+        }
+        fn finish(&mut self, ranked: &Ranked<'_>) -> Result<Written, SinkError> {
+            let order = ranked
+                .order
+                .iter()
+                .map(|k| (k.id.clone(), k.rank, k.slot))
+                .collect();
+            self.finished = Some((order, ranked.whole(), ranked.screening.counts.screened));
+            Ok(vec![("test".into(), PathBuf::from("x"))])
+        }
+    }
+
+    fn opts(dir: &Path) -> RunOptions {
+        let s = dir.join("s.toml");
+        std::fs::write(&s, "agr_g = 0.25\n").unwrap();
+        RunOptions {
+            settings_file: Some(s),
+            ..Default::default()
+        }
+    }
+
+    #[test]
+    fn a_chunked_source_and_the_whole_file_give_the_same_ranked_order() {
+        let dir = tempfile::tempdir().unwrap();
+        let p = dir.path().join("g.csv");
+        crate::demo::write_generated(50, &p, 3).unwrap();
+        let opts = opts(dir.path());
+
+        let mut whole = Recorder::default();
+        let loaded = super::super::load(&p, &opts).unwrap();
+        let a = run(
+            Source::Loaded(Cow::Owned(loaded)),
+            &opts,
+            &mut [&mut whole as &mut dyn Sink],
+        )
+        .unwrap();
+        let mut chunked = Recorder::default();
+        let b = run(
+            Source::CsvChunks { path: &p, rows: 7 },
+            &opts,
+            &mut [&mut chunked as &mut dyn Sink],
+        )
+        .unwrap();
+
+        // One chunk for the whole file, eight of at most 7 rows for the chunked source;
+        // slots number the buildings in chunk order, each chunk in file order.
+        assert_eq!(whole.chunks.len(), 1);
+        assert_eq!(chunked.chunks.len(), 8);
+        let mut next = 0;
+        for (first, n, rows) in &chunked.chunks {
+            assert_eq!(*first, next);
+            next += n;
+            assert!(rows.windows(2).all(|w| w[0] < w[1]), "{rows:?}");
+        }
+        let (wo, w_whole, w_n) = whole.finished.unwrap();
+        let (co, c_whole, c_n) = chunked.finished.unwrap();
+        assert!(w_whole && !c_whole);
+        assert_eq!((w_n, c_n), (next, next));
+        let ids = |o: &[(Box<str>, usize, usize)]| -> Vec<(Box<str>, usize)> {
+            o.iter().map(|(id, r, _)| (id.clone(), *r)).collect()
+        };
+        assert_eq!(ids(&wo), ids(&co));
+        assert!(co.iter().enumerate().all(|(i, (_, r, _))| *r == i + 1));
+        // The kept results are in rank order with their ranks; the chunked report keeps none.
+        assert!(
+            a.screening
+                .buildings
+                .iter()
+                .zip(&wo)
+                .all(|(b, (id, r, _))| *b.id == **id && b.rank == *r)
+        );
+        assert!(b.screening.buildings.is_empty());
+        assert_eq!(a.screening.counts, b.screening.counts);
+        assert_eq!(a.screening.budget_plan, b.screening.budget_plan);
+        assert_eq!(a.written.len(), 1);
+    }
 }
