@@ -13,9 +13,15 @@ use crate::engine;
 use crate::geography::{GeoError, Geography};
 use crate::input::{self, InputError, ReadOptions};
 use crate::model::{Inventory, Problem, Severity, SiteInfo};
-use crate::results::{Counts, InputInfo, Screening};
-use crate::retrofit;
+use crate::results::{InputInfo, Screening};
 use crate::settings::{Level, Settings, SettingsError};
+
+pub mod flow;
+pub mod sinks;
+
+pub use flow::{
+    Chunk, Outcome, Ranked, RankedBuilding, RunError, Sink, SinkError, Source, Written, run,
+};
 
 /// Input options shared by `screen`, `check` and `explain`.
 #[derive(Debug, Clone, Default)]
@@ -288,50 +294,17 @@ pub fn unresolved(loaded: &Loaded) -> Vec<crate::model::NotScreened> {
     out
 }
 
-/// Screens a loaded inventory: engine, retrofit sizing, budget plan, counts.
+/// Screens a loaded inventory: engine, retrofit sizing, budget plan, counts, the §13 stage
+/// ([`run`] on the whole inventory as one chunk, with no sink).
 pub fn screen(loaded: &Loaded) -> Screening {
-    let inputs = engine::building_inputs(&loaded.inventory, &loaded.sites);
-    let screening = engine::screen_all(&inputs, &loaded.settings);
-    let mut buildings = screening.buildings;
-    retrofit::size_all(&mut buildings, &inputs, &loaded.settings);
-    let mut budget_plan = retrofit::budget_plan(&mut buildings, &loaded.settings);
-    // Method §13 (N = 0 skips it): after the deterministic plan, which it does not change.
-    let uncertainty = crate::uncertainty::run(
-        &mut buildings,
-        &inputs,
-        &loaded.settings,
-        budget_plan.as_mut(),
-    );
-    let mut not_screened = loaded.inventory.not_screened.clone();
-    not_screened.extend(screening.not_screened);
-    not_screened.sort_by(|a, b| (a.sheet.as_str(), a.row).cmp(&(b.sheet.as_str(), b.row)));
-    let counts = Counts::tally(
-        loaded.inventory.rows,
-        loaded.inventory.blank_rows,
-        not_screened.len(),
-        &buildings,
-    );
-    let mut problems = loaded.inventory.problems.clone();
-    if let Some(message) = retrofit::budget_plan_unavailable(&loaded.settings) {
-        problems.push(Problem {
-            sheet: "settings".into(),
-            row: None,
-            column: "budget".into(),
-            message,
-            severity: Severity::Warning,
-        });
-    }
-    Screening {
-        tool: "seistriage",
-        version: env!("CARGO_PKG_VERSION"),
-        input: loaded.input.clone(),
-        settings: loaded.settings.clone(),
-        counts,
-        buildings,
-        budget_plan,
-        uncertainty,
-        not_screened,
-        problems,
+    match run(
+        Source::Loaded(std::borrow::Cow::Borrowed(loaded)),
+        &RunOptions::default(),
+        &mut [],
+    ) {
+        Ok(outcome) => outcome.screening,
+        // A loaded inventory reads without error and there is no sink to fail.
+        Err(e) => unreachable!("screening a loaded inventory without sinks failed: {e}"),
     }
 }
 

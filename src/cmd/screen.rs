@@ -4,7 +4,7 @@ use std::path::{Path, PathBuf};
 use std::process::ExitCode;
 
 use anyhow::{Context, bail};
-use seistriage::pipeline::{self, RunOptions};
+use seistriage::pipeline::{self, RunOptions, Sink, sinks};
 use seistriage::report;
 use seistriage::report::terminal::ProgressLine;
 use std::io::Write;
@@ -233,105 +233,69 @@ fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitC
             seistriage::uncertainty::MAX_STORE_BYTES >> 30
         );
     }
-    let progress = ProgressLine::spinner(o.quiet, "screening");
-    let report = pipeline::screen(&loaded);
-    // The report holds everything the writers need: free the inventory before writing.
-    drop(loaded);
-    progress.finish();
-    if report.buildings.is_empty() {
-        return Ok(nothing_screened(&report, &o.inventory));
-    }
-    let mut written: Vec<(String, PathBuf)> = Vec::new();
-    if let Some(parent) = out.parent().filter(|p| !p.as_os_str().is_empty()) {
-        std::fs::create_dir_all(parent)
-            .with_context(|| format!("creating {}", parent.display()))?;
-    }
-    let progress = ProgressLine::spinner(o.quiet, "writing the workbook");
-    let total = report::workbook::tables::RowCounts::of(&report);
-    progress.rows(
-        (total.priority
-            + total.retrofit
-            + total.directions
-            + total.walls
-            + total.flags
-            + total.not_screened
-            + total.problems) as u64,
-        "writing the workbook",
-    );
-    let changes = previous.map(|p| report::changes::compare(p, &report));
-    let extra =
-        report::workbook::write_with_changes(&report, &out, changes.as_ref(), &|n| progress.set(n));
-    progress.finish();
-    let extra = extra.with_context(|| format!("writing {}", out.display()))?;
-    written.push(("workbook".into(), out.clone()));
-    written.extend(extra);
-    for p in [o.json.as_ref(), o.csv.as_ref(), o.geojson.as_ref()]
-        .into_iter()
-        .flatten()
+    for p in [
+        Some(&out),
+        o.json.as_ref(),
+        o.csv.as_ref(),
+        o.geojson.as_ref(),
+    ]
+    .into_iter()
+    .flatten()
     {
         if let Some(parent) = p.parent().filter(|p| !p.as_os_str().is_empty()) {
             std::fs::create_dir_all(parent)
                 .with_context(|| format!("creating {}", parent.display()))?;
         }
     }
-    if let Some(p) = &o.json {
-        report::json::write(&report, p).with_context(|| format!("writing {}", p.display()))?;
-        written.push(("JSON".into(), p.clone()));
+    // The whole inventory is one chunk; the sinks write at the end, in this order.
+    let changes = std::cell::OnceCell::new();
+    let mut progress = sinks::ProgressSink::new(o.quiet, "screening");
+    let mut compare = previous.map(|p| sinks::ChangesSink::new(p, &changes));
+    let with_changes = compare.as_ref().map(|_| &changes);
+    let mut workbook = sinks::WorkbookSink::new(&out, with_changes, o.quiet);
+    let mut json = o.json.as_deref().map(sinks::JsonSink::new);
+    let mut csv = o.csv.as_deref().map(sinks::PriorityCsvSink::new);
+    let mut geojson = o.geojson.as_deref().map(sinks::GeoJsonSink::new);
+    let mut brief = sinks::BriefSink {
+        path: o.brief.clone(),
+        workbook: out.clone(),
+        always: o.brief_always,
+        inventory: o.inventory.clone(),
+        districts: o.run.districts.clone(),
+        faults: o.run.faults.clone(),
+        changes: with_changes,
+    };
+    let mut terminal = sinks::TerminalSink {
+        stdout_scratch: stdout_scratch.map(Path::to_path_buf),
+        text: None,
+    };
+    let mut all: Vec<&mut dyn Sink> = vec![&mut progress];
+    if let Some(s) = compare.as_mut() {
+        all.push(s);
     }
-    if let Some(p) = &o.csv {
-        report::csv::write_priority(&report, p)
-            .with_context(|| format!("writing {}", p.display()))?;
-        written.push(("CSV (Priority)".into(), p.clone()));
+    all.push(&mut workbook);
+    if let Some(s) = json.as_mut() {
+        all.push(s);
     }
-    if let Some(p) = &o.geojson {
-        report::geojson::write(&report, p).with_context(|| format!("writing {}", p.display()))?;
-        written.push(("GeoJSON".into(), p.clone()));
+    if let Some(s) = csv.as_mut() {
+        all.push(s);
     }
-    let brief_path = o.brief.clone().or_else(|| {
-        (o.brief_always || report::brief::wanted_by_default(&report)).then(|| {
-            let stem = out
-                .file_stem()
-                .map(|s| s.to_string_lossy().into_owned())
-                .unwrap_or_else(|| "screening".into());
-            out.with_file_name(format!("{stem}-brief.html"))
-        })
-    });
-    if let Some(p) = &brief_path {
-        if same_file(p, &o.inventory) {
-            bail!(
-                "refusing to write the brief over the input file {}",
-                o.inventory.display()
-            );
-        }
-        if let Some(parent) = p.parent().filter(|p| !p.as_os_str().is_empty()) {
-            std::fs::create_dir_all(parent)
-                .with_context(|| format!("creating {}", parent.display()))?;
-        }
-        // The map layers: the same files the screening read (their problems are already
-        // on the Input problems sheet).
-        let layers = seistriage::geography::Geography::load(
-            o.run.districts.as_deref(),
-            o.run.faults.as_deref(),
-        )
-        .ok()
-        .map(|(g, _)| report::brief::MapLayers::from_geography(&g));
-        let workbook_name = out.file_name().map(|n| n.to_string_lossy().into_owned());
-        let brief = report::brief::Brief {
-            report: &report,
-            layers: layers.as_ref(),
-            changes: changes.as_ref(),
-            workbook: workbook_name.as_deref(),
-            made_at: std::time::SystemTime::now()
-                .duration_since(std::time::UNIX_EPOCH)
-                .map(|d| d.as_secs() as i64)
-                .unwrap_or(0),
-        };
-        report::brief::write(&brief, p).with_context(|| format!("writing {}", p.display()))?;
-        written.push(("brief (HTML)".into(), p.clone()));
+    if let Some(s) = geojson.as_mut() {
+        all.push(s);
     }
-    if !o.quiet {
-        let text = report::terminal::summary(&report, &shown(&written));
-        print_summary(&text, summary_to_stderr)?;
+    all.push(&mut brief);
+    all.push(&mut terminal);
+    let outcome = pipeline::run(
+        pipeline::Source::Loaded(std::borrow::Cow::Owned(loaded)),
+        &o.run,
+        &mut all,
+    )?;
+    drop(all);
+    if outcome.screening.counts.screened == 0 {
+        return Ok(nothing_screened(&outcome.screening, &o.inventory));
+    }
+    if let (false, Some(text)) = (o.quiet, terminal.text.as_deref()) {
+        print_summary(text, summary_to_stderr)?;
     }
     Ok(ExitCode::SUCCESS)
 }

@@ -106,7 +106,7 @@ pub fn rank(buildings: &mut [BuildingResult]) {
 
 /// Rearranges `items` so that position k holds the item that was at `order[k]`
 /// (`order` is a permutation of `0..items.len()`), with one swap per misplaced item.
-fn apply_order<T>(items: &mut [T], order: &[usize]) {
+pub fn apply_order<T>(items: &mut [T], order: &[usize]) {
     let mut done = vec![false; items.len()];
     for start in 0..items.len() {
         if done[start] {

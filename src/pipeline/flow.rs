@@ -1,0 +1,408 @@
+/*!
+The one screening flow (issue 12, `docs/one-flow.md`): a [`Source`] gives the inventory as
+chunks (a whole file is one chunk), [`run`] screens and sizes each chunk, hands it to every
+[`Sink`] ([`Sink::on_chunk`]), keeps one compact [`RankedBuilding`] per building, ranks them
+(method §11), makes the budget plan (method §12; the only call of
+[`retrofit::budget_plan`]) and gives every sink the [`Ranked`] summary ([`Sink::finish`]).
+
+The whole-stock path and the large-stock path are the same driver with different sources
+and sinks: a whole file keeps its full results ([`Source::keeps_results`]), so
+[`Ranked::screening`] holds every building in rank order (and the §13 uncertainty stage runs
+on them); a chunked source keeps only the compact keys, and its sinks write as the chunks
+come (per-row CSV files, the JSON spill).
+*/
+
+use std::borrow::Cow;
+use std::path::{Path, PathBuf};
+
+use crate::engine::{self, BuildingInput, rank};
+use crate::model::{Inventory, NotScreened, Problem, Severity};
+use crate::report::ReportError;
+use crate::results::{BuildingResult, Counts, InputInfo, Retrofit, Screening};
+use crate::retrofit::{self, Fundable};
+use crate::settings::Settings;
+
+use super::{Loaded, PipelineError, RunOptions};
+
+/// Files written, each with the label the terminal summary shows.
+pub type Written = Vec<(String, PathBuf)>;
+
+/// One output (or later stage) of a screening run. Sinks are called in the order given to
+/// [`run`]: every chunk goes to every sink, then every sink gets [`Sink::finish`].
+pub trait Sink {
+    /// One screened chunk (buildings sized, not yet ranked across the stock). The default
+    /// does nothing: a whole-stock writer writes everything at [`Sink::finish`].
+    fn on_chunk(&mut self, chunk: &Chunk<'_>) -> Result<(), SinkError> {
+        let _ = chunk;
+        Ok(())
+    }
+
+    /// The ranked summary of the whole stock; returns the files written (label, path).
+    /// Not called when no building could be screened (nothing is written then).
+    fn finish(&mut self, ranked: &Ranked<'_>) -> Result<Written, SinkError>;
+}
+
+/// A sink failed: which file, and why.
+#[derive(Debug, thiserror::Error)]
+#[error("writing {path}: {source}")]
+pub struct SinkError {
+    /// The output's path.
+    pub path: String,
+    /// What failed.
+    pub source: ReportError,
+}
+
+impl SinkError {
+    /// `source` while writing `path`.
+    pub fn at(path: &Path) -> impl Fn(ReportError) -> SinkError + '_ {
+        move |source| SinkError {
+            path: path.display().to_string(),
+            source,
+        }
+    }
+}
+
+/// One screened chunk, as every sink sees it.
+#[derive(Debug)]
+pub struct Chunk<'a> {
+    /// The chunk's screened buildings in file order (ascending row), retrofits sized, with
+    /// their typed flags. `rank` and the budget marks are not final (see [`Ranked`]).
+    pub buildings: &'a [BuildingResult],
+    /// The chunk's inputs (one per building row read, screened or not; match a result to
+    /// its input by `record.row`).
+    pub inputs: &'a [BuildingInput<'a>],
+    /// Rows of this chunk that were not screened (read or engine refusals), file order.
+    pub not_screened: &'a [NotScreened],
+    /// The slot of `buildings[0]`: slots number the screened buildings of the whole stock
+    /// in the order the chunks gave them ([`RankedBuilding::slot`]).
+    pub first_slot: usize,
+    /// Inventory rows read in this chunk (progress).
+    pub rows: usize,
+    /// The settings in force.
+    pub settings: &'a Settings,
+}
+
+/// What the driver keeps of one screened building between the chunks and the end: the
+/// keys of method §11's order, its slot, and its retrofit for the budget plan.
+#[derive(Debug, Clone)]
+pub struct RankedBuilding {
+    /// Building id.
+    pub id: Box<str>,
+    /// Class 1–4.
+    pub class: u8,
+    /// Score.
+    pub score: f64,
+    /// Occupants.
+    pub occupants: Option<u64>,
+    /// Smaller priority index of the two directions (%).
+    pub min_pi_pct: f64,
+    /// Spreadsheet row.
+    pub row: usize,
+    /// Position in the order the chunks gave the buildings (see [`Chunk::first_slot`]).
+    pub slot: usize,
+    /// Rank 1..N (set by [`run`] after all chunks).
+    pub rank: usize,
+    /// The sized retrofit; after the budget plan its `funded`, `funded_best` and
+    /// `excluded` are final (the other fields are the chunk's).
+    pub retrofit: Option<Box<Retrofit>>,
+}
+
+impl RankedBuilding {
+    /// The compact row of a sized result at `slot`.
+    pub fn of(b: &BuildingResult, slot: usize) -> Self {
+        RankedBuilding {
+            id: b.id.as_str().into(),
+            class: b.class,
+            score: b.score,
+            occupants: b.occupants,
+            min_pi_pct: b.min_priority_index_pct(),
+            row: b.row,
+            slot,
+            rank: 0,
+            retrofit: b.retrofit.clone().map(Box::new),
+        }
+    }
+
+    /// Method §11's key.
+    pub fn key(&self) -> rank::RankKey<'_> {
+        rank::RankKey {
+            class: self.class,
+            score: self.score,
+            occupants: self.occupants.unwrap_or(0),
+            min_pi_pct: self.min_pi_pct,
+            id: &self.id,
+            row: self.row,
+        }
+    }
+
+    /// Writes the final rank and budget marks into the full result of this building.
+    pub fn mark(&self, b: &mut BuildingResult) {
+        b.rank = self.rank;
+        if let (Some(to), Some(from)) = (b.retrofit.as_mut(), self.retrofit.as_deref()) {
+            to.funded = from.funded;
+            to.funded_best = from.funded_best;
+            to.excluded.clone_from(&from.excluded);
+        }
+    }
+}
+
+impl Fundable for RankedBuilding {
+    fn rank(&self) -> usize {
+        self.rank
+    }
+    fn id(&self) -> &str {
+        &self.id
+    }
+    fn occupants(&self) -> Option<u64> {
+        self.occupants
+    }
+    fn class(&self) -> u8 {
+        self.class
+    }
+    fn retrofit(&self) -> Option<&Retrofit> {
+        self.retrofit.as_deref()
+    }
+    fn retrofit_mut(&mut self) -> Option<&mut Retrofit> {
+        self.retrofit.as_deref_mut()
+    }
+}
+
+/// The ranked summary every sink gets at the end.
+#[derive(Debug)]
+pub struct Ranked<'a> {
+    /// Every screened building's compact row, in rank order (`order[k].rank == k + 1`;
+    /// `order[k].slot` is its slot in the chunks).
+    pub order: &'a [RankedBuilding],
+    /// The report: tool, input, settings, counts (whole stock), budget plan, uncertainty,
+    /// not-screened rows (sorted by sheet and row) and problems. `buildings` holds every
+    /// building in rank order, final marks included, when the source keeps its results
+    /// ([`Ranked::whole`]); it is empty on a chunked source.
+    pub screening: &'a Screening,
+    /// The files the sinks before this one wrote (for the terminal summary).
+    pub written: &'a [(String, PathBuf)],
+}
+
+impl Ranked<'_> {
+    /// Whether [`Ranked::screening`] holds every building (a source that keeps results).
+    pub fn whole(&self) -> bool {
+        self.screening.buildings.len() == self.order.len()
+    }
+}
+
+/// Where the chunks come from. One place to add a source: a variant here, its reading in
+/// [`Source::read`] (and, when it does not keep its results, nothing else).
+#[derive(Debug)]
+pub enum Source<'a> {
+    /// A whole inventory read, settled and placed by [`super::load`]: one chunk; its full
+    /// results are kept (whole-stock outputs, the §13 stage).
+    Loaded(Cow<'a, Loaded>),
+}
+
+/// What a source settled before its chunks: the settings and the input file.
+struct Settled {
+    settings: Settings,
+    input: InputInfo,
+}
+
+/// What a source knows after its last chunk.
+struct Rest {
+    /// Inventory rows (buildings sheet), blank rows among them.
+    rows: usize,
+    blank_rows: usize,
+    /// Every problem (reading, settings, geography), in the order the outputs list them.
+    problems: Vec<Problem>,
+}
+
+impl Source<'_> {
+    /// Whether the full results are kept until the end (one chunk: a whole file).
+    pub fn keeps_results(&self) -> bool {
+        match self {
+            Source::Loaded(_) => true,
+        }
+    }
+
+    fn settle(&self) -> Settled {
+        match self {
+            Source::Loaded(l) => Settled {
+                settings: l.settings.clone(),
+                input: l.input.clone(),
+            },
+        }
+    }
+
+    /// Reads the chunks in order, placing each one's buildings, and gives each to `each`
+    /// with its inputs.
+    fn read(
+        self,
+        settings: &Settings,
+        each: &mut dyn FnMut(&Inventory, &[BuildingInput<'_>]) -> Result<(), SinkError>,
+    ) -> Result<Rest, RunError> {
+        match self {
+            Source::Loaded(l) => {
+                let inputs = engine::building_inputs(&l.inventory, &l.sites);
+                let _ = settings;
+                each(&l.inventory, &inputs)?;
+                Ok(Rest {
+                    rows: l.inventory.rows,
+                    blank_rows: l.inventory.blank_rows,
+                    problems: l.inventory.problems.clone(),
+                })
+            }
+        }
+    }
+}
+
+/// Failures of [`run`].
+#[derive(Debug, thiserror::Error)]
+pub enum RunError {
+    /// Reading, settings or geography.
+    #[error(transparent)]
+    Pipeline(#[from] PipelineError),
+    /// An output.
+    #[error(transparent)]
+    Sink(#[from] SinkError),
+}
+
+/// What a run gave back.
+#[derive(Debug)]
+pub struct Outcome {
+    /// The report (every building in rank order when the source keeps its results; none on
+    /// a chunked source), counts of the whole stock.
+    pub screening: Screening,
+    /// Files the sinks wrote, in sink order (empty when nothing could be screened).
+    pub written: Written,
+}
+
+/// The one driver: reads the source's chunks, screens and sizes each (method §0–§12's
+/// per-building part), gives it to every sink, ranks all buildings (§11), makes the budget
+/// plan (§12), runs the §13 stage on a source that keeps its results, and finishes every
+/// sink. When no building could be screened no sink is finished (nothing is written).
+pub fn run(
+    source: Source<'_>,
+    _opts: &RunOptions,
+    sinks: &mut [&mut dyn Sink],
+) -> Result<Outcome, RunError> {
+    let Settled { settings, input } = source.settle();
+    let keep = source.keeps_results();
+    let mut kept: Vec<BuildingResult> = Vec::new();
+    let mut order: Vec<RankedBuilding> = Vec::new();
+    let mut not_screened: Vec<NotScreened> = Vec::new();
+    let mut uncertainty = None;
+    let mut plan_done = None;
+    let rest = source.read(&settings, &mut |inv, inputs| {
+        let screening = engine::screen_all(inputs, &settings);
+        let mut buildings = screening.buildings;
+        retrofit::size_all(&mut buildings, inputs, &settings);
+        // File order (the engine ranked the chunk on its own).
+        buildings.sort_by_key(|b| b.row);
+        let mut chunk_not_screened = inv.not_screened.clone();
+        chunk_not_screened.extend(screening.not_screened);
+        let first_slot = order.len();
+        let chunk = Chunk {
+            buildings: &buildings,
+            inputs,
+            not_screened: &chunk_not_screened,
+            first_slot,
+            rows: inv.rows,
+            settings: &settings,
+        };
+        for s in sinks.iter_mut() {
+            s.on_chunk(&chunk)?;
+        }
+        order.extend(
+            buildings
+                .iter()
+                .enumerate()
+                .map(|(i, b)| RankedBuilding::of(b, first_slot + i)),
+        );
+        not_screened.append(&mut chunk_not_screened);
+        if keep {
+            kept.append(&mut buildings);
+            // One chunk: rank, plan and the §13 stage while its inputs are at hand.
+            let plan = rank_and_plan(&mut order, &settings);
+            mark_and_order(&mut kept, &order);
+            let mut plan = plan;
+            uncertainty = crate::uncertainty::run(&mut kept, inputs, &settings, plan.as_mut());
+            plan_done = Some(plan);
+        }
+        Ok(())
+    })?;
+    let budget_plan = match plan_done {
+        Some(plan) => plan,
+        None => rank_and_plan(&mut order, &settings),
+    };
+    not_screened.sort_by(|a, b| (a.sheet.as_str(), a.row).cmp(&(b.sheet.as_str(), b.row)));
+    let counts = tally(rest.rows, rest.blank_rows, not_screened.len(), &order);
+    let mut problems = rest.problems;
+    if let Some(message) = retrofit::budget_plan_unavailable(&settings) {
+        problems.push(Problem {
+            sheet: "settings".into(),
+            row: None,
+            column: "budget".into(),
+            message,
+            severity: Severity::Warning,
+        });
+    }
+    let screening = Screening {
+        tool: "seistriage",
+        version: env!("CARGO_PKG_VERSION"),
+        input,
+        settings,
+        counts,
+        buildings: kept,
+        budget_plan,
+        uncertainty,
+        not_screened,
+        problems,
+    };
+    let mut written = Written::new();
+    if !order.is_empty() {
+        for s in sinks.iter_mut() {
+            let ranked = Ranked {
+                order: &order,
+                screening: &screening,
+                written: &written,
+            };
+            let mut w = s.finish(&ranked)?;
+            written.append(&mut w);
+        }
+    }
+    Ok(Outcome { screening, written })
+}
+
+/// Ranks the compact rows (method §11, [`rank::key_order`]: a total order, so an unstable
+/// sort gives the one order) and makes the budget plan on them (method §12).
+fn rank_and_plan(
+    order: &mut [RankedBuilding],
+    settings: &Settings,
+) -> Option<crate::results::BudgetPlan> {
+    order.sort_unstable_by(|a, b| rank::key_order(&a.key(), &b.key()));
+    for (i, c) in order.iter_mut().enumerate() {
+        c.rank = i + 1;
+    }
+    retrofit::budget_plan(order, settings)
+}
+
+/// Puts the kept full results (slot order) into rank order with their final marks.
+fn mark_and_order(kept: &mut [BuildingResult], order: &[RankedBuilding]) {
+    let slots: Vec<usize> = order.iter().map(|c| c.slot).collect();
+    rank::apply_order(kept, &slots);
+    for (b, c) in kept.iter_mut().zip(order) {
+        c.mark(b);
+    }
+}
+
+/// The counts of the whole stock from the compact rows (the rule of [`Counts::tally`]).
+fn tally(rows: usize, blank_rows: usize, not_screened: usize, order: &[RankedBuilding]) -> Counts {
+    let mut counts = Counts::tally(rows, blank_rows, not_screened, &[]);
+    counts.screened = order.len();
+    for c in order {
+        match c.class {
+            1 => counts.by_class.c1 += 1,
+            2 => counts.by_class.c2 += 1,
+            3 => counts.by_class.c3 += 1,
+            _ => counts.by_class.c4 += 1,
+        }
+    }
+    counts
+}
