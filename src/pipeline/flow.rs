@@ -198,6 +198,9 @@ pub enum Source<'a> {
     Loaded(Cow<'a, Loaded>),
 }
 
+/// What the driver does with each chunk a source reads (its inventory part and inputs).
+type ChunkFn<'f> = dyn FnMut(&Inventory, &[BuildingInput<'_>]) -> Result<(), SinkError> + 'f;
+
 /// What a source settled before its chunks: the settings and the input file.
 struct Settled {
     settings: Settings,
@@ -232,11 +235,7 @@ impl Source<'_> {
 
     /// Reads the chunks in order, placing each one's buildings, and gives each to `each`
     /// with its inputs.
-    fn read(
-        self,
-        settings: &Settings,
-        each: &mut dyn FnMut(&Inventory, &[BuildingInput<'_>]) -> Result<(), SinkError>,
-    ) -> Result<Rest, RunError> {
+    fn read(self, settings: &Settings, each: &mut ChunkFn<'_>) -> Result<Rest, RunError> {
         match self {
             Source::Loaded(l) => {
                 let inputs = engine::building_inputs(&l.inventory, &l.sites);
