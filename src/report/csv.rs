@@ -15,7 +15,7 @@ use rayon::prelude::*;
 
 use super::ReportError;
 use super::atomic::write_atomic;
-use super::workbook::tables::{Cell, TableId, Target};
+use super::workbook::tables::{Cell, CellKind, CellSink, TableId, Target};
 use crate::results::{BuildingResult, Screening};
 
 /// The formula-injection guard: prefixes `'` to text that a spreadsheet would run as a
@@ -78,12 +78,16 @@ fn write_priority_with_samples<W: Write>(
             .map(|c| c.key)
             .chain(SAMPLE_COLUMNS),
     )?;
-    let mut num = String::new();
-    let mut buf = Vec::with_capacity(TableId::Priority.columns().len() + SAMPLE_COLUMNS.len());
+    let mut sink = CsvSink::new(&mut w, false);
     for b in report.buildings.iter().take(limit) {
-        super::workbook::tables::priority_row(b, Target::Csv, &mut buf);
-        buf.extend(sample_cells(b));
-        write_cells(&buf, false, &mut num, &mut w)?;
+        super::workbook::tables::priority_cells(b, &mut sink);
+        for c in sample_cells(b) {
+            match c {
+                Cell::Num(v) => sink.number(v, CellKind::Dec3),
+                _ => sink.blank(),
+            }
+        }
+        sink.end_row()?;
     }
     w.flush()?;
     Ok(())
@@ -131,10 +135,7 @@ pub fn write_rows<W: Write>(
         return write_building_rows(&report.buildings, table, blank_rank, out);
     }
     let mut w = ::csv::Writer::from_writer(out);
-    let mut num = String::new();
-    table.for_each_row(report, Target::Csv, limit, |cells| {
-        write_cells(cells, blank_rank, &mut num, &mut w)
-    })?;
+    table.write_rows(report, limit, &mut CsvSink::new(&mut w, blank_rank))?;
     w.flush()?;
     Ok(())
 }
@@ -160,12 +161,9 @@ pub fn write_building_rows<W: Write>(
             .par_chunks(BUILDINGS_PER_TASK)
             .map(|run| {
                 let mut pw = ::csv::Writer::from_writer(Vec::new());
-                let mut num = String::new();
-                let mut buf = Vec::with_capacity(table.columns().len());
+                let mut sink = CsvSink::new(&mut pw, blank_rank);
                 for b in run {
-                    table.for_each_building_row(b, Target::Csv, &mut buf, |cells| {
-                        write_cells(cells, blank_rank, &mut num, &mut pw)
-                    })?;
+                    table.write_building_rows(b, &mut sink)?;
                 }
                 pw.into_inner()
                     .map_err(|e| ReportError::from(e.into_error()))
@@ -200,6 +198,73 @@ pub fn write_cells<W: Write>(
     // Ends the record (the fields above were written one by one, without copies).
     w.write_record(None::<&[u8]>)?;
     Ok(())
+}
+
+/// A CSV writer as a [`CellSink`]: text through the formula-injection [`guard`], numbers
+/// at full precision ([`number_text`]), blanks and non-finite numbers empty; with
+/// `blank_first` the first cell of every row is written empty.
+pub struct CsvSink<'w, W: Write> {
+    w: &'w mut ::csv::Writer<W>,
+    num: String,
+    blank_first: bool,
+    col: usize,
+    err: Option<::csv::Error>,
+}
+
+impl<'w, W: Write> CsvSink<'w, W> {
+    /// A sink writing records to `w`.
+    pub fn new(w: &'w mut ::csv::Writer<W>, blank_first: bool) -> Self {
+        CsvSink {
+            w,
+            num: String::new(),
+            blank_first,
+            col: 0,
+            err: None,
+        }
+    }
+
+    fn field(&mut self, text: Option<&str>) {
+        let first = self.col == 0;
+        self.col += 1;
+        let t = if first && self.blank_first {
+            ""
+        } else {
+            text.unwrap_or(&self.num)
+        };
+        if let Err(e) = self.w.write_field(t)
+            && self.err.is_none()
+        {
+            self.err = Some(e);
+        }
+    }
+}
+
+impl<W: Write> CellSink for CsvSink<'_, W> {
+    fn target(&self) -> Target {
+        Target::Csv
+    }
+    fn text(&mut self, text: &str) {
+        let g = guard(text);
+        self.field(Some(&g));
+    }
+    fn number(&mut self, value: f64, _: CellKind) {
+        let mut num = std::mem::take(&mut self.num);
+        number_text(value, &mut num);
+        self.num = num;
+        self.field(None);
+    }
+    fn blank(&mut self) {
+        self.field(Some(""));
+    }
+    fn end_row(&mut self) -> Result<(), ReportError> {
+        self.col = 0;
+        if let Some(e) = self.err.take() {
+            return Err(e.into());
+        }
+        // Ends the record (the fields above were written one by one, without copies).
+        self.w.write_record(None::<&[u8]>)?;
+        Ok(())
+    }
 }
 
 /// Writes one table as a CSV file, through a temporary file renamed when complete.

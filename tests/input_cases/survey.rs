@@ -291,38 +291,23 @@ fn unit_mistakes_are_errors_naming_the_likely_unit_and_rare_values_are_warnings(
             .map(|(_, r)| r.clone())
             .unwrap_or_default()
     };
-    assert!(
-        reason("M1")
-            .contains("storey height from 1.5 to 12 m, found 3100 m: it looks like mm (3.1 m)"),
-        "{}",
-        reason("M1")
-    );
-    assert!(
-        reason("M2").contains("it looks like mm (0.4 m)"),
-        "{}",
-        reason("M2")
-    );
-    assert!(
-        reason("M3").contains("it looks like m/s² (0.3 g)"),
-        "{}",
-        reason("M3")
-    );
-    assert!(
-        reason("M4").contains("floor weight from 2 to 40 kPa"),
-        "{}",
-        reason("M4")
-    );
-    assert!(
-        reason("M5").contains("column depth from 0.1 to 3 m, found 40 m: it looks like cm (0.4 m)"),
-        "{}",
-        reason("M5")
-    );
-    // 400 mm = 0.4 m is a plausible wall length too; the first plausible unit is named.
-    assert!(
-        reason("M6").contains("it looks like mm (0.4 m)"),
-        "{}",
-        reason("M6")
-    );
+    for (id, needle) in [
+        (
+            "M1",
+            "storey height from 1.5 to 12 m, found 3100 m: it looks like mm (3.1 m)",
+        ),
+        ("M2", "it looks like mm (0.4 m)"),
+        ("M3", "it looks like m/s² (0.3 g)"),
+        ("M4", "floor weight from 2 to 40 kPa"),
+        (
+            "M5",
+            "column depth from 0.1 to 3 m, found 40 m: it looks like cm (0.4 m)",
+        ),
+        // 400 mm = 0.4 m is a plausible wall length too; the first plausible unit is named.
+        ("M6", "it looks like mm (0.4 m)"),
+    ] {
+        assert!(reason(id).contains(needle), "{id}: {}", reason(id));
+    }
     assert_eq!(ns.len(), 6, "{ns:?}");
     let ids: Vec<&str> = v["buildings"]
         .as_array()
@@ -782,20 +767,24 @@ fn outputs_to_standard_output_and_their_usage_errors() {
         "i.xlsx",
         &[("buildings", vec![head(), good("O1"), good("O2")])],
     );
-    let o = run(
-        d,
-        &[
-            "screen",
-            "i.xlsx",
-            "--settings",
-            "h.toml",
-            "--out",
-            "r.xlsx",
-            "--json",
-            "-",
-        ],
-    );
-    assert!(o.status.success(), "{}", text(&o));
+    let to_stdout = |option: &str| {
+        let o = run(
+            d,
+            &[
+                "screen",
+                "i.xlsx",
+                "--settings",
+                "h.toml",
+                "--out",
+                "r.xlsx",
+                option,
+                "-",
+            ],
+        );
+        assert!(o.status.success(), "{option}: {}", text(&o));
+        o
+    };
+    let o = to_stdout("--json");
     let v: Value = serde_json::from_slice(&o.stdout).expect("stdout is the JSON alone");
     assert_eq!(v["counts"]["screened"], 2);
     let err = String::from_utf8_lossy(&o.stderr);
@@ -803,36 +792,8 @@ fn outputs_to_standard_output_and_their_usage_errors() {
         err.contains("JSON: standard output") && err.contains("CAUTION"),
         "{err}"
     );
-    let o = run(
-        d,
-        &[
-            "screen",
-            "i.xlsx",
-            "--settings",
-            "h.toml",
-            "--out",
-            "r.xlsx",
-            "--csv",
-            "-",
-        ],
-    );
-    assert!(o.status.success());
-    assert!(String::from_utf8_lossy(&o.stdout).starts_with("rank,id,"));
-    let o = run(
-        d,
-        &[
-            "screen",
-            "i.xlsx",
-            "--settings",
-            "h.toml",
-            "--out",
-            "r.xlsx",
-            "--geojson",
-            "-",
-        ],
-    );
-    assert!(o.status.success());
-    assert!(String::from_utf8_lossy(&o.stdout).contains("FeatureCollection"));
+    assert!(String::from_utf8_lossy(&to_stdout("--csv").stdout).starts_with("rank,id,"));
+    assert!(String::from_utf8_lossy(&to_stdout("--geojson").stdout).contains("FeatureCollection"));
     let o = run(d, &["screen", "i.xlsx", "--json", "-", "--csv", "-"]);
     assert_eq!(o.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&o.stderr).contains("only one output"));

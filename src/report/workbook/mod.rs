@@ -35,7 +35,7 @@ use super::atomic::write_atomic;
 use super::changes::Changes;
 use crate::results::Screening;
 use style::{Print, Styles};
-use tables::{Cell, CellKind, RowCounts, TableId, Target};
+use tables::{CellKind, CellSink, RowCounts, TableId, Target};
 
 /// Rows of a worksheet, header included (Excel and LibreOffice limit).
 pub const SHEET_ROWS: usize = 1_048_576;
@@ -180,34 +180,122 @@ fn column_formatted(kind: CellKind) -> bool {
     !matches!(kind, CellKind::Text | CellKind::Class)
 }
 
-/// Writes one cell; non-finite numbers and blanks leave the cell empty.
+/// The worksheet as a [`CellSink`]: each cell is written at the next column of the current
+/// row; non-finite numbers and blanks leave the cell empty; text is cut at the cell limit.
+/// With `fit_rows` a row holding wrapped text gets the height of its longest text.
+pub(crate) struct SheetSink<'w, 's> {
+    ws: &'w mut Worksheet,
+    styles: &'s Styles,
+    cols: &'static [tables::Column],
+    row: u32,
+    col: u16,
+    fit_rows: bool,
+    lines: usize,
+    err: Option<ReportError>,
+}
+
+impl<'w, 's> SheetSink<'w, 's> {
+    /// A sink writing rows from `row` on.
+    pub(crate) fn new(
+        ws: &'w mut Worksheet,
+        styles: &'s Styles,
+        cols: &'static [tables::Column],
+        row: u32,
+        fit_rows: bool,
+    ) -> Self {
+        SheetSink {
+            ws,
+            styles,
+            cols,
+            row,
+            col: 0,
+            fit_rows,
+            lines: 1,
+            err: None,
+        }
+    }
+
+    fn keep(&mut self, r: Result<(), rust_xlsxwriter::XlsxError>) {
+        if let Err(e) = r
+            && self.err.is_none()
+        {
+            self.err = Some(e.into());
+        }
+    }
+}
+
+impl CellSink for SheetSink<'_, '_> {
+    fn target(&self) -> Target {
+        Target::Sheet
+    }
+    fn text(&mut self, text: &str) {
+        let (row, col) = (self.row, self.col);
+        self.col += 1;
+        if self.fit_rows
+            && let Some(c) = self.cols.get(usize::from(col))
+            && c.kind == CellKind::Text
+            && c.width >= WRAP_FROM_WIDTH
+        {
+            // Spreadsheet applications do not all size rows to wrapped text when they open a
+            // file (LibreOffice keeps the default height): set the height from the text.
+            self.lines = self.lines.max(wrapped_lines(text, c.width));
+        }
+        let r = self.ws.write_string(row, col, cut(text)).map(|_| ());
+        self.keep(r);
+    }
+    fn number(&mut self, value: f64, kind: CellKind) {
+        let (row, col) = (self.row, self.col);
+        self.col += 1;
+        if !value.is_finite() {
+            return;
+        }
+        let r = if column_formatted(kind) {
+            self.ws.write_number(row, col, value)
+        } else {
+            let f = if kind == CellKind::Class {
+                self.styles.class_format(value)
+            } else {
+                self.styles.kind(kind)
+            };
+            self.ws.write_number_with_format(row, col, value, f)
+        }
+        .map(|_| ());
+        self.keep(r);
+    }
+    fn blank(&mut self) {
+        self.col += 1;
+    }
+    fn end_row(&mut self) -> Result<(), ReportError> {
+        if self.lines > 1 {
+            let h = ROW_HEIGHT_PT * self.lines.min(MAX_ROW_LINES) as f64;
+            let r = self.ws.set_row_height(self.row, h).map(|_| ());
+            self.keep(r);
+        }
+        self.lines = 1;
+        self.row += 1;
+        self.col = 0;
+        self.err.take().map_or(Ok(()), Err)
+    }
+}
+
+/// Writes one cell (a [`tables::Cell`] of a small sheet outside the per-row tables) the way
+/// [`SheetSink`] writes it.
 fn put(
     ws: &mut Worksheet,
     row: u32,
     col: u16,
-    cell: &Cell<'_>,
+    cell: &tables::Cell<'_>,
     kind: CellKind,
     styles: &Styles,
 ) -> Result<(), ReportError> {
+    let mut sink = SheetSink::new(ws, styles, &[], row, false);
+    sink.col = col;
     match cell {
-        Cell::Blank => {}
-        Cell::Num(v) if !v.is_finite() => {}
-        Cell::Num(v) if column_formatted(kind) => {
-            ws.write_number(row, col, *v)?;
-        }
-        Cell::Num(v) => {
-            let f = if kind == CellKind::Class {
-                styles.class_format(*v)
-            } else {
-                styles.kind(kind)
-            };
-            ws.write_number_with_format(row, col, *v, f)?;
-        }
-        Cell::Text(t) => {
-            ws.write_string(row, col, cut(t))?;
-        }
+        tables::Cell::Blank => sink.blank(),
+        tables::Cell::Num(v) => sink.number(*v, kind),
+        tables::Cell::Text(t) => sink.text(t),
     }
-    Ok(())
+    sink.err.map_or(Ok(()), Err)
 }
 
 /// Text columns at least this wide (characters) wrap their text.
@@ -302,31 +390,9 @@ fn write_table_sheet(
     for (i, c) in cols.iter().enumerate() {
         ws.write_string_with_format(0, i as u16, c.header, &styles.header)?;
     }
-    let mut r: u32 = 1;
-    let wrapped = |c: &tables::Column| c.kind == CellKind::Text && c.width >= WRAP_FROM_WIDTH;
-    let any_wrapped = fit_rows && cols.iter().any(wrapped);
-    table.for_each_row(report, Target::Sheet, rows, |cells| {
-        if any_wrapped {
-            // Spreadsheet applications do not all size rows to wrapped text when they open a
-            // file (LibreOffice keeps the default height): set the height from the text.
-            let lines = cells
-                .iter()
-                .zip(cols)
-                .filter(|(_, c)| wrapped(c))
-                .map(|(cell, c)| match cell {
-                    Cell::Text(t) => wrapped_lines(t, c.width),
-                    _ => 1,
-                })
-                .max()
-                .unwrap_or(1);
-            if lines > 1 {
-                ws.set_row_height(r, ROW_HEIGHT_PT * lines.min(MAX_ROW_LINES) as f64)?;
-            }
-        }
-        for (i, (cell, c)) in cells.iter().zip(cols).enumerate() {
-            put(ws, r, i as u16, cell, c.kind, styles)?;
-        }
-        r += 1;
+    let mut sink = SheetSink::new(ws, styles, cols, 1, fit_rows);
+    table.rows_into(report, rows, &mut sink, |s| {
+        s.end_row()?;
         let n = done.fetch_add(1, Ordering::Relaxed) + 1;
         if n.is_multiple_of(PROGRESS_EVERY) {
             progress(n);
