@@ -224,6 +224,25 @@ pub fn sha256_hex(path: &Path) -> String {
     h.finalize().iter().map(|b| format!("{b:02x}")).collect()
 }
 
+/// The districts and fault traces of `--districts` / `--faults`, loaded once per run (with
+/// the problems of their files): the one place the screening loads its geography.
+pub fn load_geography(opts: &RunOptions) -> Result<(Geography, Vec<Problem>), PipelineError> {
+    Ok(Geography::load(
+        opts.districts.as_deref(),
+        opts.faults.as_deref(),
+    )?)
+}
+
+/// Places buildings (district, hazard, fault distance): the one place the screening does
+/// (a whole file at once in [`load`], a chunked stock chunk by chunk in [`run`]).
+pub fn place(
+    buildings: &[crate::model::BuildingRecord],
+    geo: &Geography,
+    settings: &Settings,
+) -> (HashMap<String, SiteInfo>, Vec<Problem>) {
+    crate::geography::locate(buildings, geo, settings)
+}
+
 /// Reads the inventory, settles the settings and places the buildings. The settings are
 /// settled as soon as the inventory's settings sheet is read, so the rows are checked
 /// against the plausibility limits of the effective settings ([`input::Limits`]).
@@ -254,9 +273,9 @@ pub fn load(path: &Path, opts: &RunOptions) -> Result<Loaded, PipelineError> {
     let mut problems = std::mem::take(&mut inventory.problems);
     problems.append(&mut sheet_problems);
     let settings = with_eras_sheet(settings, &inventory, &mut problems);
-    let (geo, geo_problems) = Geography::load(opts.districts.as_deref(), opts.faults.as_deref())?;
+    let (geo, geo_problems) = load_geography(opts)?;
     problems.extend(geo_problems);
-    let (sites, site_problems) = crate::geography::locate(&inventory.buildings, &geo, &settings);
+    let (sites, site_problems) = place(&inventory.buildings, &geo, &settings);
     problems.extend(site_problems);
     inventory.problems = problems;
     Ok(Loaded {

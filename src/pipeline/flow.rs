@@ -18,7 +18,7 @@ use std::path::{Path, PathBuf};
 use std::collections::HashMap;
 
 use crate::engine::{self, BuildingInput, rank};
-use crate::geography::{self, Geography};
+use crate::geography::Geography;
 use crate::input::{self, InputError};
 use crate::model::{Inventory, NotScreened, Problem, Severity};
 use crate::report::ReportError;
@@ -257,8 +257,7 @@ impl Source<'_> {
                 let mut problems = Vec::new();
                 // No settings sheet on this path (a CSV with sibling files is read whole).
                 let settings = super::settle_settings(&[], &mut problems, opts)?;
-                let (geo, geo_problems) =
-                    Geography::load(opts.districts.as_deref(), opts.faults.as_deref())?;
+                let (geo, geo_problems) = super::load_geography(opts)?;
                 problems.extend(geo_problems);
                 Ok(Settled {
                     settings,
@@ -309,7 +308,7 @@ impl Source<'_> {
                     if failure.is_some() {
                         return;
                     }
-                    let (sites, sp) = geography::locate(&inv.buildings, &geo, settings);
+                    let (sites, sp) = super::place(&inv.buildings, &geo, settings);
                     site_problems.extend(sp);
                     row_problems.append(&mut inv.problems);
                     let inputs = engine::building_inputs(&inv, &sites);
@@ -377,8 +376,11 @@ pub fn run(
         let screening = engine::screen_all(inputs, &settings);
         let mut buildings = screening.buildings;
         retrofit::size_all(&mut buildings, inputs, &settings);
-        // File order (the engine ranked the chunk on its own).
-        buildings.sort_by_key(|b| b.row);
+        // File order (the engine ranked the chunk on its own): the order found on indices
+        // and applied with one move per result (rows are unique).
+        let mut by_row: Vec<usize> = (0..buildings.len()).collect();
+        by_row.sort_unstable_by_key(|&i| buildings[i].row);
+        rank::apply_order(&mut buildings, &by_row);
         let mut chunk_not_screened = inv.not_screened.clone();
         chunk_not_screened.extend(screening.not_screened);
         let first_slot = order.len();
