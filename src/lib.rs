@@ -8,7 +8,9 @@ Layers, from the edges in:
 - [`geography`] places buildings in districts and measures their distance to fault traces;
 - [`engine`] is the screening method of `method.md` §0–§11 as pure functions on typed values;
 - [`retrofit`] sizes wall retrofits, costs them and plans a budget (§12);
-- [`pipeline`] runs the whole job and returns a [`results::Screening`];
+- [`pipeline`] runs the whole job, one flow for a whole file and a stock read in chunks:
+  chunks are screened and handed to the outputs (sinks), and it returns a
+  [`results::Screening`];
 - [`report`] writes the report as a workbook, JSON, CSV, GeoJSON and terminal text.
 
 Screening only: the results rank buildings for detailed evaluation; they are not a

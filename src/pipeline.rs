@@ -1,7 +1,8 @@
 /*!
 The whole job, from an inventory path to a [`Screening`]: read, settle the settings, place the
-buildings, screen, size retrofits, plan the budget. Writing the report is left to
-[`crate::report`]; this module does no terminal or file output.
+buildings ([`load`]), then the one screening flow ([`run`], `flow.rs`): screen, size
+retrofits, rank, plan the budget, and hand every chunk and the ranked summary to the outputs
+([`Sink`]s; today's writers as sinks are in [`sinks`]). `docs/one-flow.md` describes it.
 */
 
 use std::collections::HashMap;

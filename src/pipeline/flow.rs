@@ -48,20 +48,20 @@ pub trait Sink {
 
 /// A sink failed: which file, and why.
 #[derive(Debug, thiserror::Error)]
-#[error("writing {path}: {source}")]
+#[error("writing {path}: {error}")]
 pub struct SinkError {
     /// The output's path.
     pub path: String,
-    /// What failed.
-    pub source: ReportError,
+    /// What failed (not a `source`: the message holds it once, not twice).
+    pub error: ReportError,
 }
 
 impl SinkError {
-    /// `source` while writing `path`.
+    /// `error` while writing `path`.
     pub fn at(path: &Path) -> impl Fn(ReportError) -> SinkError + '_ {
-        move |source| SinkError {
+        move |error| SinkError {
             path: path.display().to_string(),
-            source,
+            error,
         }
     }
 }
@@ -403,7 +403,12 @@ pub fn run(
         );
         not_screened.append(&mut chunk_not_screened);
         if keep {
-            kept.append(&mut buildings);
+            // Moved, not copied: a second buffer of every result would raise the peak.
+            if kept.is_empty() {
+                kept = std::mem::take(&mut buildings);
+            } else {
+                kept.append(&mut buildings);
+            }
             // One chunk: rank, plan and the §13 stage while its inputs are at hand.
             let plan = rank_and_plan(&mut order, &settings);
             mark_and_order(&mut kept, &order);
