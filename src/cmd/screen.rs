@@ -266,7 +266,7 @@ fn run_files(o: &Options, stdout_scratch: Option<&Path>) -> anyhow::Result<ExitC
     );
     let mut compare = previous.map(|p| sinks::ChangesSink::new(p, &changes));
     let with_changes = compare.as_ref().map(|_| &changes);
-    let mut keep_rows = chunked.then(|| sinks::StockRowsSink { rows: &rows });
+    let mut keep_rows = chunked.then_some(sinks::StockRowsSink { rows: &rows });
     let mut workbook = None;
     let mut large_workbook = None;
     let mut json = None;

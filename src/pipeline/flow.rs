@@ -195,6 +195,8 @@ impl Ranked<'_> {
 
 /// Where the chunks come from. One place to add a source: a variant here, its reading in
 /// [`Source::read`] (and, when it does not keep its results, nothing else).
+// One value per run: the size of its largest variant costs nothing.
+#[allow(clippy::large_enum_variant)]
 #[derive(Debug)]
 pub enum Source<'a> {
     /// A whole inventory read, settled and placed by [`super::load`]: one chunk; its full
@@ -531,11 +533,14 @@ mod tests {
 
     use super::*;
 
+    /// What a recorded `finish` saw: the order (id, row, slot), whole or chunked, screened.
+    type Finished = (Vec<(Box<str>, usize, usize)>, bool, usize);
+
     /// Records what the driver gives a sink.
     #[derive(Default)]
     struct Recorder {
         chunks: Vec<(usize, usize, Vec<usize>)>,
-        finished: Option<(Vec<(Box<str>, usize, usize)>, bool, usize)>,
+        finished: Option<Finished>,
     }
 
     impl Sink for Recorder {
